@@ -1,0 +1,53 @@
+// ESLint flat config (kept as a dotfile; run with `eslint -c .eslint.config.js`).
+import js from '@eslint/js';
+import ts from 'typescript-eslint';
+import svelte from 'eslint-plugin-svelte';
+import globals from 'globals';
+import svelteConfig from './svelte.config.js';
+
+const core = ['domain', 'pendulum', 'stats', 'export', 'demo'];
+const browserGlobals = [
+  'window', 'document', 'navigator', 'localStorage', 'sessionStorage', 'indexedDB', 'location',
+  'fetch', 'alert', 'confirm',
+].map((name) => ({
+  name,
+  message: 'The computational core takes what it needs as arguments (pass `now`, `rng`, data); see DEVELOPERS.md.',
+}));
+
+export default ts.config(
+  { ignores: ['build/', '.svelte-kit/', 'node_modules/', 'test-output/', 'coverage/'] },
+  js.configs.recommended,
+  ...ts.configs.recommended,
+  ...svelte.configs.recommended,
+  {
+    languageOptions: { globals: { ...globals.browser, ...globals.node } },
+    rules: {
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+    },
+  },
+  {
+    files: ['**/*.svelte', '**/*.svelte.ts'],
+    languageOptions: { parserOptions: { parser: ts.parser, extraFileExtensions: ['.svelte'], svelteConfig } },
+  },
+  {
+    // The core never touches the page, storage or the clock: it runs unchanged in Node and workers.
+    files: [...core.map((d) => `src/lib/${d}/**/*.ts`), 'src/lib/sensors/signal/**/*.ts'],
+    rules: {
+      'no-restricted-globals': ['error', ...browserGlobals],
+      'no-restricted-properties': [
+        'error',
+        { object: 'Math', property: 'random', message: 'Pass a seeded rng in.' },
+        { object: 'Date', property: 'now', message: 'Pass `now` in.' },
+      ],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ['svelte', 'svelte/*', '$app/*', 'dexie', 'uplot', '*.svelte'], message: 'The core imports no UI or storage.' },
+            { group: ['**/store', '**/store/*', '**/ui/*', '**/charts/*', '**/workers/*'], message: 'The core imports no UI or storage.' },
+          ],
+        },
+      ],
+    },
+  },
+);

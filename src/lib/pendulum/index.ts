@@ -1,0 +1,2 @@
+// Public face of src/lib/pendulum: other folders import only this file.
+export {};

@@ -1,0 +1,2 @@
+// Public face of src/lib/store: other folders import only this file.
+export {};

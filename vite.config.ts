@@ -1,0 +1,83 @@
+import { sveltekit } from '@sveltejs/kit/vite';
+import { defineConfig, type Plugin } from 'vite';
+import { generateSW } from 'workbox-build';
+import { existsSync } from 'node:fs';
+
+/**
+ * Writes build/sw.js with Workbox once adapter-static has written build/.
+ * SvelteKit runs a nested client build that loads this config again; only the outer (server)
+ * build's close comes after the adapter, so the plugin acts there alone.
+ */
+function offlineWorker(): Plugin {
+  let isServerBuild = false;
+  return {
+    name: 'kinnote-offline-worker',
+    apply: 'build',
+    configResolved(config) {
+      isServerBuild = Boolean(config.build.ssr);
+    },
+    closeBundle: {
+      sequential: true,
+      order: 'post',
+      async handler() {
+        if (!isServerBuild || !existsSync('build/index.html')) return;
+        const { count, size, warnings } = await generateSW({
+          globDirectory: 'build',
+          globPatterns: ['**/*.{html,js,css,json,webmanifest,png,svg,ico,txt,woff2}'],
+          globIgnores: ['sw.js', 'workbox-*.js'],
+          swDest: 'build/sw.js',
+          navigateFallback: '/index.html',
+          // Hashed file names under _app/immutable need no revision query.
+          dontCacheBustURLsMatching: /^_app\/immutable\//,
+          cleanupOutdatedCaches: true,
+          clientsClaim: true,
+          // No skipWaiting: a new version waits until the user accepts it (see update-watch.ts).
+          skipWaiting: false,
+          maximumFileSizeToCacheInBytes: 8 * 1024 * 1024,
+          sourcemap: false,
+          inlineWorkboxRuntime: true,
+        });
+        for (const warning of warnings) console.warn(`[offline worker] ${warning}`);
+        console.log(`[offline worker] precached ${count} files, ${(size / 1024).toFixed(0)} KiB`);
+      },
+    },
+  };
+}
+
+export default defineConfig({
+  plugins: [sveltekit(), offlineWorker()],
+  worker: { format: 'es' },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['test/unit/**/*.test.ts', 'test/reference/**/*.test.ts'],
+          exclude: ['test/unit/**/*.dom.test.ts'],
+        },
+      },
+      {
+        extends: true,
+        resolve: { conditions: ['browser'] },
+        test: {
+          name: 'dom',
+          environment: 'happy-dom',
+          include: ['test/unit/**/*.dom.test.ts'],
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['test/e2e/**/*.e2e.ts'],
+          globalSetup: ['test/e2e/global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+        },
+      },
+    ],
+  },
+});
