@@ -47,7 +47,10 @@ function offlineWorker(): Plugin {
 export default defineConfig({
   plugins: [sveltekit(), offlineWorker()],
   worker: { format: 'es' },
+  // Rolldown's plugin-timing notice counts the service-worker step (after the build) as slow; it is expected.
+  build: { rolldownOptions: { checks: { pluginTimings: false } } },
   test: {
+    reporters: ['default', './test/e2e/count-reporter.ts'],
     projects: [
       {
         extends: true,

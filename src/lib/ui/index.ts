@@ -1,2 +1,3 @@
-// Public face of src/lib/ui: other folders import only this file.
-export {};
+// Public face of src/lib/ui: shared Svelte components and page-side helpers.
+export { default as UpdateBanner } from './UpdateBanner.svelte';
+export { updateWatch } from './update-watch.svelte';
