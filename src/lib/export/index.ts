@@ -1,2 +1,2 @@
-// Public face of src/lib/export: other folders import only this file.
-export {};
+// Public face of src/lib/export: CSV (RFC 4180), de-identification, FHIR R4.
+export { csvCell, csvRow } from './csv-cell';
