@@ -1,2 +1,2 @@
-// Public face of src/lib/workers: other folders import only this file.
-export {};
+// Public face of src/lib/workers: page-side clients of the Web Workers that run core modules.
+export { analysePendulumFile, PendulumAnalysisError } from './analyse-pendulum-file';

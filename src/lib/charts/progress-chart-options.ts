@@ -1,0 +1,172 @@
+import type uPlot from 'uplot';
+import { chartColours, chartDashes } from './palette';
+
+/** What a progress chart shows: one measure at one site over time. Values of ordinal scales are ranks. */
+export interface ProgressChartInput {
+  readonly title: string;
+  /** Unit shown on the axis, e.g. "°"; empty for grades. */
+  readonly unitLabel: string;
+  readonly timesMs: Float64Array;
+  readonly values: Float64Array;
+  /** For an ordinal scale: the label of each rank (index = rank). Draws an ordinal axis with equal steps. */
+  readonly ordinalLabels?: readonly string[];
+  readonly baseline?: number | null;
+  /** Minimal detectable change, drawn as a band of ± mdc around the baseline. */
+  readonly mdc?: number | null;
+  readonly events?: ReadonlyArray<{ readonly timeMs: number; readonly label: string }>;
+  /** Trend line: value = intercept + slopePerDay · (t − t0) in days. */
+  readonly trend?: { readonly slopePerDay: number; readonly intercept: number; readonly t0Ms: number } | null;
+  readonly validRange?: readonly [number, number];
+}
+
+const dayMs = 86_400_000;
+
+/** Builds uPlot data columns: x in seconds (uPlot's time unit), values, and the trend evaluated at each x. */
+export function progressChartData(input: ProgressChartInput): uPlot.AlignedData {
+  const n = input.timesMs.length;
+  const xs = new Float64Array(n);
+  const trend: (number | null)[] = new Array<number | null>(n);
+  for (let i = 0; i < n; i++) {
+    const t = input.timesMs[i] as number;
+    xs[i] = t / 1000;
+    trend[i] = input.trend ? input.trend.intercept + (input.trend.slopePerDay * (t - input.trend.t0Ms)) / dayMs : null;
+  }
+  return [xs, input.values, trend];
+}
+
+/** The y range: covers values, baseline ± MDC and trend, padded; an ordinal scale shows every grade. */
+export function progressYRange(input: ProgressChartInput): [number, number] {
+  if (input.ordinalLabels) return [-0.5, input.ordinalLabels.length - 0.5];
+  let lo = Infinity;
+  let hi = -Infinity;
+  const take = (v: number | null | undefined) => {
+    if (v === null || v === undefined || !Number.isFinite(v)) return;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  };
+  for (let i = 0; i < input.values.length; i++) take(input.values[i]);
+  if (input.baseline !== null && input.baseline !== undefined && input.mdc) {
+    take(input.baseline - input.mdc);
+    take(input.baseline + input.mdc);
+  }
+  if (!Number.isFinite(lo)) return [0, 1];
+  const pad = Math.max((hi - lo) * 0.12, 1);
+  return [lo - pad, hi + pad];
+}
+
+function drawBandAndBaseline(u: uPlot, input: ProgressChartInput): void {
+  const { baseline, mdc } = input;
+  if (baseline === null || baseline === undefined) return;
+  const ctx = u.ctx;
+  const { left, width } = u.bbox;
+  ctx.save();
+  if (mdc && mdc > 0) {
+    const top = u.valToPos(baseline + mdc, 'y', true);
+    const bottom = u.valToPos(baseline - mdc, 'y', true);
+    ctx.fillStyle = chartColours.band;
+    ctx.fillRect(left, top, width, bottom - top);
+    ctx.strokeStyle = chartColours.bandEdge;
+    ctx.setLineDash(chartDashes.mdcEdge.map((d) => d * devicePixelRatio));
+    ctx.lineWidth = devicePixelRatio;
+    for (const y of [top, bottom]) {
+      ctx.beginPath();
+      ctx.moveTo(left, y);
+      ctx.lineTo(left + width, y);
+      ctx.stroke();
+    }
+  }
+  const y = u.valToPos(baseline, 'y', true);
+  ctx.strokeStyle = chartColours.baseline;
+  ctx.lineWidth = 1.5 * devicePixelRatio;
+  ctx.setLineDash(chartDashes.baseline.map((d) => d * devicePixelRatio));
+  ctx.beginPath();
+  ctx.moveTo(left, y);
+  ctx.lineTo(left + width, y);
+  ctx.stroke();
+  ctx.restore();
+}
+
+function drawEvents(u: uPlot, input: ProgressChartInput): void {
+  const events = input.events ?? [];
+  if (events.length === 0) return;
+  const ctx = u.ctx;
+  const { top, height, left, width } = u.bbox;
+  const ratio = devicePixelRatio;
+  ctx.save();
+  ctx.strokeStyle = chartColours.event;
+  ctx.fillStyle = chartColours.event;
+  ctx.lineWidth = 1.5 * ratio;
+  ctx.setLineDash(chartDashes.event.map((d) => d * ratio));
+  ctx.font = `${12 * ratio}px system-ui, sans-serif`;
+  ctx.textBaseline = 'top';
+  let row = 0;
+  for (const event of events) {
+    const x = u.valToPos(event.timeMs / 1000, 'x', true);
+    if (x < left - 1 || x > left + width + 1) continue;
+    ctx.beginPath();
+    ctx.moveTo(x, top);
+    ctx.lineTo(x, top + height);
+    ctx.stroke();
+    // Labels alternate rows so that close events stay readable; they flip left near the right edge.
+    const textWidth = ctx.measureText(event.label).width;
+    const textX = x + textWidth + 4 * ratio > left + width ? x - textWidth - 3 * ratio : x + 3 * ratio;
+    ctx.fillText(event.label, textX, top + 2 * ratio + row * 14 * ratio);
+    row = (row + 1) % 2;
+  }
+  ctx.restore();
+}
+
+/** uPlot options for a progress chart of the given size. */
+export function progressChartOptions(input: ProgressChartInput, width: number, height: number): uPlot.Options {
+  const ordinal = input.ordinalLabels;
+  const unit = input.unitLabel;
+  const formatValue = (v: number) =>
+    ordinal ? (ordinal[Math.round(v)] ?? '') : `${Number.isInteger(v) ? v : v.toFixed(1)}${unit}`;
+  return {
+    width,
+    height,
+    legend: { show: true, live: false },
+    cursor: { drag: { x: false, y: false }, points: { size: 10 } },
+    scales: {
+      x: { time: true },
+      y: { range: () => progressYRange(input) },
+    },
+    axes: [
+      { stroke: chartColours.axis, grid: { stroke: chartColours.grid }, ticks: { stroke: chartColours.grid }, space: 70 },
+      {
+        stroke: chartColours.axis,
+        grid: { stroke: chartColours.grid },
+        ticks: { stroke: chartColours.grid },
+        size: ordinal ? 44 : 50,
+        ...(ordinal
+          ? {
+              splits: () => ordinal.map((_, i) => i),
+              values: (_u: uPlot, splits: number[]) => splits.map((s) => ordinal[s] ?? ''),
+            }
+          : { values: (_u: uPlot, splits: number[]) => splits.map((s) => formatValue(s)) }),
+      },
+    ],
+    series: [
+      {},
+      {
+        label: 'Measured',
+        stroke: chartColours.value,
+        width: 2,
+        points: { show: true, size: 9, fill: chartColours.valueFill, stroke: chartColours.value },
+        value: (_u, v) => (v === null ? '–' : formatValue(v)),
+      },
+      {
+        label: 'Trend',
+        stroke: chartColours.trend,
+        width: 2,
+        dash: [...chartDashes.trend],
+        points: { show: false },
+        value: (_u, v) => (v === null ? '–' : formatValue(v)),
+      },
+    ],
+    hooks: {
+      drawClear: [(u) => drawBandAndBaseline(u, input)],
+      draw: [(u) => drawEvents(u, input)],
+    },
+  };
+}
