@@ -1,0 +1,138 @@
+import type { Baseline } from './select-baseline';
+import { StatsInputError } from './stats-input-error';
+
+/** An MDC with where it came from: the clinic's own reliability study, or a published reference. */
+export interface MdcProvenance {
+  /** In the measure's unit, or in grade steps for an ordinal measure. */
+  readonly value: number;
+  readonly source: 'local' | 'reference';
+  /** Study name/date for 'local', the publication for 'reference'. */
+  readonly citation: string;
+}
+
+/** One grade of an ordinal scale: its label as shown (e.g. "1+") and its rank (0, 1, 2, …). */
+export interface OrdinalGrade {
+  readonly label: string;
+  readonly rank: number;
+}
+
+/** The scale of a measure: continuous in a unit, or ordered grades that change in whole steps. */
+export type MeasureScale =
+  | { readonly kind: 'continuous'; readonly unit: string; readonly decimals?: number }
+  | { readonly kind: 'ordinal'; readonly grades: readonly OrdinalGrade[] };
+
+/** What the verdict needs about a measure, mapped in by the caller from the measure catalogue. */
+export interface ChangeVerdictInput {
+  /** Short name used in the sentence, e.g. "Knee extension range". */
+  readonly measureLabel: string;
+  /** Which direction is better. */
+  readonly betterWhen: 'lower' | 'higher';
+  readonly scale: MeasureScale;
+  /** From selectBaseline: values, or grade ranks for an ordinal scale. */
+  readonly baseline: Pick<Baseline, 'low' | 'high'>;
+  /** The later score (or grade rank). */
+  readonly followUp: number;
+  /** The MDC to judge by; null when none is known. */
+  readonly mdc: MdcProvenance | null;
+}
+
+export type VerdictKind = 'improved' | 'no-change' | 'worsened' | 'no-mdc';
+
+export interface ChangeVerdict {
+  readonly verdict: VerdictKind;
+  /** followUp − baseline for a single-valued baseline; NaN when the baseline is a range of two grades. */
+  readonly change: number;
+  /** [followUp − baseline.high, followUp − baseline.low]; both ends equal for a single-valued baseline. */
+  readonly changeRange: readonly [number, number];
+  /** Change in the better direction counted conservatively (against the baseline end least favourable to it). */
+  readonly improvement: number;
+  /** The MDC used, with its provenance; null when none was known. */
+  readonly mdcUsed: MdcProvenance | null;
+  /** One plain sentence for the record. */
+  readonly text: string;
+}
+
+function gradeLabel(grades: readonly OrdinalGrade[], rank: number, where: string): string {
+  const grade = grades.find((g) => g.rank === rank);
+  if (!grade) throw new StatsInputError(`changeVerdict: ${where} rank ${rank} is not a grade of this scale`);
+  return grade.label;
+}
+
+function signed(value: number, decimals: number): string {
+  const text = value.toFixed(decimals);
+  return value > 0 ? `+${text}` : text;
+}
+
+/**
+ * Verdict on one change from baseline: improved, no change beyond measurement error, or worsened,
+ * judged against the MDC (change counts when it is at least the MDC) in the measure's better
+ * direction. With no MDC the verdict is 'no-mdc' ("no MDC: establish locally"), never a guess.
+ * Ordinal scales change in whole grade steps between ranks (Modified Ashworth 0, 1, 1+, 2, 3, 4 →
+ * ranks 0–5); a baseline given as a range of two grades (see selectBaseline) counts improvement
+ * from its less favourable end and worsening from its more favourable end, so neither is overstated.
+ * Throws StatsInputError for non-finite values, an MDC ≤ 0, or ranks that are not grades of the scale.
+ */
+export function changeVerdict(input: ChangeVerdictInput): ChangeVerdict {
+  const { baseline, followUp, mdc, scale, betterWhen } = input;
+  if (!Number.isFinite(baseline.low) || !Number.isFinite(baseline.high) || !Number.isFinite(followUp)) {
+    throw new StatsInputError(`changeVerdict: baseline ${baseline.low}–${baseline.high} and follow-up ${followUp} must be finite`);
+  }
+  if (baseline.low > baseline.high) throw new StatsInputError('changeVerdict: baseline low is above baseline high');
+  if (mdc !== null && (!(mdc.value > 0) || !Number.isFinite(mdc.value))) {
+    throw new StatsInputError(`changeVerdict: MDC ${mdc.value} must be positive and finite`);
+  }
+  const changeFromHigh = followUp - baseline.high;
+  const changeFromLow = followUp - baseline.low;
+  // Lower is better: improvement is a fall, counted from the lower (better) baseline end.
+  const improvement = betterWhen === 'lower' ? baseline.low - followUp : followUp - baseline.high;
+  const worsening = betterWhen === 'lower' ? followUp - baseline.high : baseline.low - followUp;
+
+  let fromText: string;
+  let changeText: string;
+  let mdcText = '';
+  if (scale.kind === 'ordinal') {
+    const lowLabel = gradeLabel(scale.grades, baseline.low, 'baseline');
+    const highLabel = gradeLabel(scale.grades, baseline.high, 'baseline');
+    const followLabel = gradeLabel(scale.grades, followUp, 'follow-up');
+    const steps = (n: number): string => `${signed(n, 0)} grade step${Math.abs(n) === 1 ? '' : 's'}`;
+    fromText =
+      baseline.low === baseline.high
+        ? `from grade ${lowLabel} to grade ${followLabel}`
+        : `from grades ${lowLabel} and ${highLabel} at baseline to grade ${followLabel}`;
+    changeText = changeFromHigh === changeFromLow ? steps(changeFromHigh) : `${steps(changeFromHigh)} to ${steps(changeFromLow)}`;
+    if (mdc) mdcText = `${mdc.value} grade step${mdc.value === 1 ? '' : 's'}`;
+  } else {
+    const decimals = scale.decimals ?? 1;
+    const unit = scale.unit ? ` ${scale.unit}` : '';
+    fromText = `from ${baseline.low.toFixed(decimals)}${unit} to ${followUp.toFixed(decimals)}${unit}`;
+    changeText = `${signed(changeFromHigh, decimals)}${unit}`;
+    if (mdc) mdcText = `${mdc.value.toFixed(decimals)}${unit}`;
+  }
+  let verdict: VerdictKind;
+  let text: string;
+  if (mdc === null) {
+    verdict = 'no-mdc';
+    text = `${input.measureLabel} changed ${fromText} (${changeText}); cannot say whether this exceeds measurement error: no MDC: establish locally.`;
+  } else {
+    const provenance =
+      mdc.source === 'local' ? `(local reliability study: ${mdc.citation})` : `(reference value: ${mdc.citation})`;
+    if (improvement >= mdc.value) {
+      verdict = 'improved';
+      text = `${input.measureLabel} improved ${fromText} (${changeText}), at least the MDC of ${mdcText} ${provenance}.`;
+    } else if (worsening >= mdc.value) {
+      verdict = 'worsened';
+      text = `${input.measureLabel} worsened ${fromText} (${changeText}), at least the MDC of ${mdcText} ${provenance}.`;
+    } else {
+      verdict = 'no-change';
+      text = `${input.measureLabel}: no change beyond measurement error ${fromText} (${changeText}); the MDC is ${mdcText} ${provenance}.`;
+    }
+  }
+  return {
+    verdict,
+    change: changeFromHigh === changeFromLow ? changeFromHigh : Number.NaN,
+    changeRange: [changeFromHigh, changeFromLow],
+    improvement,
+    mdcUsed: mdc,
+    text,
+  };
+}
