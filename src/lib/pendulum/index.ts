@@ -1,2 +1,35 @@
 // Public face of src/lib/pendulum: other folders import only this file.
-export {};
+// Pure TypeScript: no DOM, storage or clock, so it runs in Node, in a Web Worker and in the page.
+export { analysePendulumTrace, ANGLE_CUTOFF_HZ, MIN_SAMPLE_RATE_HZ, PEAK_COUNT_MARGIN_DEG, TYPICAL_RELAXATION_INDEX, AREA_BALANCE_FRACTION } from './analyse-pendulum-trace';
+export type { PendulumTraceInput, PendulumOptions } from './analyse-pendulum-trace';
+export { analysePendulumCsv } from './analyse-pendulum-csv';
+export { parsePendulumCsv, ANGLE_LIMITS_DEG } from './parse-pendulum-csv';
+export type { PendulumTrace } from './parse-pendulum-csv';
+export { PendulumInputError } from './pendulum-input-error';
+export type {
+  PendulumAnalysis,
+  PendulumIndices,
+  PendulumFitIndices,
+  PendulumEmgIndices,
+  PendulumEmgBurst,
+  PendulumEmgPhase,
+  PendulumSignals,
+} from './pendulum-result';
+// Building blocks, exported for reuse (sensors) and for their own tests.
+export { butterworthLowPass } from './butterworth-low-pass';
+export { zeroPhaseFilter, defaultPadLength } from './zero-phase-filter';
+export { resampleLinear } from './resample-linear';
+export { uniformSampleRate } from './uniform-sample-rate';
+export type { SampleTiming } from './uniform-sample-rate';
+export { removeSpikes, median5At } from './remove-spikes';
+export { centralDifference } from './central-difference';
+export { prominentPeaks } from './prominent-peaks';
+export { detectRelease } from './detect-release';
+export type { Release } from './detect-release';
+export { detectRest, REST_WINDOW_S } from './detect-rest';
+export type { RestPlateau } from './detect-rest';
+export { integrateGyro } from './integrate-gyro';
+export { fitDampedCosine } from './fit-damped-cosine';
+export type { DampedCosineFit, DampedCosineStart } from './fit-damped-cosine';
+export { emgEnvelope, EMG_HIGH_PASS_HZ, EMG_ENVELOPE_HZ } from './emg-envelope';
+export { quickselect, medianInPlace } from './quickselect';
