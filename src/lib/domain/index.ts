@@ -1,2 +1,64 @@
 // Public face of src/lib/domain: other folders import only this file.
-export {};
+// Pure TypeScript: records, their valibot schemas, the measure catalogue and UUIDv7 ids.
+export { DomainValidationError, type ValidationIssue } from './domain-error';
+export { createUuidV7Generator, formatUuidV7, isUuidV7, uuidV7Time, type RandomBytes } from './uuid-v7';
+export {
+  IdSchema,
+  IsoDateSchema,
+  IsoDateTimeSchema,
+  RECORD_BASE_FIELDS,
+  SIDES,
+  type RecordBase,
+  type RecordInput,
+  type Side,
+} from './record-base';
+export { CONDITION_CATEGORIES, PATIENT_STATUSES, PatientSchema, patientCode, type Patient } from './patient';
+export { IdentityFieldsSchema, IdentitySchema, type Identity, type IdentityFields } from './identity';
+export { ClinicianSchema, PROFESSIONS, type Clinician } from './clinician';
+export { DeviceSchema, type Device } from './device';
+export { EVENT_KINDS, EVENT_SIDES, EventSchema, type ClinicalEvent, type EventKind } from './event';
+export { ASSESSMENT_SETTINGS, AssessmentConditionsSchema, AssessmentSchema, POSITIONS, type Assessment } from './assessment';
+export {
+  INSTRUMENTS,
+  OBSERVATION_SIDES,
+  ObservationSchema,
+  ObservationValueSchema,
+  ROM_MODES,
+  type Instrument,
+  type Observation,
+  type ObservationValue,
+  type RomMode,
+} from './observation';
+export { TRACE_KINDS, TraceSchema, type Trace } from './trace';
+export { HomeProgrammeSchema, type HomeProgramme } from './home-programme';
+export { AdherenceEntrySchema, type AdherenceEntry } from './adherence-entry';
+export { SelfReportSchema, type SelfReport } from './self-report';
+export { RELIABILITY_DESIGNS, ReliabilityStudySchema, type ReliabilityStudy } from './reliability-study';
+export { AUDIT_ACTIONS, AuditEntrySchema, type AuditAction, type AuditEntry } from './audit-entry';
+export type {
+  ErrorReference,
+  EvidenceStatus,
+  ImprovementDirection,
+  Measure,
+  MeasureKind,
+  MeasureSite,
+  MeasurementErrorFigure,
+  NumericMeasure,
+  OrdinalGrade,
+  OrdinalMeasure,
+  RaterDesign,
+  TardieuMeasure,
+} from './measure-types';
+export { MEASURE_CATALOGUE, findMeasure, findSite } from './measure-catalogue';
+export { HYPERMOBILITY_MARGIN_DEG, ROM_SITES } from './rom-motions';
+export { checkObservation, ordinalValue, tardieuValue } from './check-observation';
+export { SEM_TO_MDC95, errorReference, referenceMdc95, type ReferenceMdc } from './reference-mdc';
+export {
+  PROTECTED_TEXT_FIELDS,
+  TABLE_NAMES,
+  isTableName,
+  parseRecord,
+  validateRecord,
+  type RecordTables,
+  type TableName,
+} from './record-tables';

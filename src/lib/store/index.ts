@@ -1,2 +1,30 @@
 // Public face of src/lib/store: other folders import only this file.
-export {};
+// IndexedDB through Dexie: versions and migrations, repositories with audit, the vault, backups.
+export { liveQuery } from 'dexie';
+export { StoreError, describeIssues, toStoreError, type StoreErrorCode, type StoreIssue } from './store-error';
+export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreSettings } from './open-store';
+export { IdentityRepository, ObservationRepository, Repository, type Input, type Patch, type WritableTable } from './repository';
+export type { Actor, StoreContext } from './store-context';
+export type { AssessmentRow, EventRow, IdentityRow, Row, RowTables } from './rows';
+export { SCHEMA_VERSIONS, LATEST_SCHEMA_VERSION, declareSchema, type SchemaVersion } from './schema';
+export { Vault, type Timers, type VaultStatus } from './vault';
+export { DEFAULT_KDF_ITERATIONS, sha256Hex, type SealedText } from './crypto-box';
+export { canonicalJson } from './canonical-json';
+export { base64ToBytes, base64ToFloat64, bytesToBase64, float64ToBase64 } from './base64';
+export {
+  BUNDLE_FORMAT,
+  BUNDLE_FORMAT_VERSION,
+  createBundle,
+  serializeBundle,
+  verifyBundle,
+  type BackupBundle,
+  type BundleHeader,
+  type BundleScope,
+  type BundleTables,
+  type VerifiedBundle,
+} from './backup-bundle';
+export { ENCRYPTED_BUNDLE_FORMAT, decryptBundleText, encryptBundleText } from './encrypted-bundle';
+export { exportBackup, exportBackupText, type ExportOptions } from './export-backup';
+export { importBackup, readBackup, type MergeConflict, type MergeReport, type TableCounts } from './import-backup';
+export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
+export { demoBundle, loadDemoCaseload } from './demo-caseload';

@@ -1,0 +1,29 @@
+import * as v from 'valibot';
+import { IdSchema, recordBaseEntries, TextSchema } from './record-base';
+
+export const AUDIT_ACTIONS = [
+  'create',
+  'update',
+  'delete',
+  'restore',
+  'merge-take-incoming',
+  'merge-keep-local',
+  'import',
+] as const;
+export type AuditAction = (typeof AUDIT_ACTIONS)[number];
+
+/**
+ * Append-only trace of one change: who (clinicianId), where (deviceId), when (createdAt), what
+ * (action, table, recordId) and the record before and after. Snapshots never hold protected text:
+ * the store replaces it with a marker before writing the entry.
+ */
+export const AuditEntrySchema = v.strictObject({
+  ...recordBaseEntries,
+  action: v.picklist(AUDIT_ACTIONS),
+  table: v.string(),
+  recordId: v.nullable(IdSchema),
+  before: v.nullable(v.record(v.string(), v.unknown())),
+  after: v.nullable(v.record(v.string(), v.unknown())),
+  note: v.nullable(TextSchema(2000)),
+});
+export type AuditEntry = v.InferOutput<typeof AuditEntrySchema>;

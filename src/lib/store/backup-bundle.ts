@@ -1,0 +1,187 @@
+import * as v from 'valibot';
+import { PROTECTED_TEXT_FIELDS, TABLE_NAMES, validateRecord, type RecordTables, type TableName } from '../domain';
+import { base64ToFloat64, float64ToBase64 } from './base64';
+import { canonicalJson } from './canonical-json';
+import { sha256Hex } from './crypto-box';
+import type { Actor } from './store-context';
+import { StoreError, describeIssues, type StoreIssue } from './store-error';
+
+export const BUNDLE_FORMAT = 'kinnote-backup';
+export const BUNDLE_FORMAT_VERSION = 1;
+
+/** Records in clear, by table: what a bundle carries, and what the demo generator produces. */
+export type BundleTables = { [K in TableName]: RecordTables[K][] };
+
+export type BundleScope = { readonly kind: 'all' } | { readonly kind: 'patient'; readonly patientId: string };
+
+/**
+ * A backup: versioned JSON with every record of the scope in clear domain form (tombstones
+ * included, so deletions merge), trace samples as base64 of float64 little-endian, and a SHA-256
+ * checksum over the canonical serialisation of everything else. `protectedContent: 'omitted'`
+ * means identities and notes were left out (they are then neither shown nor overwritten on import).
+ */
+export interface BackupBundle {
+  readonly format: typeof BUNDLE_FORMAT;
+  readonly formatVersion: number;
+  readonly schemaVersion: number;
+  readonly exportedAt: string;
+  readonly exportedBy: Actor | null;
+  readonly source: string;
+  readonly scope: BundleScope;
+  readonly protectedContent: 'included' | 'omitted';
+  readonly tables: { readonly [K in TableName]: readonly Record<string, unknown>[] };
+  readonly checksum: { readonly algorithm: 'SHA-256'; readonly value: string };
+}
+
+export type BundleHeader = Omit<BackupBundle, 'tables' | 'checksum'>;
+
+/** A bundle that passed every check, with its records decoded to domain form. */
+export interface VerifiedBundle {
+  readonly header: BundleHeader;
+  readonly checksum: string;
+  readonly tables: BundleTables;
+}
+
+export function emptyTables(): BundleTables {
+  return Object.fromEntries(TABLE_NAMES.map((t) => [t, []])) as unknown as BundleTables;
+}
+
+/** Domain record → bundle form (trace samples to base64). */
+export function toPortable(table: TableName, record: object): Record<string, unknown> {
+  if (table !== 'traces') return record as Record<string, unknown>;
+  const trace = record as RecordTables['traces'];
+  return {
+    ...trace,
+    channels: trace.channels.map((c) => ({ name: c.name, unit: c.unit, encoding: 'float64le-base64', samples: float64ToBase64(c.samples) })),
+  };
+}
+
+/** Bundle form → candidate domain record (not yet validated). Throws RangeError naming the channel on bad samples. */
+export function fromPortable(table: TableName, portable: unknown): unknown {
+  if (table !== 'traces' || typeof portable !== 'object' || portable === null) return portable;
+  const channels = (portable as { channels?: unknown }).channels;
+  if (!Array.isArray(channels)) return portable;
+  return {
+    ...portable,
+    channels: channels.map((c: unknown, i) => {
+      if (typeof c !== 'object' || c === null) return c;
+      const { encoding, samples, ...rest } = c as { encoding?: unknown; samples?: unknown };
+      if (encoding !== 'float64le-base64') throw new RangeError(`channels.${i}.encoding: must be "float64le-base64"`);
+      if (typeof samples !== 'string') throw new RangeError(`channels.${i}.samples: must be a base64 string`);
+      try {
+        return { ...rest, samples: base64ToFloat64(samples) };
+      } catch (error) {
+        throw new RangeError(`channels.${i}.samples: ${(error as Error).message}`, { cause: error });
+      }
+    }),
+  };
+}
+
+const byId = (a: { id: string }, b: { id: string }) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+
+/**
+ * Builds a bundle from records in clear: sorts each table by id (so the same records always give
+ * the same bytes), encodes traces and computes the checksum. Cost: one canonical serialisation and
+ * one SHA-256 over it.
+ */
+export async function createBundle(tables: Partial<BundleTables>, header: BundleHeader): Promise<BackupBundle> {
+  const portable: Record<string, Record<string, unknown>[]> = {};
+  for (const table of TABLE_NAMES) {
+    const records = [...((tables[table] ?? []) as { id: string }[])].sort(byId);
+    portable[table] = records.map((r) => toPortable(table, r));
+  }
+  const body = { ...header, tables: portable as unknown as BackupBundle['tables'] };
+  const value = await sha256Hex(canonicalJson(body));
+  return { ...body, checksum: { algorithm: 'SHA-256', value } };
+}
+
+/** The bundle as text: canonical JSON (sorted keys, no whitespace) and a final newline. */
+export function serializeBundle(bundle: BackupBundle): string {
+  return `${canonicalJson(bundle)}\n`;
+}
+
+const EnvelopeSchema = v.object({
+  format: v.literal(BUNDLE_FORMAT),
+  formatVersion: v.literal(BUNDLE_FORMAT_VERSION),
+  schemaVersion: v.pipe(v.number(), v.integer(), v.minValue(1)),
+  exportedAt: v.string(),
+  exportedBy: v.nullable(v.object({ deviceId: v.string(), clinicianId: v.string() })),
+  source: v.string(),
+  scope: v.variant('kind', [v.object({ kind: v.literal('all') }), v.object({ kind: v.literal('patient'), patientId: v.string() })]),
+  protectedContent: v.picklist(['included', 'omitted']),
+  tables: v.object(Object.fromEntries(TABLE_NAMES.map((t) => [t, v.array(v.unknown())])) as Record<TableName, v.ArraySchema<v.UnknownSchema, undefined>>),
+  checksum: v.object({ algorithm: v.literal('SHA-256'), value: v.pipe(v.string(), v.regex(/^[0-9a-f]{64}$/)) }),
+});
+
+/**
+ * Checks a parsed bundle completely before anything is written: format and version (else
+ * UnsupportedBundle), envelope (InvalidBundle), checksum (TamperedBundle), then every record
+ * against its schema and the measure catalogue, duplicate ids, and protected text where the bundle
+ * says it was omitted (InvalidBundle, with issues naming table, index, id and field). Never returns
+ * a partly valid bundle.
+ */
+export async function verifyBundle(parsed: unknown): Promise<VerifiedBundle> {
+  if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) {
+    throw new StoreError('InvalidBundle', 'not a Kinnote backup: the file is not a JSON object');
+  }
+  const raw = parsed as { format?: unknown; formatVersion?: unknown };
+  if (raw.format !== BUNDLE_FORMAT) throw new StoreError('InvalidBundle', `not a Kinnote backup: format is ${JSON.stringify(raw.format) ?? 'missing'}`);
+  if (raw.formatVersion !== BUNDLE_FORMAT_VERSION) {
+    throw new StoreError('UnsupportedBundle', `backup format version ${JSON.stringify(raw.formatVersion)} is not supported (this app reads version ${BUNDLE_FORMAT_VERSION}); update the app`);
+  }
+  const envelope = v.safeParse(EnvelopeSchema, parsed);
+  if (!envelope.success) {
+    const issues = envelope.issues.map((i) => ({ record: 'bundle', path: v.getDotPath(i) ?? '', message: i.message }));
+    throw new StoreError('InvalidBundle', `invalid backup: ${describeIssues(issues)}`, { issues });
+  }
+  const { checksum, ...body } = parsed as BackupBundle;
+  let text: string;
+  try {
+    text = canonicalJson(body);
+  } catch (cause) {
+    throw new StoreError('InvalidBundle', `invalid backup: ${(cause as Error).message}`, { cause });
+  }
+  if ((await sha256Hex(text)) !== checksum.value) {
+    throw new StoreError('TamperedBundle', 'the backup does not match its checksum: it was altered or damaged, so nothing was imported');
+  }
+
+  const issues: StoreIssue[] = [];
+  const tables = emptyTables();
+  const { tables: _bodyTables, ...header } = body;
+  const omitted = body.protectedContent === 'omitted';
+  for (const table of TABLE_NAMES) {
+    const seen = new Set<string>();
+    const list = body.tables[table];
+    for (let i = 0; i < list.length; i++) {
+      const portable = list[i];
+      const id = typeof (portable as { id?: unknown })?.id === 'string' ? (portable as { id: string }).id : '?';
+      const where = `tables.${table}[${i}] (${id})`;
+      let candidate: unknown;
+      try {
+        candidate = fromPortable(table, portable);
+      } catch (error) {
+        const [path, ...message] = (error as Error).message.split(': ');
+        issues.push({ record: where, path: path ?? '', message: message.join(': ') });
+        continue;
+      }
+      const result = validateRecord(table, candidate);
+      if (!result.ok) {
+        for (const issue of result.issues) issues.push({ record: where, ...issue });
+        continue;
+      }
+      if (seen.has(result.record.id)) issues.push({ record: where, path: 'id', message: 'appears twice in this table' });
+      seen.add(result.record.id);
+      if (omitted) {
+        if (table === 'identities') issues.push({ record: where, path: '', message: 'identities present although protectedContent is "omitted"' });
+        for (const field of PROTECTED_TEXT_FIELDS[table] ?? []) {
+          if ((result.record as Record<string, unknown>)[field] !== null) issues.push({ record: where, path: field, message: 'protected text present although protectedContent is "omitted"' });
+        }
+      }
+      (tables[table] as unknown[]).push(result.record);
+    }
+  }
+  if (issues.length > 0) {
+    throw new StoreError('InvalidBundle', `invalid backup, nothing imported: ${describeIssues(issues)}`, { issues });
+  }
+  return { header, checksum: checksum.value, tables };
+}

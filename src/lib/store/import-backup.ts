@@ -1,0 +1,229 @@
+import { TABLE_NAMES, type AuditEntry, type RecordBase, type TableName } from '../domain';
+import { toPortable, verifyBundle, type BundleHeader, type VerifiedBundle } from './backup-bundle';
+import { canonicalJson } from './canonical-json';
+import { decryptBundleText, isEncryptedBundle } from './encrypted-bundle';
+import type { KinnoteStore } from './open-store';
+import { SEALED_MARKER, auditSnapshot } from './rows';
+import { auditEntry, nextTimestamp, requireActor } from './store-context';
+import { StoreError, toStoreError } from './store-error';
+
+export interface TableCounts {
+  inserted: number;
+  replaced: number;
+  unchanged: number;
+  keptLocal: number;
+}
+
+/** One record present on both sides with different content, and how it was settled. */
+export interface MergeConflict {
+  readonly table: TableName;
+  readonly recordId: string;
+  readonly localUpdatedAt: string;
+  readonly incomingUpdatedAt: string;
+  readonly winner: 'incoming' | 'local';
+  /** 'newer': the winner's updatedAt is later; 'tie-break': same updatedAt, the larger canonical text wins (same on every device). */
+  readonly reason: 'newer' | 'tie-break';
+  /** True when an earlier import already recorded this very conflict (nothing new written). */
+  readonly alreadyRecorded: boolean;
+}
+
+/** What an import did, for the user and the audit log. */
+export interface MergeReport {
+  readonly header: BundleHeader;
+  readonly checksum: string;
+  /** False when the bundle held nothing new (importing the same bundle twice). */
+  readonly changed: boolean;
+  readonly counts: Record<TableName, TableCounts>;
+  readonly conflicts: readonly MergeConflict[];
+}
+
+/**
+ * Parses (and, for an encrypted backup, decrypts) backup text or an already parsed value, and
+ * verifies it completely (see verifyBundle). Writes nothing.
+ */
+export async function readBackup(input: string | unknown, options: { passphrase?: string } = {}): Promise<VerifiedBundle> {
+  let parsed: unknown = input;
+  if (typeof input === 'string') parsed = parseJson(input, 'backup');
+  if (isEncryptedBundle(parsed)) {
+    if (options.passphrase === undefined) throw new StoreError('WrongPassphrase', 'this backup is encrypted: enter its passphrase');
+    const inner = await decryptBundleText(parsed, options.passphrase);
+    parsed = parseJson(inner, 'decrypted backup');
+  }
+  return verifyBundle(parsed);
+}
+
+function parseJson(text: string, what: string): unknown {
+  try {
+    return JSON.parse(text) as unknown;
+  } catch (cause) {
+    throw new StoreError('InvalidBundle', `${what} is not complete JSON (truncated or damaged): ${(cause as Error).message}`, { cause });
+  }
+}
+
+interface Planned {
+  readonly table: TableName;
+  readonly id: string;
+  /** updatedAt of the local row when planned (undefined: absent), re-checked inside the write transaction. */
+  readonly localUpdatedAt: string | undefined;
+  readonly row: unknown;
+}
+
+/**
+ * Imports a backup: verifies everything first (a bad bundle changes nothing), then merges by id in
+ * one transaction. Absent records are inserted; identical ones left alone; when both sides differ
+ * the newer updatedAt wins (equal times: the larger canonical text, so every device settles alike),
+ * and each such conflict gets an audit entry (before = local, after = incoming) and a line in the
+ * report. Audit entries from the bundle are only ever added. With protected content omitted from
+ * the bundle, local names and notes are kept. A second import of the same bundle writes nothing.
+ * Throws StoreError (InvalidBundle, TamperedBundle, UnsupportedBundle, WrongPassphrase, Locked,
+ * VersionConflict if the store changed during the import, QuotaExceeded, Aborted).
+ */
+export async function importBackup(store: KinnoteStore, input: string | unknown, options: { passphrase?: string } = {}): Promise<MergeReport> {
+  const bundle = await readBackup(input, options);
+  requireActor(store.context);
+  const included = bundle.header.protectedContent === 'included';
+  const codecs = store.context.codecs;
+
+  // Read phase: current rows of every incoming id.
+  const local = new Map<TableName, Map<string, RecordBase>>();
+  try {
+    await store.db.transaction('r', [...TABLE_NAMES], async () => {
+      for (const table of TABLE_NAMES) {
+        const ids = bundle.tables[table].map((r) => r.id);
+        const found = (await store.db.table(table).bulkGet(ids)) as (RecordBase | undefined)[];
+        local.set(table, new Map(found.filter((r): r is RecordBase => r !== undefined).map((r) => [r.id, r])));
+      }
+    });
+  } catch (error) {
+    throw toStoreError(error, 'reading the store before import');
+  }
+
+  // Plan phase (no writes): decide, seal, collect conflicts. Sealing happens here because awaiting
+  // Web Crypto inside an IndexedDB transaction would let it commit early.
+  const counts = Object.fromEntries(TABLE_NAMES.map((t) => [t, { inserted: 0, replaced: 0, unchanged: 0, keptLocal: 0 }])) as Record<TableName, TableCounts>;
+  const writes: Planned[] = [];
+  const checks: Planned[] = [];
+  const conflicts: MergeConflict[] = [];
+  const conflictAudits: { conflict: MergeConflict; before: Record<string, unknown>; after: Record<string, unknown> }[] = [];
+  for (const table of TABLE_NAMES) {
+    const codec = codecs[table];
+    const localRows = local.get(table)!;
+    for (const record of bundle.tables[table] as RecordBase[]) {
+      const current = localRows.get(record.id);
+      if (!current) {
+        writes.push({ table, id: record.id, localUpdatedAt: undefined, row: await codec.toRow(record as never) });
+        counts[table].inserted++;
+        continue;
+      }
+      const localRecord = included ? await codec.fromRow(current as never) : codec.redact(current as never);
+      const localText = canonicalJson(toPortable(table, localRecord as object));
+      const incomingText = canonicalJson(toPortable(table, record));
+      if (localText === incomingText) {
+        counts[table].unchanged++;
+        continue;
+      }
+      const tie = record.updatedAt === current.updatedAt;
+      const incomingWins = tie ? incomingText > localText : record.updatedAt > current.updatedAt;
+      // Audit entries are append-only: a differing copy never replaces the local one.
+      const winner: 'incoming' | 'local' = incomingWins && table !== 'audit' ? 'incoming' : 'local';
+      let row: unknown = undefined;
+      if (winner === 'incoming') {
+        row = await codec.toRow(record as never);
+        if (!included) {
+          const kept: Record<string, unknown> = { ...(row as object) };
+          for (const f of codec.sealedFields) kept[f] = (current as unknown as Record<string, unknown>)[f];
+          row = kept;
+        }
+      }
+      const before = auditSnapshot(table, current);
+      const after = snapshotInClear(table, record, codec.protectedFields, codec.sealedFields);
+      const alreadyRecorded = winner === 'local' && (await keepLocalRecorded(store, table, record.id, current.updatedAt, record.updatedAt));
+      const conflict: MergeConflict = {
+        table,
+        recordId: record.id,
+        localUpdatedAt: current.updatedAt,
+        incomingUpdatedAt: record.updatedAt,
+        winner,
+        reason: tie ? 'tie-break' : 'newer',
+        alreadyRecorded,
+      };
+      conflicts.push(conflict);
+      if (!alreadyRecorded) conflictAudits.push({ conflict, before, after });
+      if (winner === 'incoming') {
+        writes.push({ table, id: record.id, localUpdatedAt: current.updatedAt, row });
+        counts[table].replaced++;
+      } else {
+        checks.push({ table, id: record.id, localUpdatedAt: current.updatedAt, row: undefined });
+        counts[table].keptLocal++;
+      }
+    }
+  }
+
+  const changed = writes.length > 0 || conflictAudits.length > 0;
+  const report: MergeReport = { header: bundle.header, checksum: bundle.checksum, changed, counts, conflicts };
+  if (!changed) return report;
+
+  const at = nextTimestamp(store.context);
+  const audits: AuditEntry[] = conflictAudits.map(({ conflict, before, after }) =>
+    auditEntry(
+      store.context,
+      at,
+      conflict.winner === 'incoming' ? 'merge-take-incoming' : 'merge-keep-local',
+      conflict.table,
+      conflict.recordId,
+      before,
+      after,
+      `import of backup ${bundle.checksum.slice(0, 12)} from ${bundle.header.exportedBy?.deviceId ?? 'unknown device'}: ${conflict.reason === 'newer' ? `the ${conflict.winner} copy is newer` : 'same updatedAt, settled by content order'}`,
+    ),
+  );
+  audits.push(
+    auditEntry(store.context, at, 'import', '*', null, null, { checksum: bundle.checksum, source: bundle.header.source, exportedAt: bundle.header.exportedAt, counts }, `import of backup ${bundle.checksum.slice(0, 12)}`),
+  );
+
+  try {
+    await store.db.transaction('rw', [...TABLE_NAMES], async () => {
+      // One bulkGet per table re-checks that nothing planned on changed since the read phase.
+      const planned = [...writes, ...checks];
+      for (const table of TABLE_NAMES) {
+        const mine = planned.filter((w) => w.table === table);
+        if (mine.length === 0) continue;
+        const now = (await store.db.table(table).bulkGet(mine.map((w) => w.id))) as (RecordBase | undefined)[];
+        mine.forEach((w, i) => {
+          if (now[i]?.updatedAt !== w.localUpdatedAt) {
+            throw new StoreError('VersionConflict', `${table} ${w.id} changed during the import; nothing was imported, try again`);
+          }
+        });
+      }
+      for (const table of TABLE_NAMES) {
+        const rows = writes.filter((w) => w.table === table).map((w) => w.row);
+        if (rows.length > 0) await store.db.table(table).bulkPut(rows);
+      }
+      await store.db.table('audit').bulkAdd(audits);
+    });
+  } catch (error) {
+    throw toStoreError(error, 'importing the backup');
+  }
+  return report;
+}
+
+async function keepLocalRecorded(store: KinnoteStore, table: TableName, recordId: string, localUpdatedAt: string, incomingUpdatedAt: string): Promise<boolean> {
+  const entries = await store.audit.forRecord(table, recordId);
+  return entries.some(
+    (e) =>
+      e.action === 'merge-keep-local' &&
+      (e.before as { updatedAt?: unknown } | null)?.updatedAt === localUpdatedAt &&
+      (e.after as { updatedAt?: unknown } | null)?.updatedAt === incomingUpdatedAt,
+  );
+}
+
+/** Audit snapshot of a record in clear: protected fields become the sealed marker, as for a stored row. */
+function snapshotInClear(table: TableName, record: RecordBase, protectedFields: readonly string[], sealedFields: readonly string[]): Record<string, unknown> {
+  const copy: Record<string, unknown> = { ...record };
+  let any = false;
+  for (const f of protectedFields) {
+    if (copy[f] !== null && copy[f] !== undefined) any = true;
+    delete copy[f];
+  }
+  for (const f of sealedFields) copy[f] = any ? SEALED_MARKER : null;
+  return auditSnapshot(table, copy as unknown as RecordBase);
+}

@@ -1,0 +1,223 @@
+import Dexie, { type DBCore, type Middleware } from 'dexie';
+import { createUuidV7Generator, type AuditEntry, type RandomBytes } from '../domain';
+import { makeCodecs } from './codecs';
+import { DEFAULT_KDF_ITERATIONS, cryptoRandomBytes } from './crypto-box';
+import { IdentityRepository, ObservationRepository, Repository } from './repository';
+import { LATEST_SCHEMA_VERSION, declareSchema } from './schema';
+import type { Actor, StoreContext } from './store-context';
+import { StoreError, toStoreError } from './store-error';
+import { Vault, type Timers, type VaultRecord } from './vault';
+
+export interface OpenStoreOptions {
+  /** IndexedDB database name; default "kinnote". */
+  readonly name?: string;
+  /** Clock in Unix ms; default Date.now. */
+  readonly now?: () => number;
+  /** Random source for ids, salts and nonces; default crypto.getRandomValues. */
+  readonly randomBytes?: RandomBytes;
+  /** An IndexedDB implementation (fake-indexeddb in Node tests); default the global one. */
+  readonly indexedDB?: IDBFactory;
+  readonly IDBKeyRange?: typeof IDBKeyRange;
+  /** PBKDF2 iterations for a new vault passphrase; default 600,000. Only tests pass fewer. */
+  readonly kdfIterations?: number;
+  /** Idle time before the vault locks itself; default from settings, else 5 minutes; null never. */
+  readonly idleTimeoutMs?: number | null;
+  readonly timers?: Timers;
+  /** Who writes; default the actor saved by ensureActor/setActor on this device. */
+  readonly actor?: Actor;
+  /** Dexie middleware layered under the store (tests use it to inject storage faults). */
+  readonly middleware?: readonly Middleware<DBCore>[];
+}
+
+export interface StoreSettings {
+  readonly idleTimeoutMs: number | null;
+}
+
+const DEFAULT_IDLE_MS = 5 * 60 * 1000;
+
+/** The record store: repositories per record kind, the vault, the audit log and settings. */
+export interface KinnoteStore {
+  readonly db: Dexie;
+  readonly vault: Vault;
+  readonly context: StoreContext;
+  readonly patients: Repository<'patients'>;
+  readonly identities: IdentityRepository;
+  readonly clinicians: Repository<'clinicians'>;
+  readonly devices: Repository<'devices'>;
+  readonly events: Repository<'events'>;
+  readonly assessments: Repository<'assessments'>;
+  readonly observations: ObservationRepository;
+  readonly traces: Repository<'traces'>;
+  readonly homeProgrammes: Repository<'homeProgrammes'>;
+  readonly adherenceEntries: Repository<'adherenceEntries'>;
+  readonly selfReports: Repository<'selfReports'>;
+  readonly reliabilityStudies: Repository<'reliabilityStudies'>;
+  readonly audit: {
+    /** Audit entries of one record, oldest first. */
+    forRecord(table: string, recordId: string): Promise<AuditEntry[]>;
+    /** The most recent entries, newest first. */
+    recent(limit: number): Promise<AuditEntry[]>;
+    count(): Promise<number>;
+  };
+  readonly actor: Actor | null;
+  /** Sets (and saves on this device) who is writing. */
+  setActor(actor: Actor): Promise<void>;
+  /**
+   * First run on a device: creates the Device and Clinician records (each stamped with itself)
+   * unless an actor is already saved, saves the actor and returns it.
+   */
+  ensureActor(first: { deviceName: string; platform: string | null; clinicianName: string; profession: 'physiotherapist' | 'occupational-therapist' | 'physician' | 'nurse' | 'other' }): Promise<Actor>;
+  readonly settings: StoreSettings;
+  /** Saves the lock timeout and applies it to the vault. */
+  setIdleTimeoutMs(ms: number | null): Promise<void>;
+  close(): void;
+}
+
+/**
+ * Opens (creating or upgrading) the Kinnote database and returns its store. Upgrades run every
+ * pending migration in order (schema.ts). Throws StoreError VersionConflict when the database on
+ * disk is newer than this app, DatabaseUnavailable when IndexedDB is missing or blocked.
+ */
+export async function openStore(options: OpenStoreOptions = {}): Promise<KinnoteStore> {
+  const now = options.now ?? (() => Date.now());
+  const randomBytes = options.randomBytes ?? cryptoRandomBytes;
+  const dexieOptions: { indexedDB?: IDBFactory; IDBKeyRange?: typeof IDBKeyRange } = {};
+  if (options.indexedDB) dexieOptions.indexedDB = options.indexedDB;
+  if (options.IDBKeyRange) dexieOptions.IDBKeyRange = options.IDBKeyRange;
+  const db = new Dexie(options.name ?? 'kinnote', dexieOptions);
+  declareSchema(db);
+  for (const layer of options.middleware ?? []) db.use(layer);
+  try {
+    await db.open();
+  } catch (error) {
+    throw toStoreError(error, 'opening the database');
+  }
+  // Dexie 4 opens a database whose version is above every declared one; this app must not write to it.
+  // Dexie stores version × 10 in IndexedDB.
+  const onDisk = Math.max(db.verno, db.backendDB().version / 10);
+  if (onDisk > LATEST_SCHEMA_VERSION) {
+    db.close();
+    throw new StoreError('VersionConflict', `the database on this device is from a newer Kinnote (schema ${onDisk}, this app knows ${LATEST_SCHEMA_VERSION}); update the app`);
+  }
+  const meta = db.table<{ key: string; value: unknown }, string>('meta');
+  const readMeta = async <T>(key: string): Promise<T | undefined> => (await meta.get(key))?.value as T | undefined;
+
+  const settings: { idleTimeoutMs: number | null } = {
+    idleTimeoutMs: (await readMeta<StoreSettings>('settings'))?.idleTimeoutMs ?? DEFAULT_IDLE_MS,
+  };
+  if (options.idleTimeoutMs !== undefined) settings.idleTimeoutMs = options.idleTimeoutMs;
+
+  const vault = new Vault(
+    {
+      read: () => readMeta<VaultRecord>('vault'),
+      write: async (record) => {
+        try {
+          await meta.put({ key: 'vault', value: record });
+        } catch (error) {
+          throw toStoreError(error, 'saving the vault');
+        }
+      },
+    },
+    {
+      randomBytes,
+      now,
+      iterations: options.kdfIterations ?? DEFAULT_KDF_ITERATIONS,
+      timers: options.timers ?? {
+        setTimeout: (fn, ms) => globalThis.setTimeout(fn, ms),
+        clearTimeout: (handle) => globalThis.clearTimeout(handle as ReturnType<typeof setTimeout>),
+      },
+      idleTimeoutMs: settings.idleTimeoutMs,
+    },
+  );
+  await vault.load();
+
+  let actor: Actor | null = options.actor ?? (await readMeta<Actor>('actor')) ?? null;
+  const context: StoreContext = {
+    db,
+    vault,
+    codecs: makeCodecs(vault),
+    now,
+    newId: createUuidV7Generator(now, randomBytes),
+    actor: () => actor,
+  };
+  const audit = db.table<AuditEntry, string>('audit');
+
+  const store: KinnoteStore = {
+    db,
+    vault,
+    context,
+    patients: new Repository(context, 'patients'),
+    identities: new IdentityRepository(context, 'identities'),
+    clinicians: new Repository(context, 'clinicians'),
+    devices: new Repository(context, 'devices'),
+    events: new Repository(context, 'events'),
+    assessments: new Repository(context, 'assessments'),
+    observations: new ObservationRepository(context, 'observations'),
+    traces: new Repository(context, 'traces'),
+    homeProgrammes: new Repository(context, 'homeProgrammes'),
+    adherenceEntries: new Repository(context, 'adherenceEntries'),
+    selfReports: new Repository(context, 'selfReports'),
+    reliabilityStudies: new Repository(context, 'reliabilityStudies'),
+    audit: {
+      forRecord: async (table, recordId) =>
+        (await audit.where('[table+recordId]').equals([table, recordId]).toArray()).sort((a, b) => (a.id < b.id ? -1 : 1)),
+      recent: (limit) => audit.orderBy('id').reverse().limit(limit).toArray(),
+      count: () => audit.count(),
+    },
+    get actor() {
+      return actor;
+    },
+    async setActor(next) {
+      try {
+        await meta.put({ key: 'actor', value: next });
+      } catch (error) {
+        throw toStoreError(error, 'saving the device and clinician');
+      }
+      actor = next;
+    },
+    async ensureActor(first) {
+      if (actor) return actor;
+      const deviceId = context.newId();
+      const clinicianId = context.newId();
+      const at = new Date(now()).toISOString();
+      const stamps = { createdAt: at, updatedAt: at, deviceId, clinicianId, deleted: false };
+      actor = { deviceId, clinicianId };
+      try {
+        await db.transaction('rw', ['devices', 'clinicians', 'meta', 'audit'], async () => {
+          const device = { ...stamps, id: deviceId, name: first.deviceName, platform: first.platform };
+          const clinician = { ...stamps, id: clinicianId, displayName: first.clinicianName, profession: first.profession, registration: null };
+          await db.table('devices').add(device);
+          await db.table('clinicians').add(clinician);
+          await meta.put({ key: 'actor', value: actor });
+          const base = { createdAt: at, updatedAt: at, deviceId, clinicianId, deleted: false, before: null, note: 'first run on this device' };
+          await audit.bulkAdd([
+            { ...base, id: context.newId(), action: 'create', table: 'devices', recordId: deviceId, after: device },
+            { ...base, id: context.newId(), action: 'create', table: 'clinicians', recordId: clinicianId, after: clinician },
+          ]);
+        });
+      } catch (error) {
+        actor = null;
+        throw toStoreError(error, 'registering this device');
+      }
+      return actor;
+    },
+    get settings() {
+      return { ...settings };
+    },
+    async setIdleTimeoutMs(ms) {
+      if (ms !== null && !(ms > 0)) throw new StoreError('ValidationFailed', 'the lock timeout must be above 0, or never');
+      try {
+        await meta.put({ key: 'settings', value: { ...settings, idleTimeoutMs: ms } });
+      } catch (error) {
+        throw toStoreError(error, 'saving settings');
+      }
+      settings.idleTimeoutMs = ms;
+      vault.setIdleTimeoutMs(ms);
+    },
+    close() {
+      vault.lock();
+      db.close();
+    },
+  };
+  return store;
+}

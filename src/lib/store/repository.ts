@@ -1,0 +1,234 @@
+import Dexie, { type Table } from 'dexie';
+import { validateRecord, type RecordInput, type RecordTables, type TableName } from '../domain';
+import type { Codec } from './codecs';
+import { auditSnapshot, type Row } from './rows';
+import { auditEntry, nextTimestamp, requireActor, type StoreContext } from './store-context';
+import { StoreError, toStoreError, type StoreIssue } from './store-error';
+
+export type WritableTable = Exclude<TableName, 'audit'>;
+/** What a caller supplies to create a record: its own fields, in clear; the store stamps the rest. */
+export type Input<K extends WritableTable> = RecordInput<RecordTables[K]>;
+export type Patch<K extends WritableTable> = Partial<Input<K>>;
+
+const PATIENT_SCOPED: ReadonlySet<TableName> = new Set([
+  'identities',
+  'events',
+  'assessments',
+  'observations',
+  'traces',
+  'homeProgrammes',
+  'adherenceEntries',
+  'selfReports',
+]);
+
+/**
+ * The only way records are written. Each write validates the record (schema and measure
+ * catalogue), stamps id (UUIDv7), createdAt, updatedAt, deviceId and clinicianId, seals protected
+ * text, and appends an audit entry (who, when, what, before, after) in the same IndexedDB
+ * transaction: either both land or neither. Deletes are soft (a tombstone) and undoable. Every
+ * failure is a StoreError.
+ */
+export class Repository<K extends WritableTable> {
+  constructor(
+    protected readonly ctx: StoreContext,
+    readonly table: K,
+  ) {}
+
+  protected get codec(): Codec<K> {
+    return this.ctx.codecs[this.table] as Codec<K>;
+  }
+
+  protected get dexieTable(): Table<Row<K>, string> {
+    return this.ctx.db.table(this.table);
+  }
+
+  /** The row with `id`, tombstoned or not; undefined when there is none. Protected text stays sealed. */
+  async get(id: string): Promise<Row<K> | undefined> {
+    try {
+      return await this.dexieTable.get(id);
+    } catch (error) {
+      throw toStoreError(error, `reading ${this.table} ${id}`);
+    }
+  }
+
+  /** All rows, in id (= creation) order; tombstones only when asked. */
+  async list(options: { includeDeleted?: boolean } = {}): Promise<Row<K>[]> {
+    try {
+      const rows = await this.dexieTable.toArray();
+      return options.includeDeleted ? rows : rows.filter((r) => !(r as { deleted: boolean }).deleted);
+    } catch (error) {
+      throw toStoreError(error, `reading ${this.table}`);
+    }
+  }
+
+  /** Rows of one patient (patient-scoped tables only), in id order. */
+  async byPatient(patientId: string, options: { includeDeleted?: boolean } = {}): Promise<Row<K>[]> {
+    if (!PATIENT_SCOPED.has(this.table)) throw new StoreError('ValidationFailed', `${this.table} is not kept per patient`);
+    try {
+      const rows = await this.dexieTable.where('patientId').equals(patientId).sortBy('id');
+      return options.includeDeleted ? rows : rows.filter((r) => !(r as { deleted: boolean }).deleted);
+    } catch (error) {
+      throw toStoreError(error, `reading ${this.table} of patient ${patientId}`);
+    }
+  }
+
+  /** The record in clear (opens names and notes; throws Locked while the vault is locked and there are any). */
+  async open(row: Row<K>): Promise<RecordTables[K]> {
+    return this.codec.fromRow(row);
+  }
+
+  /** The record with protected text as null, readable while locked (null for identities). */
+  redact(row: Row<K>): RecordTables[K] | null {
+    return this.codec.redact(row);
+  }
+
+  /** Creates one record. Throws ValidationFailed (issues name the fields), Locked, QuotaExceeded, Aborted. */
+  async create(input: Input<K>): Promise<Row<K>> {
+    const [row] = await this.createMany([input]);
+    return row as Row<K>;
+  }
+
+  /**
+   * Creates many records in one transaction (the bulk path for imports of measurements and the
+   * benchmark): all are validated first, and if any fails nothing is written. One audit entry per
+   * record, written in the same transaction.
+   */
+  async createMany(inputs: readonly Input<K>[]): Promise<Row<K>[]> {
+    const actor = requireActor(this.ctx);
+    const at = nextTimestamp(this.ctx);
+    const records: RecordTables[K][] = [];
+    const issues: StoreIssue[] = [];
+    for (let i = 0; i < inputs.length; i++) {
+      const candidate = {
+        ...inputs[i],
+        id: this.ctx.newId(),
+        createdAt: at,
+        updatedAt: at,
+        deviceId: actor.deviceId,
+        clinicianId: actor.clinicianId,
+        deleted: false,
+      };
+      const result = validateRecord(this.table, candidate);
+      if (result.ok) records.push(result.record);
+      else for (const issue of result.issues) issues.push({ record: `${this.table}[${i}]`, ...issue });
+    }
+    if (issues.length > 0) throw validationFailed(this.table, issues);
+    const rows: Row<K>[] = [];
+    for (const record of records) rows.push(await this.codec.toRow(record));
+    const audits = rows.map((row) =>
+      auditEntry(this.ctx, at, 'create', this.table, (row as { id: string }).id, null, auditSnapshot(this.table, row as never)),
+    );
+    try {
+      await this.ctx.db.transaction('rw', [this.table, 'audit'], async () => {
+        await this.dexieTable.bulkAdd(rows);
+        await this.ctx.db.table('audit').bulkAdd(audits);
+      });
+    } catch (error) {
+      throw toStoreError(error, `saving ${rows.length} ${this.table}`);
+    }
+    return rows;
+  }
+
+  /**
+   * Changes fields of one record. With `expectedUpdatedAt`, refuses (VersionConflict) when the
+   * record changed since the caller read it. Protected text not in the patch is kept as it is
+   * (sealed) without needing the vault; identities always need it.
+   */
+  async update(id: string, patch: Patch<K>, options: { expectedUpdatedAt?: string } = {}): Promise<Row<K>> {
+    return this.#change(id, 'update', (current) => ({ ...current, ...patch }), options.expectedUpdatedAt, patch);
+  }
+
+  /** Soft-deletes: sets the tombstone, keeps the data, writes a 'delete' audit entry. */
+  async remove(id: string, options: { expectedUpdatedAt?: string } = {}): Promise<Row<K>> {
+    return this.#change(id, 'delete', (current) => ({ ...current, deleted: true }), options.expectedUpdatedAt, {});
+  }
+
+  /** Undoes a soft delete. */
+  async restore(id: string, options: { expectedUpdatedAt?: string } = {}): Promise<Row<K>> {
+    return this.#change(id, 'restore', (current) => ({ ...current, deleted: false }), options.expectedUpdatedAt, {});
+  }
+
+  async #change(
+    id: string,
+    action: 'update' | 'delete' | 'restore',
+    apply: (current: RecordTables[K]) => RecordTables[K],
+    expectedUpdatedAt: string | undefined,
+    patch: Patch<K>,
+  ): Promise<Row<K>> {
+    const actor = requireActor(this.ctx);
+    for (const key of ['id', 'createdAt', 'updatedAt', 'deviceId', 'clinicianId', 'deleted']) {
+      if (key in patch) throw new StoreError('ValidationFailed', `${this.table} ${id}: ${key} is set by the store`, { issues: [{ record: `${this.table} ${id}`, path: key, message: 'set by the store' }] });
+    }
+    const current = await this.get(id);
+    if (!current) throw new StoreError('NotFound', `${this.table} ${id} not found`);
+    const currentUpdatedAt = (current as { updatedAt: string }).updatedAt;
+    if (expectedUpdatedAt !== undefined && expectedUpdatedAt !== currentUpdatedAt) {
+      throw new StoreError('VersionConflict', `${this.table} ${id} changed since it was read (now ${currentUpdatedAt})`);
+    }
+    const codec = this.codec;
+    const touchesProtected = codec.protectedFields.some((f) => f in patch);
+    const redacted = codec.redact(current);
+    const base = redacted ?? (await codec.fromRow(current));
+    const at = nextTimestamp(this.ctx, currentUpdatedAt);
+    const candidate = { ...apply(base), updatedAt: at, deviceId: actor.deviceId, clinicianId: actor.clinicianId };
+    const result = validateRecord(this.table, candidate);
+    if (!result.ok) {
+      throw validationFailed(this.table, result.issues.map((i) => ({ record: `${this.table} ${id}`, ...i })));
+    }
+    let row = await codec.toRow(result.record);
+    if (redacted !== null && !touchesProtected) {
+      // Keep the sealed text as it was: the placeholder null must not overwrite it.
+      const kept: Record<string, unknown> = { ...row };
+      for (const f of codec.sealedFields) kept[f] = (current as Record<string, unknown>)[f];
+      row = kept as Row<K>;
+    }
+    const audit = auditEntry(this.ctx, at, action, this.table, id, auditSnapshot(this.table, current as never), auditSnapshot(this.table, row as never));
+    try {
+      await this.ctx.db.transaction('rw', [this.table, 'audit'], async () => {
+        const now = await this.dexieTable.get(id);
+        if (!now || (now as { updatedAt: string }).updatedAt !== currentUpdatedAt) {
+          throw new StoreError('VersionConflict', `${this.table} ${id} changed while saving; reload and try again`);
+        }
+        await this.dexieTable.put(row);
+        await this.ctx.db.table('audit').add(audit);
+      });
+    } catch (error) {
+      throw toStoreError(error, `saving ${this.table} ${id}`);
+    }
+    return row;
+  }
+}
+
+function validationFailed(table: TableName, issues: StoreIssue[]): StoreError {
+  const first = issues.slice(0, 5).map((i) => `${i.record}${i.path ? ` ${i.path}` : ''}: ${i.message}`).join('; ');
+  return new StoreError('ValidationFailed', `invalid ${table}: ${first}${issues.length > 5 ? `; and ${issues.length - 5} more` : ''}`, { issues });
+}
+
+/** Observations, with the time-ordered series query charts use. */
+export class ObservationRepository extends Repository<'observations'> {
+  /**
+   * One patient's observations of one measure in time order, from the compound index
+   * [patientId+measureCode+takenAt] (one index range read, no join). Tombstones excluded.
+   */
+  async series(patientId: string, measureCode: string): Promise<Row<'observations'>[]> {
+    try {
+      const rows = await this.dexieTable
+        .where('[patientId+measureCode+takenAt]')
+        .between([patientId, measureCode, Dexie.minKey], [patientId, measureCode, Dexie.maxKey])
+        .toArray();
+      return rows.filter((r) => !r.deleted);
+    } catch (error) {
+      throw toStoreError(error, `reading ${measureCode} of patient ${patientId}`);
+    }
+  }
+}
+
+/** Identities: names in clear only while the vault is unlocked. */
+export class IdentityRepository extends Repository<'identities'> {
+  /** The patient's identity in clear, or undefined. Throws Locked while the vault is locked. */
+  async forPatient(patientId: string): Promise<RecordTables['identities'] | undefined> {
+    const rows = await this.byPatient(patientId);
+    const row = rows[rows.length - 1];
+    return row ? this.open(row) : undefined;
+  }
+}

@@ -1,0 +1,48 @@
+// Bulk insert rate of the record store in Node on fake-indexeddb: 100,000 observations through the
+// repository's bulk path (validated, stamped, one audit entry each, one transaction per batch).
+// Figures are printed, never asserted. The Chromium figure (real IndexedDB) comes from the browser bench.
+import { performance } from 'node:perf_hooks';
+import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
+import { ordinalValue, type RecordInput, type Observation } from '../../src/lib/domain';
+import { exportBackup, importBackup, openStore } from '../../src/lib/store';
+
+const TOTAL = 100_000;
+const BATCH = 5_000;
+
+export async function run(print: (line: string) => void): Promise<void> {
+  const store = await openStore({ name: 'bench', indexedDB: new IDBFactory(), IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+  await store.ensureActor({ deviceName: 'bench', platform: 'node', clinicianName: 'Bench', profession: 'physiotherapist' });
+  const patient = await store.patients.create({ code: 'BNCH-2345', birthYear: 1970, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+  const assessment = await store.assessments.create({
+    patientId: patient.id, assessorId: store.actor!.clinicianId, performedAt: '2025-03-01T10:00:00.000Z', setting: 'clinic',
+    conditions: { position: null, minutesSinceMedication: null, painNrs: null }, notes: null,
+  });
+  const grades = ['0', '1', '1+', '2', '3', '4'];
+  const input = (i: number): RecordInput<Observation> => ({
+    patientId: patient.id, assessmentId: assessment.id, takenAt: assessment.performedAt, measureCode: 'mas', siteCode: 'elbow-flexors',
+    side: i % 2 ? 'left' : 'right', mode: null, instrument: null, value: ordinalValue('mas', grades[i % 6]!), traceId: null,
+  });
+  const start = performance.now();
+  for (let done = 0; done < TOTAL; done += BATCH) {
+    await store.observations.createMany(Array.from({ length: BATCH }, (_, k) => input(done + k)));
+  }
+  const insertMs = performance.now() - start;
+  const count = await store.db.table('observations').count();
+  print(`bulk insert, fake-indexeddb (Node ${process.version}): ${count} observations in ${(insertMs / 1000).toFixed(2)} s = ${Math.round((TOTAL / insertMs) * 1000)} observations/s (batches of ${BATCH}, validated, stamped, ${await store.audit.count()} audit entries)`);
+
+  const seriesStart = performance.now();
+  const series = await store.observations.series(patient.id, 'mas');
+  print(`series read of ${series.length} observations from the compound index: ${((performance.now() - seriesStart) / 1000).toFixed(2)} s`);
+
+  const exportStart = performance.now();
+  const bundle = await exportBackup(store, { protectedContent: 'omit' });
+  print(`export of ${bundle.tables.observations.length} observations + ${bundle.tables.audit.length} audit entries with checksum: ${((performance.now() - exportStart) / 1000).toFixed(2)} s`);
+  store.close();
+
+  const target = await openStore({ name: 'bench-import', indexedDB: new IDBFactory(), IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+  await target.ensureActor({ deviceName: 'bench-2', platform: 'node', clinicianName: 'Bench 2', profession: 'physiotherapist' });
+  const importStart = performance.now();
+  await importBackup(target, bundle);
+  print(`import of that bundle into an empty store (verify all, then one transaction): ${((performance.now() - importStart) / 1000).toFixed(2)} s`);
+  target.close();
+}

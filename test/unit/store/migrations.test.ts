@@ -1,0 +1,81 @@
+import { describe, expect, it } from 'vitest';
+import Dexie from 'dexie';
+import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
+import { LATEST_SCHEMA_VERSION, SCHEMA_VERSIONS, declareSchema, openStore } from '../../../src/lib/store';
+
+const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;
+const stamps = { createdAt: '2025-01-01T10:00:00.000Z', updatedAt: '2025-01-01T10:00:00.000Z', deviceId: ids(900), clinicianId: ids(901), deleted: false };
+
+/** Version-1 rows as the first release wrote them (observations had no takenAt). */
+function v1Rows() {
+  const patient = { id: ids(1), ...stamps, code: 'K7QM-3XHD', birthYear: 1960, condition: 'stroke', affectedSides: ['left'], status: 'active' };
+  const assessments = [
+    { id: ids(2), ...stamps, patientId: ids(1), assessorId: ids(901), performedAt: '2025-01-02T09:00:00.000Z', setting: 'clinic', conditions: { position: null, minutesSinceMedication: null, painNrs: null }, notesSealed: null },
+    { id: ids(3), ...stamps, patientId: ids(1), assessorId: ids(901), performedAt: '2025-02-02T09:00:00.000Z', setting: 'home', conditions: { position: null, minutesSinceMedication: null, painNrs: null }, notesSealed: null },
+  ];
+  const observations = [
+    { id: ids(10), ...stamps, patientId: ids(1), assessmentId: ids(2), measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '2', rank: 3 }, traceId: null },
+    { id: ids(11), ...stamps, patientId: ids(1), assessmentId: ids(3), measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '1+', rank: 2 }, traceId: null },
+    // An orphan (its assessment is missing): v1 did not forbid it; it takes its own createdAt.
+    { id: ids(12), ...stamps, patientId: ids(1), assessmentId: ids(99), measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '1', rank: 1 }, traceId: null },
+  ];
+  const audit = [{ id: ids(50), ...stamps, action: 'create', table: 'patients', recordId: ids(1), before: null, after: { code: 'K7QM-3XHD' }, note: null }];
+  const trace = { id: ids(60), ...stamps, patientId: ids(1), assessmentId: ids(2), kind: 'pendulum-knee-angle', startedAt: stamps.createdAt, sampleRateHz: 100, channels: [{ name: 'knee', unit: 'deg', samples: new Float64Array([1, 2, 3]) }] };
+  return { patient, assessments, observations, audit, trace };
+}
+
+describe('schema migrations', () => {
+  it('declares consecutive versions, each after the first with an upgrade', () => {
+    expect(SCHEMA_VERSIONS.map((v) => v.version)).toEqual(Array.from({ length: LATEST_SCHEMA_VERSION }, (_, i) => i + 1));
+    for (const v of SCHEMA_VERSIONS.slice(1)) expect(v.upgrade, `v${v.version}`).toBeTypeOf('function');
+  });
+
+  it('v1 → v2: every record intact, takenAt backfilled, new indexes usable', async () => {
+    const factory = new IDBFactory();
+    const rows = v1Rows();
+    const old = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    declareSchema(old, 1);
+    await old.open();
+    expect(old.verno).toBe(1);
+    await old.table('patients').add(rows.patient);
+    await old.table('assessments').bulkAdd(rows.assessments);
+    await old.table('observations').bulkAdd(rows.observations);
+    await old.table('audit').bulkAdd(rows.audit);
+    await old.table('traces').add(rows.trace);
+    await old.table('meta').put({ key: 'actor', value: { deviceId: ids(900), clinicianId: ids(901) } });
+    old.close();
+
+    const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    expect(store.db.verno).toBe(2);
+    expect(await store.patients.get(ids(1))).toEqual(rows.patient);
+    expect(await store.assessments.list()).toEqual(rows.assessments);
+    const trace = await store.traces.get(ids(60));
+    expect(Array.from(trace!.channels[0]!.samples)).toEqual([1, 2, 3]);
+    const observations = await store.observations.list();
+    expect(observations.map((o) => o.takenAt)).toEqual(['2025-01-02T09:00:00.000Z', '2025-02-02T09:00:00.000Z', stamps.createdAt]);
+    for (const [i, o] of observations.entries()) {
+      const { takenAt: _t, ...rest } = o;
+      expect(rest).toEqual(rows.observations[i]);
+    }
+    // New compound index answers range queries; old indexes still work.
+    expect((await store.observations.series(ids(1), 'mas')).map((o) => o.id)).toEqual([ids(12), ids(10), ids(11)]);
+    expect(await store.db.table('observations').where('assessmentId').equals(ids(3)).count()).toBe(1);
+    expect(await store.audit.forRecord('patients', ids(1))).toEqual(rows.audit);
+    expect(store.actor).toEqual({ deviceId: ids(900), clinicianId: ids(901) });
+    const schema = store.db.table('observations').schema;
+    expect(schema.indexes.map((i) => i.name)).toContain('[patientId+measureCode+takenAt]');
+    // Records written after the upgrade still validate against the current schema.
+    const { validateRecord } = await import('../../../src/lib/domain');
+    for (const o of observations) expect(validateRecord('observations', o).ok).toBe(true);
+    store.close();
+  });
+
+  it('refuses a database newer than the app as VersionConflict', async () => {
+    const factory = new IDBFactory();
+    const future = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    future.version(LATEST_SCHEMA_VERSION + 5).stores({ meta: 'key' });
+    await future.open();
+    future.close();
+    await expect(openStore({ indexedDB: factory, IDBKeyRange })).rejects.toMatchObject({ code: 'VersionConflict' });
+  });
+});
