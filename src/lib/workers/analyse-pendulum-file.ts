@@ -1,5 +1,5 @@
-import { analysePendulumCsv, type PendulumAnalysis } from '$lib/pendulum';
-import type { PendulumReply, PendulumRequest } from './pendulum-protocol';
+import { analysePendulumText } from './analyse-pendulum-text';
+import type { PendulumReply, PendulumRequest, PendulumResult } from './pendulum-protocol';
 
 /** A refusal from the engine (file, row, reason), or a failure of the worker itself. */
 export class PendulumAnalysisError extends Error {
@@ -14,7 +14,7 @@ export class PendulumAnalysisError extends Error {
 
 let worker: Worker | null = null;
 let nextId = 1;
-const pending = new Map<number, { resolve: (a: PendulumAnalysis) => void; reject: (e: Error) => void }>();
+const pending = new Map<number, { resolve: (a: PendulumResult) => void; reject: (e: Error) => void }>();
 
 function startWorker(): Worker | null {
   if (worker) return worker;
@@ -29,7 +29,7 @@ function startWorker(): Worker | null {
     const waiter = pending.get(reply.id);
     if (!waiter) return;
     pending.delete(reply.id);
-    if (reply.ok) waiter.resolve(reply.analysis);
+    if (reply.ok) waiter.resolve({ analysis: reply.analysis, raw: reply.raw });
     else waiter.reject(new PendulumAnalysisError(reply.message, reply.refused));
   };
   worker.onerror = (event) => {
@@ -49,12 +49,12 @@ let workerBroken = false;
  * Analyses a pendulum recording (CSV text) in a Web Worker; falls back to the main thread where
  * workers are unavailable or have failed. Rejects with PendulumAnalysisError naming file, row, reason.
  */
-export function analysePendulumFile(csvText: string, fileName: string): Promise<PendulumAnalysis> {
+export function analysePendulumFile(csvText: string, fileName: string): Promise<PendulumResult> {
   const target = workerBroken ? null : startWorker();
   if (!target) {
     return new Promise((resolve, reject) => {
       try {
-        resolve(analysePendulumCsv(csvText, fileName));
+        resolve(analysePendulumText(csvText, fileName));
       } catch (error) {
         const message = error instanceof Error ? error.message : String(error);
         reject(new PendulumAnalysisError(message, (error as Error)?.name === 'PendulumInputError'));

@@ -1,2 +1,17 @@
 // Public face of src/lib/workers: page-side clients of the Web Workers that run core modules.
 export { analysePendulumFile, PendulumAnalysisError } from './analyse-pendulum-file';
+export type { PendulumResult } from './pendulum-protocol';
+export {
+  CohortExportFailure,
+  buildCohortIndex,
+  countCohort,
+  startCohortExport,
+  type CohortDisclosureRequest,
+  type CohortExportCallbacks,
+  type CohortExportFileResult,
+  type CohortExportJob,
+  type CohortExportPrepared,
+  type CohortExportRequest,
+  type CohortExportResult,
+  type PlainGroupSummary,
+} from './cohort-export-client';

@@ -1,4 +1,4 @@
-import type { PendulumAnalysis } from '$lib/pendulum';
+import type { PendulumAnalysis, PendulumTrace } from '$lib/pendulum';
 
 /** Messages between the page and the pendulum worker. */
 export interface PendulumRequest {
@@ -7,6 +7,12 @@ export interface PendulumRequest {
   readonly fileName: string;
 }
 
+/** The analysis and the parsed raw columns (kept with the observations as the trace). */
+export interface PendulumResult {
+  readonly analysis: PendulumAnalysis;
+  readonly raw: PendulumTrace;
+}
+
 export type PendulumReply =
-  | { readonly id: number; readonly ok: true; readonly analysis: PendulumAnalysis }
+  | ({ readonly id: number; readonly ok: true } & PendulumResult)
   | { readonly id: number; readonly ok: false; readonly message: string; readonly refused: boolean };

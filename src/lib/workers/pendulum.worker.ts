@@ -1,29 +1,25 @@
 /// <reference lib="webworker" />
-// Runs the pendulum engine off the main thread. The processed signals travel back as transferred
+// Runs the pendulum engine off the main thread. Signals and raw columns travel back as transferred
 // buffers, so a long 1 kHz trace is not copied.
-import { analysePendulumCsv, PendulumInputError } from '$lib/pendulum';
+import { PendulumInputError } from '$lib/pendulum';
+import { analysePendulumText, transferablesOf } from './analyse-pendulum-text';
 import type { PendulumReply, PendulumRequest } from './pendulum-protocol';
 
 declare const self: DedicatedWorkerGlobalScope;
 
 self.onmessage = (event: MessageEvent<PendulumRequest>) => {
   const { id, csvText, fileName } = event.data;
-  let reply: PendulumReply;
-  const transfer: Transferable[] = [];
   try {
-    const analysis = analysePendulumCsv(csvText, fileName);
-    const s = analysis.signals;
-    for (const column of [s.angleDeg, s.velocityDps, s.emgEnvelopeUv, s.flexionPeakIndices, s.extensionPeakIndices]) {
-      if (column) transfer.push(column.buffer);
-    }
-    reply = { id, ok: true, analysis };
+    const result = analysePendulumText(csvText, fileName);
+    const reply: PendulumReply = { id, ok: true, ...result };
+    self.postMessage(reply, transferablesOf(result));
   } catch (error) {
-    reply = {
+    const reply: PendulumReply = {
       id,
       ok: false,
       message: error instanceof Error ? error.message : String(error),
       refused: error instanceof PendulumInputError,
     };
+    self.postMessage(reply);
   }
-  self.postMessage(reply, transfer);
 };
