@@ -382,7 +382,7 @@ export function generateDemoScenario(options: DemoOptions): DemoScenario {
   }
   tables.reliabilityStudies.push({
     id: idAt(studyMs), ...stamps(studyMs, deviceIds[0]!, clinicianIds[0]!), title: 'Ankle dorsiflexion, two raters, two trials (demo volunteers)',
-    measureCode: 'rom', siteCode: 'ankle-dorsiflexion', design: 'inter-rater', raterIds: [clinicianIds[0]!, clinicianIds[2]!], trials, notes: null,
+    measureCode: 'rom', siteCode: 'ankle-dorsiflexion', design: 'inter-rater', raterIds: [clinicianIds[0]!, clinicianIds[2]!], trials, notes: null, adoption: null,
   });
 
   return { seed: options.seed, endAt: iso(endMs), tables };

@@ -1,5 +1,5 @@
 import * as v from 'valibot';
-import { IdSchema, NonEmptyTextSchema, recordBaseEntries, TextSchema } from './record-base';
+import { IdSchema, IsoDateTimeSchema, NonEmptyTextSchema, recordBaseEntries, TextSchema } from './record-base';
 
 export const RELIABILITY_DESIGNS = ['intra-rater', 'inter-rater', 'test-retest'] as const;
 
@@ -24,6 +24,22 @@ export const ReliabilityStudySchema = v.pipe(
       }),
     ),
     notes: v.nullable(TextSchema(5000)),
+    /**
+     * The MDC the team adopted from this study for its verdicts on this measure and site; null (or,
+     * in records written before the field existed, absent) when not adopted.
+     */
+    adoption: v.optional(
+      v.nullable(
+        v.strictObject({
+          mdc95: v.pipe(v.number(), v.finite(), v.gtValue(0, 'must be above 0')),
+          sem: v.pipe(v.number(), v.finite(), v.minValue(0)),
+          /** Which ICC form the study's design called for, e.g. "ICC(2,1)". */
+          iccForm: NonEmptyTextSchema(40),
+          adoptedAt: IsoDateTimeSchema,
+        }),
+      ),
+      null,
+    ),
   }),
   v.forward(
     v.check((s) => s.trials.every((t) => t.raterIndex < s.raterIds.length), 'raterIndex must point into raterIds'),

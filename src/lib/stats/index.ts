@@ -50,6 +50,9 @@ export { wilcoxonSignedRank, type WilcoxonSignedRank } from './wilcoxon-signed-r
 export { standardisedResponseMean } from './standardised-response-mean';
 export { cohortChangeSummary, type CohortChangeSummary } from './cohort-change-summary';
 
+// Series of one patient, ready for the patient page and its charts
+export { outcomeSeries, seriesTitle, ORDINAL_STEP_MDC, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
+
 // Small numeric helpers shared with callers that work on typed arrays
 export { compensatedSum } from './compensated-sum';
 export { selectInPlace } from './select-in-place';

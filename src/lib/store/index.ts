@@ -28,3 +28,4 @@ export { exportBackup, exportBackupText, type ExportOptions } from './export-bac
 export { importBackup, readBackup, type MergeConflict, type MergeReport, type TableCounts } from './import-backup';
 export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
+export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';

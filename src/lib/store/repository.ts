@@ -1,5 +1,5 @@
 import Dexie, { type Table } from 'dexie';
-import { validateRecord, type RecordInput, type RecordTables, type TableName } from '../domain';
+import { validateRecord, type AuditEntry, type RecordInput, type RecordTables, type TableName } from '../domain';
 import type { Codec } from './codecs';
 import { auditSnapshot, type Row } from './rows';
 import { auditEntry, nextTimestamp, requireActor, type StoreContext } from './store-context';
@@ -94,6 +94,24 @@ export class Repository<K extends WritableTable> {
    * record, written in the same transaction.
    */
   async createMany(inputs: readonly Input<K>[]): Promise<Row<K>[]> {
+    const { rows, audits } = await this.prepareCreate(inputs);
+    try {
+      await this.ctx.db.transaction('rw', [this.table, 'audit'], async () => {
+        await this.dexieTable.bulkAdd(rows);
+        await this.ctx.db.table('audit').bulkAdd(audits);
+      });
+    } catch (error) {
+      throw toStoreError(error, `saving ${rows.length} ${this.table}`);
+    }
+    return rows;
+  }
+
+  /**
+   * Validates, stamps and seals new records and builds their audit entries without writing
+   * anything, so that several tables can be written in one transaction (see saveAssessment).
+   * Throws ValidationFailed (issues name the record and field) or Locked.
+   */
+  async prepareCreate(inputs: readonly Input<K>[]): Promise<{ rows: Row<K>[]; audits: AuditEntry[] }> {
     const actor = requireActor(this.ctx);
     const at = nextTimestamp(this.ctx);
     const records: RecordTables[K][] = [];
@@ -118,15 +136,7 @@ export class Repository<K extends WritableTable> {
     const audits = rows.map((row) =>
       auditEntry(this.ctx, at, 'create', this.table, (row as { id: string }).id, null, auditSnapshot(this.table, row as never)),
     );
-    try {
-      await this.ctx.db.transaction('rw', [this.table, 'audit'], async () => {
-        await this.dexieTable.bulkAdd(rows);
-        await this.ctx.db.table('audit').bulkAdd(audits);
-      });
-    } catch (error) {
-      throw toStoreError(error, `saving ${rows.length} ${this.table}`);
-    }
-    return rows;
+    return { rows, audits };
   }
 
   /**

@@ -1,0 +1,72 @@
+import { openStore, StoreError, type Actor, type KinnoteStore, type VaultStatus } from '$lib/store';
+
+/** What went wrong, for a person: the store's own message, or a plain one. */
+export function describeError(error: unknown): string {
+  if (error instanceof StoreError) {
+    switch (error.code) {
+      case 'QuotaExceeded':
+        return 'This device is out of storage space. Nothing was saved. Free some space (or export and remove old data) and try again.';
+      case 'Locked':
+        return 'Names and notes are protected: unlock them with your passphrase first.';
+      case 'WrongPassphrase':
+        return 'That passphrase is not right. Nothing was changed.';
+      default:
+        return error.message;
+    }
+  }
+  return error instanceof Error ? error.message : String(error);
+}
+
+/**
+ * The page's view of the record store: opened once per tab, with the vault's lock state and a
+ * revision counter that pages read to reload after a write.
+ */
+class Session {
+  store = $state.raw<KinnoteStore | null>(null);
+  phase = $state<'closed' | 'opening' | 'ready' | 'failed'>('closed');
+  failure = $state<string | null>(null);
+  vaultStatus = $state<VaultStatus>('unset');
+  actor = $state.raw<Actor | null>(null);
+  /** Bumped after every write made through `changed()`, so pages can re-read. */
+  revision = $state(0);
+  #opening: Promise<KinnoteStore> | null = null;
+
+  /** Opens the store (once); resolves when ready. */
+  open(): Promise<KinnoteStore> {
+    if (this.#opening) return this.#opening;
+    this.phase = 'opening';
+    this.#opening = openStore().then(
+      (store) => {
+        this.store = store;
+        this.actor = store.actor;
+        this.vaultStatus = store.vault.status;
+        store.vault.subscribe((status) => {
+          this.vaultStatus = status;
+        });
+        if (typeof window !== 'undefined') {
+          // Any interaction keeps the vault open; idleness locks it (the store's timer).
+          const touch = () => store.vault.touch();
+          window.addEventListener('pointerdown', touch, { passive: true });
+          window.addEventListener('keydown', touch, { passive: true });
+        }
+        this.phase = 'ready';
+        return store;
+      },
+      (error: unknown) => {
+        this.phase = 'failed';
+        this.failure = describeError(error);
+        this.#opening = null;
+        throw error;
+      },
+    );
+    return this.#opening;
+  }
+
+  /** Call after a write so that pages reading `revision` reload. */
+  changed(): void {
+    this.revision++;
+    this.actor = this.store?.actor ?? null;
+  }
+}
+
+export const session = new Session();
