@@ -4,6 +4,7 @@ import { demoCommand } from './demo';
 import { reliabilityCommand } from './reliability';
 import { pendulumCommand } from './pendulum';
 import { cohortCommand } from './cohort';
+import { motionCommand } from './motion';
 
 /** Every command of `kinnote`; add a command by adding one file and one line here. */
-export const commands: readonly CliCommand[] = [serveCommand, pendulumCommand, reliabilityCommand, demoCommand, cohortCommand];
+export const commands: readonly CliCommand[] = [serveCommand, pendulumCommand, reliabilityCommand, demoCommand, cohortCommand, motionCommand];

@@ -8,123 +8,9 @@ import {
   mdcFromSem,
   MissingCellError,
   semFromMeanSquareError,
-  type ReliabilityTable,
+  readReliabilityCsv,
+  StatsInputError,
 } from '../../lib/stats';
-
-/** One CSV record with the 1-based line on which it starts. */
-interface CsvRecord {
-  readonly line: number;
-  readonly fields: string[];
-}
-
-/**
- * Splits CSV text into records per RFC 4180: comma separators, fields optionally in double quotes
- * with "" for a quote, CRLF or LF line ends (also inside quotes), an optional UTF-8 byte-order mark.
- * Throws RefusedInput for an unterminated quote or text after a closing quote.
- */
-export function parseCsv(text: string, file: string): CsvRecord[] {
-  const records: CsvRecord[] = [];
-  let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  let line = 1;
-  let fields: string[] = [];
-  let field = '';
-  let recordLine = 1;
-  let atFieldStart = true;
-  const endRecord = (): void => {
-    fields.push(field);
-    records.push({ line: recordLine, fields });
-    fields = [];
-    field = '';
-    atFieldStart = true;
-  };
-  while (i < text.length) {
-    const ch = text[i] as string;
-    if (atFieldStart && ch === '"') {
-      const quoteLine = line;
-      i++;
-      for (;;) {
-        if (i >= text.length) throw new RefusedInput(`${file}: line ${quoteLine}: a quoted field is never closed`);
-        const c = text[i] as string;
-        if (c === '"') {
-          if (text[i + 1] === '"') {
-            field += '"';
-            i += 2;
-            continue;
-          }
-          i++;
-          break;
-        }
-        if (c === '\n') line++;
-        field += c;
-        i++;
-      }
-      const next = text[i];
-      if (next !== undefined && next !== ',' && next !== '\n' && next !== '\r') {
-        throw new RefusedInput(`${file}: line ${line}: text after a closing quote`);
-      }
-      atFieldStart = false;
-      continue;
-    }
-    if (ch === ',') {
-      fields.push(field);
-      field = '';
-      atFieldStart = true;
-      i++;
-    } else if (ch === '\r' || ch === '\n') {
-      endRecord();
-      i += ch === '\r' && text[i + 1] === '\n' ? 2 : 1;
-      line++;
-      recordLine = line;
-    } else {
-      field += ch;
-      atFieldStart = false;
-      i++;
-    }
-  }
-  if (!atFieldStart || field !== '' || fields.length > 0) endRecord();
-  // Entirely blank lines (one empty field) carry no record.
-  return records.filter((r) => !(r.fields.length === 1 && (r.fields[0] as string).trim() === ''));
-}
-
-const numberPattern = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-/** Reads the subjects × trials table: header first, subject column first, empty cell = missing. */
-function readTable(text: string, file: string): { table: ReliabilityTable; lines: number[]; columns: string[] } {
-  const records = parseCsv(text, file);
-  const header = records[0];
-  if (!header) throw new RefusedInput(`${file}: the file is empty; expected a header row`);
-  const k = header.fields.length - 1;
-  if (k < 2) {
-    throw new RefusedInput(`${file}: line ${header.line}: the header names ${k} trial column(s); need a subject column and at least 2 trial or rater columns`);
-  }
-  const subjectIds: string[] = [];
-  const lines: number[] = [];
-  const rows = records.slice(1);
-  const scores = new Float64Array(rows.length * k);
-  rows.forEach((record, r) => {
-    if (record.fields.length !== k + 1) {
-      throw new RefusedInput(`${file}: line ${record.line}: ${record.fields.length} fields, the header has ${k + 1}`);
-    }
-    const id = (record.fields[0] as string).trim();
-    if (id === '') throw new RefusedInput(`${file}: line ${record.line}: the subject column is empty`);
-    subjectIds.push(id);
-    lines.push(record.line);
-    for (let j = 0; j < k; j++) {
-      const cell = (record.fields[j + 1] as string).trim();
-      if (cell === '') {
-        scores[r * k + j] = Number.NaN;
-        continue;
-      }
-      if (!numberPattern.test(cell)) {
-        throw new RefusedInput(
-          `${file}: line ${record.line}: subject "${id}", column "${(header.fields[j + 1] as string).trim()}": "${cell}" is not a number`,
-        );
-      }
-      scores[r * k + j] = Number(cell);
-    }
-  });
-  return { table: { subjectIds, trialCount: k, scores }, lines, columns: header.fields.map((f) => f.trim()) };
-}
 
 const roundTrip = (value: number): number | null => (Number.isFinite(value) ? value : null);
 
@@ -154,7 +40,14 @@ export const reliabilityCommand: CliCommand = {
       const code = (error as NodeJS.ErrnoException).code ?? String(error);
       throw new RefusedInput(`${file}: cannot read the file (${code})`);
     }
-    const { table, lines, columns } = readTable(text, file);
+    let parsed: ReturnType<typeof readReliabilityCsv>;
+    try {
+      parsed = readReliabilityCsv(text, file);
+    } catch (error) {
+      if (error instanceof StatsInputError) throw new RefusedInput(error.message);
+      throw error;
+    }
+    const { table, lines, columns } = parsed;
     let complete: ReturnType<typeof completeSubjects>;
     try {
       complete = completeSubjects(table, switches.has('drop-incomplete') ? 'drop' : 'refuse');

@@ -6,3 +6,5 @@ export { chartColours, chartDashes } from './palette';
 export { default as PendulumChart } from './PendulumChart.svelte';
 export { pendulumChartData, pendulumChartOptions, type FittedCurve } from './pendulum-chart-options';
 export { minMaxDecimate } from './min-max-decimate';
+export { default as ChangeDistributionChart } from './ChangeDistributionChart.svelte';
+export { changeHistogram, changeDistributionOptions, type ChangeDistributionInput } from './change-distribution-options';

@@ -9,6 +9,8 @@ export const AUDIT_ACTIONS = [
   'merge-take-incoming',
   'merge-keep-local',
   'import',
+  /** An export that left the device with identifying data (the note says what and why). */
+  'export',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 

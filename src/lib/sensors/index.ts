@@ -1,2 +1,13 @@
 // Public face of src/lib/sensors: other folders import only this file.
-export {};
+// The signal code (./signal) is pure; the browser adapter and the Svelte parts sit beside it.
+export * from './signal';
+export {
+  DeviceMotionSource,
+  describeMotionProblem,
+  motionApiPresent,
+  requestMotionPermission,
+  type MotionProblem,
+  type MotionSourceCallbacks,
+  type PermissionOutcome,
+} from './device-motion-source';
+export { pendulumObservations, romObservation, motionTraceChannels, saveSensorMeasurement, type SensorSaveStore, type SensorSaveInput } from './save-sensor-measurement';

@@ -23,6 +23,7 @@ export {
   type IntraclassCorrelations,
 } from './intraclass-correlations';
 export { semFromMeanSquareError, semFromSdAndIcc, mdcFromSem } from './measurement-error';
+export { parseCsvRecords, readReliabilityCsv, type CsvRecord } from './reliability-csv';
 
 // Change
 export { selectBaseline, type Baseline, type BaselineRule } from './select-baseline';

@@ -29,3 +29,4 @@ export { importBackup, readBackup, type MergeConflict, type MergeReport, type Ta
 export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
+export { readLocalState, writeLocalState } from './local-state';

@@ -4,7 +4,7 @@ import { makeCodecs } from './codecs';
 import { DEFAULT_KDF_ITERATIONS, cryptoRandomBytes } from './crypto-box';
 import { IdentityRepository, ObservationRepository, Repository } from './repository';
 import { LATEST_SCHEMA_VERSION, declareSchema } from './schema';
-import type { Actor, StoreContext } from './store-context';
+import { auditEntry, type Actor, type StoreContext } from './store-context';
 import { StoreError, toStoreError } from './store-error';
 import { Vault, type Timers, type VaultRecord } from './vault';
 
@@ -58,6 +58,8 @@ export interface KinnoteStore {
     /** The most recent entries, newest first. */
     recent(limit: number): Promise<AuditEntry[]>;
     count(): Promise<number>;
+    /** Records that data left the device (e.g. an identified cohort export), with a plain note. */
+    logExport(note: string): Promise<void>;
   };
   readonly actor: Actor | null;
   /** Sets (and saves on this device) who is writing. */
@@ -163,6 +165,14 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
         (await audit.where('[table+recordId]').equals([table, recordId]).toArray()).sort((a, b) => (a.id < b.id ? -1 : 1)),
       recent: (limit) => audit.orderBy('id').reverse().limit(limit).toArray(),
       count: () => audit.count(),
+      logExport: async (note) => {
+        const at = new Date(now()).toISOString();
+        try {
+          await audit.add(auditEntry(context, at, 'export', '*', null, null, null, note));
+        } catch (error) {
+          throw toStoreError(error, 'logging the export');
+        }
+      },
     },
     get actor() {
       return actor;

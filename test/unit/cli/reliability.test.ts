@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from '../../../src/cli/main';
-import { parseCsv } from '../../../src/cli/commands/reliability';
+import { parseCsvRecords as parseCsv } from '../../../src/lib/stats';
 import { relativeError } from '../stats/relative-error';
 
 const fixtureDir = join(process.cwd(), 'test/fixtures/stats');

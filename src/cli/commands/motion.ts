@@ -1,0 +1,70 @@
+import { readFile, writeFile } from 'node:fs/promises';
+import { basename, resolve } from 'node:path';
+import type { PendulumIndices } from '../../lib/pendulum/index';
+import { analyseMotionRecording, formatAngleTraceCsv, MotionInputError, parseMotionCsv } from '../../lib/sensors/index';
+import { parseOptions, RefusedInput, type CliCommand } from '../command';
+
+const usage = `kinnote motion FILE.csv [--trace OUT.csv] [--start-angle DEG]
+
+Analyses a knee pendulum test recorded with a phone strapped to the shank. FILE.csv holds the phone's
+device-motion samples with the header
+  time_ms,rate_alpha_dps,rate_beta_dps,rate_gamma_dps,acc_x_ms2,acc_y_ms2,acc_z_ms2
+(rotation rate in deg/s and acceleration including gravity in m/s², on the W3C DeviceMotionEvent
+axes; the phone may sit on the shank in any orientation). The knee angle is reconstructed by fusing
+gyroscope and gravity, then analysed as by \`kinnote pendulum\`, whose JSON this prints.
+
+  --trace OUT.csv   also write the reconstructed trace as time_s,angle_deg
+  --start-angle     knee flexion at which the leg was held before release (default 0 = full extension)
+
+Refused input exits with status 1 and one line on stderr naming file, row and reason.
+Not a diagnostic device: the indices support, and never replace, a clinician's judgement.`;
+
+export const motionCommand: CliCommand = {
+  name: 'motion',
+  summary: 'analyse a pendulum test recorded with a phone (device-motion CSV) like `pendulum`',
+  usage,
+  async run(args, io) {
+    const { positional, values } = parseOptions(args, ['trace', 'start-angle']);
+    if (positional.length !== 1) throw new RefusedInput('give one file; usage: kinnote motion FILE.csv [--trace OUT.csv]');
+    const name = positional[0] as string;
+    const startText = values.get('start-angle');
+    const startAngle = startText === undefined ? 0 : Number(startText);
+    if (startText !== undefined && (startText.trim() === '' || !Number.isFinite(startAngle) || startAngle < -30 || startAngle > 180)) {
+      throw new RefusedInput(`option --start-angle: "${startText}" is not a number between -30 and 180`);
+    }
+    let text: string;
+    try {
+      text = await readFile(resolve(io.cwd, name), 'utf8');
+    } catch (error) {
+      throw new RefusedInput(`${name}: cannot read the file (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+    }
+    const fileName = basename(name);
+    let result;
+    try {
+      result = analyseMotionRecording(parseMotionCsv(text, fileName), { fileName, startAngleDeg: startAngle });
+    } catch (error) {
+      if (error instanceof MotionInputError) throw new RefusedInput(error.message);
+      throw error;
+    }
+    const tracePath = values.get('trace');
+    if (tracePath !== undefined) {
+      try {
+        await writeFile(resolve(io.cwd, tracePath), formatAngleTraceCsv(result.reconstruction.timeS, result.reconstruction.angleDeg), 'utf8');
+      } catch (error) {
+        throw new RefusedInput(`${tracePath}: cannot write the trace (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+      }
+    }
+    io.stdout(JSON.stringify(forJson(result.analysis.indices), null, 2));
+    return 0;
+  },
+};
+
+// Same shaping as the pendulum command's output (duplicated: that module does not export it).
+function forJson(indices: PendulumIndices): PendulumIndices {
+  return JSON.parse(JSON.stringify(indices, (_key, value: unknown) => (typeof value === 'number' ? roundForPrint(value) : value))) as PendulumIndices;
+}
+
+function roundForPrint(x: number): number | null {
+  if (!Number.isFinite(x)) return null;
+  return Math.round(x * 1e4) / 1e4;
+}

@@ -1,0 +1,21 @@
+// Pure signal code of src/lib/sensors: no DOM, no clock, no storage. Runs in Node, workers and the page.
+export { MotionInputError } from './motion-input-error';
+export { MOTION_CSV_COLUMNS, STANDARD_GRAVITY_MS2, deviceAngularVelocity, motionSampleCount, type MotionRecording } from './motion-recording';
+export { parseMotionCsv } from './parse-motion-csv';
+export { formatMotionCsv, formatAngleTraceCsv } from './format-motion-csv';
+export { motionTiming, LOW_RATE_HZ, type MotionTiming } from './motion-timing';
+export { principalAxis, type PrincipalAxis } from './principal-axis';
+export { quietMask, maskRuns } from './quiet-mask';
+export {
+  reconstructKneeAngle,
+  complementaryPass,
+  wrap180,
+  GRAVITY_TIME_CONSTANT_S,
+  type KneeAngleOptions,
+  type KneeAngleReconstruction,
+} from './reconstruct-knee-angle';
+export { analyseMotionRecording, type MotionPendulumResult } from './analyse-motion-recording';
+export { axisAngleToVerticalDeg, angleBetweenDeg, type DeviceAxis } from './inclination';
+export { steadyReading, type SteadyLimits, type SteadyReading } from './steady-hold';
+export { MotionBuffer } from './motion-buffer';
+export { LiveSwingMonitor, type LiveSwingState } from './live-swing-monitor';

@@ -1,0 +1,187 @@
+// The phone-sensor pages in Chromium, fed synthetic devicemotion events dispatched on window at about
+// 60 Hz (page.evaluate), generated from the physical pendulum simulation through the simulated phone.
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { analyseMotionRecording, parseMotionCsv } from '../../src/lib/sensors';
+import { mulberry32, reflexForSeverity, simulatePendulum } from '../reference/pendulum/simulator';
+import { axisAngle, deviceMotionFromSwing, multiply, randomRotation, SHIN_SCREEN_OUT, staticDeviceMotion, typicalPhoneErrors, NO_ERRORS } from '../reference/sensors/device-motion-simulator';
+import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchChromium();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const RATE_HZ = 100;
+const HOLD_S = 1;
+// A severe extensor catch settles fast, which keeps the test short (≈ 3 s countdown + 4 s recording).
+const swing = simulatePendulum({ holdS: HOLD_S, durationS: 7, reflex: reflexForSeverity('extensor', 'severe') });
+const rng = mulberry32(99);
+const stream = deviceMotionFromSwing(swing, {
+  mounting: randomRotation(rng),
+  offsetM: 0.22,
+  heightM: 0.05,
+  rateHz: RATE_HZ,
+  errors: { ...typicalPhoneErrors(rng), jitterFraction: 0 },
+  seed: 99,
+});
+const r = stream.recording;
+/** Rows [alpha, beta, gamma, x, y, z] at 100 Hz; row HOLD_S·100 is the release. */
+const TABLE = Array.from(r.timeMs, (_, i) => [r.rateAlphaDps[i], r.rateBetaDps[i], r.rateGammaDps[i], r.accXMs2[i], r.accYMs2[i], r.accZMs2[i]]);
+
+/**
+ * Starts dispatching devicemotion events every 16 ms. Before `release()` the first row repeats (the
+ * leg held still); after it, the row follows the time since release, so the physics matches the
+ * events' own time stamps whatever the timer jitter.
+ */
+async function startDispatch(page: Page, table: number[][], holdRows: number): Promise<void> {
+  await page.evaluate(
+    ({ table, holdRows, rateHz }) => {
+      const w = window as unknown as { __motion: { release: number | null; table: number[][]; timer: number } };
+      w.__motion = { release: null, table, timer: 0 };
+      w.__motion.timer = window.setInterval(() => {
+        const m = w.__motion;
+        const k = m.release === null ? 0 : Math.min(m.table.length - 1, holdRows + Math.floor(((performance.now() - m.release) * rateHz) / 1000));
+        const [alpha, beta, gamma, x, y, z] = m.table[k] as number[];
+        window.dispatchEvent(
+          new DeviceMotionEvent('devicemotion', { rotationRate: { alpha, beta, gamma }, accelerationIncludingGravity: { x, y, z }, interval: 16 }),
+        );
+      }, 16);
+    },
+    { table, holdRows, rateHz: RATE_HZ },
+  );
+}
+
+async function release(page: Page): Promise<void> {
+  await page.evaluate(() => {
+    (window as unknown as { __motion: { release: number | null } }).__motion.release = performance.now();
+  });
+}
+
+async function setTable(page: Page, table: number[][]): Promise<void> {
+  await page.evaluate((t) => {
+    (window as unknown as { __motion: { table: number[][] } }).__motion.table = t;
+  }, table);
+}
+
+describe('pendulum test with the phone', () => {
+  it('records synthetic device motion, stops by itself at rest, analyses it and exports the raw recording', async () => {
+    const context = await newAppContext(browser, { viewport: smallPhone, acceptDownloads: true });
+    const page = await context.newPage();
+    await page.goto('/measure/pendulum');
+    await page.getByRole('heading', { level: 1, name: /pendulum test with the phone/i }).waitFor();
+    for (const caution of [/strap the phone on firmly/i, /support and guard the leg/i, /local protocol/i, /feels pain/i]) {
+      expect(await page.getByText(caution).count()).toBeGreaterThan(0);
+    }
+    await page.getByRole('radio', { name: 'Right' }).check();
+    await startDispatch(page, TABLE, HOLD_S * RATE_HZ);
+    await page.getByRole('button', { name: 'Start' }).click();
+    await page.getByText('Recording: let go of the leg now.').waitFor({ timeout: 10_000 });
+    await release(page);
+    await page.getByText(/^Stopped: \d+ samples recorded\.$/).waitFor({ timeout: 20_000 });
+    const ri = Number(await page.locator('[data-index="relaxation-index"]').textContent());
+    const rest = Number((await page.locator('[data-index="resting-angle"]').textContent())?.replace('°', ''));
+    // Truth from the simulator's own state (test/reference/pendulum/simulator.ts).
+    expect(Math.abs(ri - swing.truth.relaxationIndex)).toBeLessThan(0.1);
+    expect(Math.abs(rest - swing.truth.restAngleDeg)).toBeLessThan(3);
+    expect(await page.locator('figure canvas').count()).toBeGreaterThan(0);
+    await screenshot(page, 'sensors-pendulum-result-360');
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: /export raw recording/i }).click()]);
+    const text = readFileSync((await download.path()) as string, 'utf8');
+    expect(text.split('\r\n')[0]).toBe('time_ms,rate_alpha_dps,rate_beta_dps,rate_gamma_dps,acc_x_ms2,acc_y_ms2,acc_z_ms2');
+    // The exported file, analysed in Node by the same code as `kinnote motion`, gives the page's numbers.
+    const again = analyseMotionRecording(parseMotionCsv(text, 'export.csv')).analysis.indices;
+    expect(again.relaxationIndex.toFixed(2)).toBe(ri.toFixed(2));
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await page.setViewportSize(tablet);
+    await screenshot(page, 'sensors-pendulum-result-1024');
+    await context.close();
+  });
+
+  it('says clearly when no motion sensor sends data (a desktop computer)', async () => {
+    const context = await newAppContext(browser, { viewport: tablet });
+    const page = await context.newPage();
+    await page.goto('/measure/pendulum');
+    await page.getByRole('button', { name: 'Start' }).click();
+    await page.getByRole('alert').filter({ hasText: /no motion sensor is sending data/i }).waitFor({ timeout: 5000 });
+    expect(await page.getByRole('button', { name: 'Record again' }).count()).toBe(1);
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await screenshot(page, 'sensors-pendulum-no-sensor-1024');
+    await context.close();
+  });
+
+  it('asks for motion permission inside the tap (iOS style) and explains a refusal', async () => {
+    const context = await newAppContext(browser);
+    await context.addInitScript(() => {
+      const w = window as unknown as { __askedInGesture: boolean | null; DeviceMotionEvent: { requestPermission?: () => Promise<string> } };
+      w.__askedInGesture = null;
+      w.DeviceMotionEvent.requestPermission = () => {
+        w.__askedInGesture = navigator.userActivation.isActive;
+        return Promise.resolve('denied');
+      };
+    });
+    const page = await context.newPage();
+    await page.goto('/measure/pendulum');
+    await page.getByRole('button', { name: 'Start' }).click();
+    await page.getByRole('alert').filter({ hasText: /motion access was refused/i }).waitFor();
+    expect(await page.evaluate(() => (window as unknown as { __askedInGesture: boolean | null }).__askedInGesture)).toBe(true);
+    await context.close();
+  });
+
+  it('keeps what was recorded when the page goes to the background mid-recording', async () => {
+    const context = await newAppContext(browser);
+    const page = await context.newPage();
+    await page.goto('/measure/pendulum');
+    await startDispatch(page, TABLE, HOLD_S * RATE_HZ);
+    await page.getByRole('button', { name: 'Start' }).click();
+    await page.getByText('Recording: let go of the leg now.').waitFor({ timeout: 10_000 });
+    await release(page);
+    await page.waitForTimeout(600);
+    await page.evaluate(() => {
+      Object.defineProperty(document, 'visibilityState', { value: 'hidden', configurable: true });
+      document.dispatchEvent(new Event('visibilitychange'));
+    });
+    await page.getByRole('alert').filter({ hasText: /went to the background.*kept/i }).waitFor();
+    const status = (await page.getByText(/^Stopped: \d+ samples recorded\.$/).textContent()) ?? '';
+    expect(Number(/(\d+) samples/.exec(status)?.[1])).toBeGreaterThan(150);
+    expect(await page.getByRole('button', { name: /export raw recording/i }).count()).toBe(1);
+    await context.close();
+  });
+});
+
+describe('phone inclinometer', () => {
+  it('measures a joint angle by the two-position method with a steadiness check, shown large', async () => {
+    const toTable = (o: Float64Array) => {
+      const s = staticDeviceMotion(o, 0.5, { rateHz: RATE_HZ, errors: { ...NO_ERRORS, accNoiseMs2: 0.03, gyroNoiseDps: 0.1 }, seed: 3 });
+      return Array.from(s.timeMs, (_, i) => [s.rateAlphaDps[i], s.rateBetaDps[i], s.rateGammaDps[i], s.accXMs2[i], s.accYMs2[i], s.accZMs2[i]]);
+    };
+    // Phone flat on the shin (screen out), segment horizontal; then the knee bent by 72° (rotation about the world's left axis).
+    const startOrientation = SHIN_SCREEN_OUT;
+    const endOrientation = multiply(axisAngle(0, 1, 0, 72), SHIN_SCREEN_OUT);
+    const context = await newAppContext(browser, { viewport: smallPhone });
+    const page = await context.newPage();
+    await page.goto('/measure/inclinometer');
+    await startDispatch(page, toTable(startOrientation), 0);
+    await release(page);
+    await page.getByRole('button', { name: 'Start sensors' }).click();
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    expect(Number((await page.locator('[data-value="segment"]').textContent())?.replace('°', ''))).toBeCloseTo(90, 0);
+    await page.getByRole('button', { name: 'Set zero' }).click();
+    await setTable(page, toTable(endOrientation));
+    await page.waitForTimeout(1300);
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    await page.getByRole('button', { name: 'Measure end position' }).click();
+    const shown = Number((await page.getByLabel('Joint angle').textContent())?.replace('°', ''));
+    expect(Math.abs(shown - 72)).toBeLessThan(1);
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await screenshot(page, 'sensors-inclinometer-360');
+    await page.setViewportSize(tablet);
+    await screenshot(page, 'sensors-inclinometer-1024');
+    await context.close();
+  });
+});
