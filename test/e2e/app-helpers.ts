@@ -1,0 +1,89 @@
+// Steps shared by the browser tests: first-run set-up, the demo caseload, canvas checks.
+import type { Page } from 'playwright-core';
+
+export const TEST_PASSPHRASE = 'correct horse battery staple';
+
+/** Sets up the device on the first screen; with `demo`, also loads the invented demo caseload. */
+export async function setUpDevice(page: Page, options: { demo: boolean } = { demo: true }): Promise<void> {
+  await page.goto('/');
+  await page.getByLabel('Your name').fill('Robin Testwell');
+  await page.getByLabel('Name of this device').fill('Browser test tablet');
+  await page.getByLabel('Passphrase for names and notes').fill(TEST_PASSPHRASE);
+  await page.getByLabel('Passphrase again').fill(TEST_PASSPHRASE);
+  if (options.demo) {
+    await page.getByRole('button', { name: 'Set up and load the demo caseload' }).click();
+    await page.getByText(/Loaded the demo caseload/).waitFor({ timeout: 60_000 });
+  } else {
+    await page.getByRole('button', { name: 'Set up with an empty caseload' }).click();
+    await page.getByRole('heading', { name: 'Get started' }).waitFor({ timeout: 60_000 });
+  }
+}
+
+/**
+ * Unlocks names and notes from the header link (the key lives only in memory, so every full page
+ * load starts locked), then returns to the page it came from.
+ */
+export async function unlockVault(page: Page): Promise<void> {
+  await page.getByRole('link', { name: /Locked/ }).click();
+  await page.getByLabel('Passphrase', { exact: true }).fill(TEST_PASSPHRASE);
+  await page.getByRole('button', { name: 'Unlock' }).click();
+  await page.getByText('Unlocked: names and notes are readable').waitFor();
+  await page.goBack();
+}
+
+/**
+ * Opens the first patient of the caseload and returns the patient page's path. With `inApp`, it
+ * moves by links (no page load, so an unlocked vault stays unlocked).
+ */
+export async function openFirstPatient(page: Page, options: { inApp?: boolean } = {}): Promise<string> {
+  if (options.inApp) await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Caseload' }).click();
+  else await page.goto('/patients');
+  await page.locator('a.row').first().click();
+  await page.getByRole('heading', { name: 'Change since baseline' }).waitFor();
+  return new URL(page.url()).pathname;
+}
+
+/** Share of canvas pixels that are not (near) white/transparent, over every canvas inside `selector`. */
+export async function inkedCanvasShare(page: Page, selector: string): Promise<number> {
+  return page.evaluate((sel) => {
+    let inked = 0;
+    let total = 0;
+    for (const canvas of Array.from(document.querySelectorAll<HTMLCanvasElement>(`${sel} canvas`))) {
+      const ctx = canvas.getContext('2d');
+      if (!ctx || canvas.width === 0 || canvas.height === 0) continue;
+      const data = ctx.getImageData(0, 0, canvas.width, canvas.height).data;
+      for (let i = 0; i < data.length; i += 4) {
+        total++;
+        const alpha = data[i + 3] as number;
+        const light = (data[i] as number) > 245 && (data[i + 1] as number) > 245 && (data[i + 2] as number) > 245;
+        if (alpha > 16 && !light) inked++;
+      }
+    }
+    return total === 0 ? 0 : inked / total;
+  }, selector);
+}
+
+/** Counts canvas pixels close to an RGB colour (tolerance per channel), e.g. the MDC band's tint. */
+export async function pixelsNear(page: Page, selector: string, rgb: [number, number, number], tolerance = 12): Promise<number> {
+  return page.evaluate(
+    ({ sel, target, tol }) => {
+      let count = 0;
+      for (const canvas of Array.from(document.querySelectorAll<HTMLCanvasElement>(`${sel} canvas`))) {
+        const ctx = canvas.getContext('2d');
+        if (!ctx || canvas.width === 0) continue;
+        const data = ctx.getImageData(0, 0, canvas.width, canvas.height).data;
+        for (let i = 0; i < data.length; i += 4) {
+          if (
+            Math.abs((data[i] as number) - target[0]) <= tol &&
+            Math.abs((data[i + 1] as number) - target[1]) <= tol &&
+            Math.abs((data[i + 2] as number) - target[2]) <= tol &&
+            (data[i + 3] as number) > 16
+          )
+            count++;
+        }
+      }
+      return count;
+    },
+    { sel: selector, target: rgb, tol: tolerance },
+  );
+}

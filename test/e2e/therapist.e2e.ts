@@ -1,0 +1,194 @@
+// A home visit in the browser: set up, assess, import a pendulum trace, chart, export; offline.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import Papa from 'papaparse';
+import type { Browser, Page } from 'playwright-core';
+import { inkedCanvasShare, openFirstPatient, pixelsNear, setUpDevice, unlockVault } from './app-helpers';
+import { launchChromium, newAppContext, phone, screenshot, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchChromium();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function enterAssessment(page: Page): Promise<void> {
+  const mas = page.locator('section', { has: page.getByRole('heading', { name: 'Modified Ashworth' }) });
+  await mas.getByRole('button', { name: 'Add a muscle group' }).click();
+  await mas.getByLabel('Muscle group').selectOption('elbow-flexors');
+  await mas.getByRole('radio', { name: 'Right' }).check();
+  await mas.getByRole('radio', { name: '1+', exact: true }).check();
+
+  const tardieu = page.locator('section', { has: page.getByRole('heading', { name: 'Modified Tardieu' }) });
+  await tardieu.getByRole('button', { name: 'Add a Tardieu test' }).click();
+  await tardieu.getByLabel('Muscle group').selectOption('ankle-soleus');
+  await tardieu.getByLabel('R1, fast (°)').fill('62');
+  await tardieu.getByLabel('R2, slow (°)').fill('98');
+  await tardieu.getByRole('radio', { name: '2', exact: true }).check();
+
+  const rom = page.locator('section', { has: page.getByRole('heading', { name: 'Range of motion' }) });
+  await rom.getByRole('button', { name: 'Add a joint motion' }).click();
+  await rom.getByLabel('Joint motion').selectOption('knee-flexion');
+  await rom.getByLabel('Angle (°)').fill('118');
+
+  const spasms = page.locator('section', { has: page.getByRole('heading', { name: 'Spasms' }) });
+  await spasms.getByRole('group', { name: 'Penn spasm frequency' }).getByRole('radio', { name: '2', exact: true }).check();
+  await spasms.getByRole('group', { name: /Spasm severity/ }).getByRole('radio', { name: '6', exact: true }).check();
+  await page.getByRole('textbox', { name: 'Notes', exact: true }).fill('Invented note: calf tighter after a long walk');
+}
+
+async function expectAssessmentValues(page: Page): Promise<void> {
+  const mas = page.locator('section', { has: page.getByRole('heading', { name: 'Modified Ashworth' }) });
+  expect(await mas.getByLabel('Muscle group').inputValue()).toBe('elbow-flexors');
+  expect(await mas.getByRole('radio', { name: '1+', exact: true }).isChecked()).toBe(true);
+  expect(await mas.getByRole('radio', { name: 'Right' }).isChecked()).toBe(true);
+  expect(await page.getByLabel('R1, fast (°)').inputValue()).toBe('62');
+  expect(await page.getByLabel('R2, slow (°)').inputValue()).toBe('98');
+  expect(await page.getByLabel('Angle (°)').inputValue()).toBe('118');
+  const spasms = page.locator('section', { has: page.getByRole('heading', { name: 'Spasms' }) });
+  expect(await spasms.getByRole('group', { name: /Spasm severity/ }).getByRole('radio', { name: '6', exact: true }).isChecked()).toBe(true);
+}
+
+describe('therapist on a home visit', () => {
+  for (const [size, viewport] of [
+    ['phone', phone],
+    ['tablet', tablet],
+  ] as const) {
+    it(`enters a complete assessment at ${size} size, offline, and finds every value after reloads`, async () => {
+      const context = await newAppContext(browser, { viewport });
+      const page = await context.newPage();
+      await setUpDevice(page);
+      await waitForOfflineWorker(page);
+      await openFirstPatient(page, { inApp: true });
+      await context.setOffline(true);
+
+      await page.getByRole('link', { name: 'New assessment' }).click();
+      await page.getByRole('heading', { name: /New assessment/ }).waitFor();
+      await enterAssessment(page);
+      await screenshot(page, `assess-${size}`);
+
+      // The draft survives a reload with the network cut; a reload locks names and notes, and the
+      // notes (kept only sealed in the draft) come back once unlocked.
+      await page.waitForTimeout(300);
+      await page.reload();
+      await page.getByText(/Draft restored/).waitFor();
+      await expectAssessmentValues(page);
+      await unlockVault(page);
+      await page.getByRole('heading', { name: /New assessment/ }).waitFor();
+      await expectAssessmentValues(page);
+      await expect.poll(() => page.getByRole('textbox', { name: 'Notes', exact: true }).inputValue()).toBe('Invented note: calf tighter after a long walk');
+
+      await page.getByRole('button', { name: 'Save assessment' }).click();
+      await page.getByText('Assessment saved.').waitFor();
+      await page.reload();
+      await page.getByRole('heading', { name: 'Change since baseline' }).waitFor();
+      const summary = page.locator('ul.series');
+      await expect(summary.getByText('Right elbow flexors · Modified Ashworth Scale').count()).resolves.toBe(1);
+      await expect(summary.getByText(/R2 − R1 36° \(R1 62°, R2 98°, quality 2\)/).count()).resolves.toBe(1);
+      await expect(summary.getByText('118°').count()).resolves.toBeGreaterThan(0);
+      const spasmCard = summary.locator('li', { hasText: 'Spasm severity' });
+      await expect(spasmCard.getByText(/^6/).count()).resolves.toBeGreaterThan(0);
+      await screenshot(page, `patient-${size}`);
+      await context.close();
+    });
+  }
+
+  it('imports a pendulum trace in a worker, shows the indices and chart, and saves them with the trace', async () => {
+    const context = await newAppContext(browser, { viewport: tablet });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    const patientPath = await openFirstPatient(page);
+    await page.goto(`${patientPath}/pendulum`);
+    await page.getByRole('heading', { name: 'Before a pendulum test' }).waitFor();
+    await page.getByLabel('Choose a recording').setInputFiles('test/fixtures/pendulum/healthy-100hz.csv');
+    await page.getByRole('heading', { name: /Results: healthy-100hz.csv/ }).waitFor();
+    // The engine's own value for this file (kinnote pendulum prints 1.6627).
+    const ri = page.locator('.indices div', { hasText: 'Relaxation index R2' }).locator('strong');
+    expect(await ri.textContent()).toBe('1.66');
+    expect(await inkedCanvasShare(page, '.results')).toBeGreaterThan(0.01);
+    await screenshot(page, 'pendulum-import-tablet');
+    await page.getByRole('radio', { name: 'Left' }).check();
+    await page.getByRole('button', { name: 'Save to the record' }).click();
+    await page.getByText('Assessment saved.').waitFor();
+    await expect(page.locator('ul.series').getByText('Left knee (leg-drop pendulum) · Pendulum relaxation index (R2)').count()).resolves.toBe(1);
+    await context.close();
+  });
+
+  it('refuses a broken trace file with the file, row and reason', async () => {
+    const context = await newAppContext(browser, { viewport: phone });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    const patientPath = await openFirstPatient(page);
+    await page.goto(`${patientPath}/pendulum`);
+    await page.getByLabel('Choose a recording').setInputFiles('test/fixtures/pendulum/bad-time-not-increasing.csv');
+    const alert = page.getByRole('alert');
+    await alert.waitFor();
+    expect(await alert.textContent()).toMatch(/bad-time-not-increasing\.csv: row \d+: time not strictly increasing/);
+    await context.close();
+  });
+
+  it('draws a progress chart with its MDC band (canvas checked, not blank) and exports the patient CSV', async () => {
+    const context = await newAppContext(browser, { viewport: phone, acceptDownloads: true });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    await openFirstPatient(page);
+    const card = page.locator('ul.series > li', { hasText: 'Modified Ashworth' }).first();
+    await card.getByRole('button', { name: 'Show chart' }).click();
+    await card.locator('canvas').first().waitFor();
+    await page.waitForTimeout(300);
+    expect(await inkedCanvasShare(page, 'ul.series')).toBeGreaterThan(0.005);
+    // The band is drawn in the band colour (rgb 91,155,184 at partial alpha).
+    expect(await pixelsNear(page, 'ul.series', [91, 155, 184])).toBeGreaterThan(500);
+    await screenshot(page, 'progress-chart-phone');
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export CSV' }).click()]);
+    const text = readFileSync((await download.path()) as string, 'utf8');
+    const parsed = Papa.parse<Record<string, string>>(text.replace(/^\ufeff/, ''), { header: true, skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.meta.fields).toEqual(expect.arrayContaining(['patient_code', 'assessment_date', 'measure_code', 'site', 'side', 'value', 'unit', 'event_context']));
+    expect(parsed.data.length).toBeGreaterThan(10);
+    for (const row of parsed.data) expect(row.assessment_date).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}/);
+    await context.close();
+  });
+
+  it('every page has no serious or critical axe-core violation and no sideways overflow, at phone and tablet size (screenshots written)', async () => {
+    const context = await newAppContext(browser, { viewport: tablet });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    const patientPath = await openFirstPatient(page);
+    const pages = [
+      ['home', '/'],
+      ['caseload', '/patients'],
+      ['patient', patientPath],
+      ['assess', `${patientPath}/assess`],
+      ['pendulum-import', `${patientPath}/pendulum`],
+      ['new-patient', '/patients/new'],
+      ['reliability', '/reliability'],
+      ['cohort', '/cohort'],
+      ['settings', '/settings'],
+      ['measure-pendulum', `/measure/pendulum?patient=${patientPath.split('/').pop()}`],
+      ['measure-inclinometer', `/measure/inclinometer?patient=${patientPath.split('/').pop()}`],
+    ] as const;
+    const found: string[] = [];
+    for (const [name, path] of pages) {
+      for (const [size, viewport] of [
+        ['tablet', tablet],
+        ['phone', phone],
+      ] as const) {
+        await page.setViewportSize(viewport);
+        await page.goto(path);
+        await page.getByRole('heading', { level: 1 }).first().waitFor();
+        await page.waitForTimeout(250);
+        await screenshot(page, `page-${name}-${size}`);
+        for (const v of await seriousAxeViolations(page)) found.push(`${name} (${size}): ${v.id} ${v.help} @ ${v.targets.slice(0, 3).join(' | ')}`);
+        // Nothing may push the page wider than the screen (no sideways scrolling on a phone).
+        const width = await page.evaluate(() => document.documentElement.scrollWidth);
+        if (width > viewport.width) found.push(`${name} (${size}): page is ${width}px wide in a ${viewport.width}px viewport`);
+      }
+    }
+    expect(found).toEqual([]);
+    await context.close();
+  });
+});
