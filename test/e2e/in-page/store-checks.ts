@@ -1,0 +1,162 @@
+// Store checks that run inside Chromium, on real IndexedDB and Web Crypto. Bundled by
+// test/e2e/bundle-for-page.ts and driven by test/e2e/store.e2e.ts and the Chromium bench.
+import Dexie from 'dexie';
+import { ordinalValue } from '../../../src/lib/domain';
+import { declareSchema, exportBackupText, importBackup, openStore, StoreError, type KinnoteStore } from '../../../src/lib/store';
+
+const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;
+const stamps = { createdAt: '2025-01-01T10:00:00.000Z', updatedAt: '2025-01-01T10:00:00.000Z', deviceId: ids(900), clinicianId: ids(901), deleted: false };
+
+async function freshStore(name: string, kdfIterations = 1000): Promise<KinnoteStore> {
+  await Dexie.delete(name);
+  const store = await openStore({ name, kdfIterations, idleTimeoutMs: null });
+  await store.ensureActor({ deviceName: 'Chromium', platform: 'test', clinicianName: 'In-page Tester', profession: 'physiotherapist' });
+  await store.vault.setup('correct horse battery staple');
+  return store;
+}
+
+async function seed(store: KinnoteStore, observations: number, batch = 5000): Promise<{ patientId: string; assessmentId: string }> {
+  const patient = await store.patients.create({ code: 'K7QM-3XHD', birthYear: 1966, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+  const assessment = await store.assessments.create({
+    patientId: patient.id,
+    assessorId: store.actor!.clinicianId,
+    performedAt: '2025-03-01T10:00:00.000Z',
+    setting: 'home',
+    conditions: { position: 'sitting', minutesSinceMedication: null, painNrs: null },
+    notes: 'Invented note for the browser check',
+  });
+  await addObservations(store, { patientId: patient.id, assessmentId: assessment.id }, observations, batch);
+  return { patientId: patient.id, assessmentId: assessment.id };
+}
+
+async function addObservations(store: KinnoteStore, where: { patientId: string; assessmentId: string }, observations: number, batch: number): Promise<void> {
+  const grades = ['0', '1', '1+', '2', '3', '4'];
+  const inputs = Array.from({ length: observations }, (_, i) => ({
+    patientId: where.patientId,
+    assessmentId: where.assessmentId,
+    takenAt: '2025-03-01T10:00:00.000Z',
+    measureCode: 'mas',
+    siteCode: 'elbow-flexors',
+    side: 'left' as const,
+    mode: null,
+    instrument: null,
+    value: ordinalValue('mas', grades[i % 6] as string),
+    traceId: null,
+  }));
+  for (let i = 0; i < inputs.length; i += batch) await store.observations.createMany(inputs.slice(i, i + batch));
+}
+
+/** Counts of every table, and the audit count, for before/after comparisons. */
+async function counts(store: KinnoteStore): Promise<Record<string, number>> {
+  const out: Record<string, number> = {};
+  for (const table of store.db.tables) out[table.name] = await table.count();
+  return out;
+}
+
+export const storeChecks = {
+  /** v1 database written by the first schema, then opened by the app's store: every record intact. */
+  async migration() {
+    const name = 'kinnote-browser-migration';
+    await Dexie.delete(name);
+    const old = new Dexie(name);
+    declareSchema(old, 1);
+    await old.open();
+    const v1 = old.verno;
+    await old.table('patients').add({ id: ids(1), ...stamps, code: 'K7QM-3XHD', birthYear: 1960, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+    await old.table('assessments').add({ id: ids(2), ...stamps, patientId: ids(1), assessorId: ids(901), performedAt: '2025-01-02T09:00:00.000Z', setting: 'clinic', conditions: { position: null, minutesSinceMedication: null, painNrs: null }, notesSealed: null });
+    await old.table('observations').add({ id: ids(10), ...stamps, patientId: ids(1), assessmentId: ids(2), measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '2', rank: 3 }, traceId: null });
+    await old.table('traces').add({ id: ids(60), ...stamps, patientId: ids(1), assessmentId: ids(2), kind: 'pendulum-knee-angle', startedAt: stamps.createdAt, sampleRateHz: 100, channels: [{ name: 'knee', unit: 'deg', samples: new Float64Array([1, 2, 3]) }] });
+    old.close();
+    const store = await openStore({ name, kdfIterations: 1000, idleTimeoutMs: null });
+    const series = await store.observations.series(ids(1), 'mas');
+    const trace = await store.traces.get(ids(60));
+    const result = {
+      from: v1,
+      to: store.db.verno,
+      patientCode: (await store.patients.get(ids(1)))?.code,
+      takenAt: series.map((o) => o.takenAt),
+      traceSamples: Array.from(trace?.channels[0]?.samples ?? []),
+      traceIsFloat64: trace?.channels[0]?.samples instanceof Float64Array,
+    };
+    store.close();
+    await Dexie.delete(name);
+    return result;
+  },
+
+  /**
+   * A real QuotaExceededError: the test lowers this origin's quota (DevTools protocol), then a bulk
+   * write larger than the quota must fail as StoreError QuotaExceeded and leave every table as it was.
+   */
+  async quota(observations: number) {
+    const store = await freshStore('kinnote-browser-quota');
+    const where = await seed(store, 10);
+    const patientId = where.patientId;
+    const before = await counts(store);
+    let code: string | null = null;
+    let message = '';
+    try {
+      // One bulk write (one transaction) far larger than the quota.
+      await addObservations(store, where, observations, observations);
+    } catch (error) {
+      code = error instanceof StoreError ? error.code : `not a StoreError: ${String(error)}`;
+      message = (error as Error).message;
+    }
+    const after = await counts(store);
+    const series = await store.observations.series(patientId, 'mas');
+    store.close();
+    return { code, message, before, after, firstPatientObservations: series.length };
+  },
+
+  /** Encrypted backup: round trip into a second store; a tampered and a truncated file are refused whole. */
+  async encryptedBackup() {
+    const source = await freshStore('kinnote-browser-backup-a');
+    await seed(source, 20);
+    const text = await exportBackupText(source, { protectedContent: 'include', passphrase: 'backup passphrase 42', iterations: 1000 });
+    const target = await freshStore('kinnote-browser-backup-b');
+    const empty = await counts(target);
+    const attempt = async (input: string, passphrase: string) => {
+      try {
+        await importBackup(target, input, { passphrase });
+        return 'imported';
+      } catch (error) {
+        return error instanceof StoreError ? error.code : String(error);
+      }
+    };
+    const parsed = JSON.parse(text) as Record<string, unknown>;
+    const cipherKey = Object.keys(parsed).find((k) => typeof parsed[k] === 'string' && (parsed[k] as string).length > 200) as string;
+    const cipher = parsed[cipherKey] as string;
+    // One base64 character of the ciphertext changed.
+    const flipped = { ...parsed, [cipherKey]: cipher.slice(0, 40) + (cipher[40] === 'A' ? 'B' : 'A') + cipher.slice(41) };
+    const results = {
+      wrongPassphrase: await attempt(text, 'not the passphrase'),
+      tampered: await attempt(JSON.stringify(flipped), 'backup passphrase 42'),
+      truncated: await attempt(text.slice(0, Math.floor(text.length * 0.7)), 'backup passphrase 42'),
+      afterRefusals: await counts(target),
+      empty,
+      first: await attempt(text, 'backup passphrase 42'),
+      afterFirst: await counts(target),
+      second: await attempt(text, 'backup passphrase 42'),
+      afterSecond: await counts(target),
+      notesReadable: '',
+    };
+    const [assessment] = await target.assessments.list();
+    results.notesReadable = assessment ? ((await target.assessments.open(assessment)).notes ?? '') : '';
+    source.close();
+    target.close();
+    return results;
+  },
+
+  /** Bulk insert rate: `total` observations, validated, stamped and audited, in batches of 5,000. */
+  async bulkInsert(total: number) {
+    const store = await freshStore('kinnote-browser-bench');
+    const start = performance.now();
+    await seed(store, total);
+    const seconds = (performance.now() - start) / 1000;
+    const stored = await store.db.table('observations').count();
+    store.close();
+    await Dexie.delete('kinnote-browser-bench');
+    return { total, stored, seconds, perSecond: total / seconds };
+  },
+};
+
+(globalThis as unknown as { storeChecks: typeof storeChecks }).storeChecks = storeChecks;
