@@ -1,4 +1,5 @@
 import { openStore, StoreError, type Actor, type KinnoteStore, type VaultStatus } from '$lib/store';
+import { readDeviceProfile } from '$lib/programme';
 
 /** What went wrong, for a person: the store's own message, or a plain one. */
 export function describeError(error: unknown): string {
@@ -27,6 +28,8 @@ class Session {
   failure = $state<string | null>(null);
   vaultStatus = $state<VaultStatus>('unset');
   actor = $state.raw<Actor | null>(null);
+  /** What this device is for: a therapist's, a patient's own phone (home programme), or not chosen yet. */
+  deviceMode = $state<'therapist' | 'patient' | null>(null);
   /** Bumped after every write made through `changed()`, so pages can re-read. */
   revision = $state(0);
   #opening: Promise<KinnoteStore> | null = null;
@@ -36,7 +39,8 @@ class Session {
     if (this.#opening) return this.#opening;
     this.phase = 'opening';
     this.#opening = openStore().then(
-      (store) => {
+      async (store) => {
+        this.deviceMode = (await readDeviceProfile(store).catch(() => null))?.mode ?? (store.actor ? 'therapist' : null);
         this.store = store;
         this.actor = store.actor;
         this.vaultStatus = store.vault.status;
@@ -60,6 +64,13 @@ class Session {
       },
     );
     return this.#opening;
+  }
+
+  /** Re-reads the device mode after it was chosen or changed (home programme set-up). */
+  async refreshDeviceMode(): Promise<void> {
+    const store = this.store;
+    if (!store) return;
+    this.deviceMode = (await readDeviceProfile(store).catch(() => null))?.mode ?? (store.actor ? 'therapist' : null);
   }
 
   /** Call after a write so that pages reading `revision` reload. */

@@ -1,0 +1,108 @@
+import * as v from 'valibot';
+import { BUNDLE_FORMAT, BUNDLE_FORMAT_VERSION, LATEST_SCHEMA_VERSION, StoreError, createBundle, importBackup, readLocalState, writeLocalState, type KinnoteStore, type MergeReport } from '../store';
+import type { Device } from '../domain';
+import type { OpenedProgrammePackage } from './programme-package';
+import { ProgrammeTransferError } from './programme-transfer-error';
+
+const PROFILE_KEY = 'local:device-profile';
+
+/**
+ * What this device is for. 'therapist': the ordinary app. 'patient': the patient's own phone,
+ * bound to one patient by the first programme it accepts (until then patientId is null).
+ */
+export type DeviceProfile =
+  | { readonly mode: 'therapist' }
+  | {
+      readonly mode: 'patient';
+      readonly patientId: string | null;
+      readonly patientCode: string | null;
+      readonly deviceId: string | null;
+      readonly currentProgrammeId: string | null;
+    };
+
+const ProfileSchema = v.variant('mode', [
+  v.strictObject({ mode: v.literal('therapist') }),
+  v.strictObject({
+    mode: v.literal('patient'),
+    patientId: v.nullable(v.string()),
+    patientCode: v.nullable(v.string()),
+    deviceId: v.nullable(v.string()),
+    currentProgrammeId: v.nullable(v.string()),
+  }),
+]);
+
+/** The saved profile, or null on a device never set up (or with a damaged profile). */
+export async function readDeviceProfile(store: KinnoteStore): Promise<DeviceProfile | null> {
+  const result = v.safeParse(ProfileSchema, await readLocalState(store, PROFILE_KEY));
+  return result.success ? result.output : null;
+}
+
+export async function writeDeviceProfile(store: KinnoteStore, profile: DeviceProfile): Promise<void> {
+  await writeLocalState(store, PROFILE_KEY, profile);
+}
+
+/**
+ * Turns a device into a patient's own phone (first run). Refused (StoreError ValidationFailed)
+ * when the device already has a user or any patient record: a therapist's caseload and a
+ * patient's phone never share a database.
+ */
+export async function choosePatientMode(store: KinnoteStore): Promise<DeviceProfile> {
+  if (store.actor !== null || (await store.patients.list({ includeDeleted: true })).length > 0) {
+    throw new StoreError('ValidationFailed', 'this device is already set up for a therapist; a patient\'s phone needs a device of its own');
+  }
+  const profile: DeviceProfile = { mode: 'patient', patientId: null, patientCode: null, deviceId: null, currentProgrammeId: null };
+  await writeDeviceProfile(store, profile);
+  return profile;
+}
+
+/**
+ * Saves an opened programme package on the patient's phone: the programme record (keeping its id,
+ * so a re-sent or corrected programme merges by id) and, the first time, a Device record for the
+ * phone. Writes go through the store's ordinary import (validated, merged, audited). The phone
+ * writes as itself under the clinician who issued the programme. Throws ProgrammeTransferError
+ * ForeignPatient when the phone follows another patient, or holds any record of another patient.
+ */
+export async function acceptProgrammePackage(
+  store: KinnoteStore,
+  pkg: OpenedProgrammePackage,
+  options: { now: () => number; platform: string | null },
+): Promise<{ merge: MergeReport; profile: DeviceProfile }> {
+  const profile = await readDeviceProfile(store);
+  if (profile?.mode !== 'patient') throw new StoreError('ValidationFailed', 'this device is not a patient\'s phone');
+  if (profile.patientId !== null && profile.patientId !== pkg.patient.id) {
+    throw new ProgrammeTransferError('ForeignPatient', `This programme is for ${pkg.patient.code}, and this phone follows another person's programme. It was refused; nothing was saved.`);
+  }
+  const others = [
+    ...(await store.patients.list({ includeDeleted: true })).map((p) => p.id),
+    ...(await store.homeProgrammes.list({ includeDeleted: true })).map((p) => p.patientId),
+    ...(await store.adherenceEntries.list({ includeDeleted: true })).map((p) => p.patientId),
+    ...(await store.selfReports.list({ includeDeleted: true })).map((p) => p.patientId),
+  ].filter((id) => id !== pkg.patient.id);
+  if (others.length > 0) {
+    throw new ProgrammeTransferError('ForeignPatient', 'This phone holds records of another person, so it cannot take this programme. Nothing was saved.');
+  }
+  const deviceId = profile.deviceId ?? store.context.newId();
+  await store.setActor({ deviceId, clinicianId: pkg.programme.clinicianId });
+  const at = new Date(options.now()).toISOString();
+  const devices: Device[] = [];
+  if (profile.deviceId === null) {
+    devices.push({ id: deviceId, createdAt: at, updatedAt: at, deviceId, clinicianId: pkg.programme.clinicianId, deleted: false, name: `Home phone of ${pkg.patient.code}`, platform: options.platform });
+  }
+  const bundle = await createBundle(
+    { devices, homeProgrammes: [pkg.programme] },
+    {
+      format: BUNDLE_FORMAT,
+      formatVersion: BUNDLE_FORMAT_VERSION,
+      schemaVersion: LATEST_SCHEMA_VERSION,
+      exportedAt: pkg.issuedAt,
+      exportedBy: { deviceId: pkg.programme.deviceId, clinicianId: pkg.programme.clinicianId },
+      source: `home programme for ${pkg.patient.code}`,
+      scope: { kind: 'patient', patientId: pkg.patient.id },
+      protectedContent: 'omitted',
+    },
+  );
+  const merge = await importBackup(store, bundle);
+  const next: DeviceProfile = { mode: 'patient', patientId: pkg.patient.id, patientCode: pkg.patient.code, deviceId, currentProgrammeId: pkg.programme.id };
+  await writeDeviceProfile(store, next);
+  return { merge, profile: next };
+}

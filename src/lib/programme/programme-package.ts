@@ -1,0 +1,102 @@
+import * as v from 'valibot';
+import { HomeProgrammeSchema, IdSchema, IsoDateTimeSchema, type HomeProgramme } from '../domain';
+import { canonicalJson } from '../store';
+import type { ExercisePlan } from './exercise-plan';
+import { checkExercisePlan } from './exercise-plan';
+import { programmeToPlan } from './programme-record';
+import { ProgrammeTransferError } from './programme-transfer-error';
+import { openTransfer, sealTransfer, type SealOptions } from './sealed-transfer';
+
+export const PROGRAMME_PACKAGE_FORMAT = 'kinnote-home-programme' as const;
+export const PROGRAMME_PACKAGE_VERSION = 1;
+
+const PatientCodeSchema = v.pipe(v.string(), v.regex(/^[2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4}$/, 'must be a pseudonymous code like K7QM-3XHD'));
+
+/**
+ * What the therapist hands to the patient's phone: one programme of one patient, under the
+ * pseudonymous code. No name, birth year, condition or note of anyone: the patient knows who they
+ * are, and a file that travels through share sheets and chat apps should say as little as it can.
+ * Strict: any other field (another record, another patient) makes the whole package invalid.
+ */
+const PackageSchema = v.strictObject({
+  format: v.literal(PROGRAMME_PACKAGE_FORMAT),
+  formatVersion: v.literal(PROGRAMME_PACKAGE_VERSION),
+  issuedAt: IsoDateTimeSchema,
+  patient: v.strictObject({ id: IdSchema, code: PatientCodeSchema }),
+  programme: HomeProgrammeSchema,
+});
+
+export interface ProgrammePackage {
+  readonly format: typeof PROGRAMME_PACKAGE_FORMAT;
+  readonly formatVersion: number;
+  readonly issuedAt: string;
+  readonly patient: { readonly id: string; readonly code: string };
+  readonly programme: HomeProgramme;
+}
+
+/** A package that passed every check, with its programme read as a plan. */
+export interface OpenedProgrammePackage extends ProgrammePackage {
+  readonly plan: ExercisePlan;
+}
+
+/**
+ * Builds and encrypts a programme package under `code`. Throws ProgrammeTransferError Invalid when
+ * the programme is not this patient's, not a valid record, or has an exercise whose dosage this
+ * app cannot follow (rewrite it in the form first).
+ */
+export async function createProgrammePackage(
+  input: { patient: { id: string; code: string }; programme: HomeProgramme; issuedAt: string },
+  code: string,
+  options: SealOptions,
+): Promise<string> {
+  const body: ProgrammePackage = {
+    format: PROGRAMME_PACKAGE_FORMAT,
+    formatVersion: PROGRAMME_PACKAGE_VERSION,
+    issuedAt: input.issuedAt,
+    patient: { id: input.patient.id, code: input.patient.code },
+    programme: input.programme,
+  };
+  checkPackage(body);
+  return sealTransfer(canonicalJson(body), code, options);
+}
+
+/**
+ * Decrypts and checks a programme package. With `boundPatientId` (the phone already follows a
+ * programme of that patient) a package of anyone else is refused: ForeignPatient. Also throws
+ * WrongCode, Tampered, NotThisKind, Unsupported or Invalid (see ProgrammeTransferError). Writes nothing.
+ */
+export async function openProgrammePackage(text: string, code: string, boundPatientId: string | null = null): Promise<OpenedProgrammePackage> {
+  const parsed = await openTransfer(text, code, 'programme file');
+  const opened = checkPackage(parsed);
+  if (boundPatientId !== null && opened.patient.id !== boundPatientId) {
+    throw new ProgrammeTransferError('ForeignPatient', `This programme is for ${opened.patient.code}, and this phone follows another person's programme. It was refused; nothing was saved.`);
+  }
+  return opened;
+}
+
+function checkPackage(parsed: unknown): OpenedProgrammePackage {
+  const format = (parsed as { format?: unknown } | null)?.format;
+  if (format !== PROGRAMME_PACKAGE_FORMAT) {
+    throw new ProgrammeTransferError('NotThisKind', format === 'kinnote-home-report' ? 'This is a report from a patient\'s phone, not a programme. Import it on the patient\'s page instead.' : 'This is not a Kinnote programme file.');
+  }
+  const version = (parsed as { formatVersion?: unknown }).formatVersion;
+  if (version !== PROGRAMME_PACKAGE_VERSION) {
+    throw new ProgrammeTransferError('Unsupported', `This programme file is version ${JSON.stringify(version)}; this app reads version ${PROGRAMME_PACKAGE_VERSION}. Update the app.`);
+  }
+  const result = v.safeParse(PackageSchema, parsed);
+  if (!result.success) {
+    const issue = result.issues[0];
+    throw new ProgrammeTransferError('Invalid', `This programme file breaks its format at ${v.getDotPath(issue) ?? 'the top'}: ${issue.message}. Nothing was saved.`);
+  }
+  const pkg = result.output as ProgrammePackage;
+  if (pkg.programme.patientId !== pkg.patient.id) {
+    throw new ProgrammeTransferError('ForeignPatient', 'This programme file mixes two people (its programme is not for the patient it names). It was refused; nothing was saved.');
+  }
+  const { plan, unreadable } = programmeToPlan(pkg.programme);
+  if (unreadable.length > 0) {
+    throw new ProgrammeTransferError('Invalid', `Exercise ${unreadable[0]! + 1} has a dosage this app cannot follow; rewrite it in the programme form first.`);
+  }
+  const checked = checkExercisePlan(plan);
+  if (!checked.ok) throw new ProgrammeTransferError('Invalid', `The programme breaks a rule at ${checked.issues[0]!.path}: ${checked.issues[0]!.message}.`);
+  return { ...pkg, plan: checked.plan };
+}

@@ -1,0 +1,44 @@
+import { readDeviceProfile, loadFollowedPlans, loadHomeLog, localDayOf, planRunsOn, type FollowedPlan, type HomeLog } from '$lib/programme';
+import type { KinnoteStore } from '$lib/store';
+
+/** What every patient-mode screen reads: the binding, the plans followed and the tick log. */
+export interface PatientHome {
+  readonly store: KinnoteStore;
+  readonly patientId: string | null;
+  readonly patientCode: string | null;
+  readonly deviceId: string | null;
+  readonly isPatientDevice: boolean;
+  readonly plans: FollowedPlan[];
+  readonly log: HomeLog;
+  readonly logDamaged: boolean;
+  readonly today: string;
+}
+
+/** Today on this phone, as a calendar date in its own time zone. */
+export function localToday(): string {
+  const now = Date.now();
+  return localDayOf(now, new Date(now).getTimezoneOffset());
+}
+
+export async function loadPatientHome(store: KinnoteStore): Promise<PatientHome> {
+  const profile = await readDeviceProfile(store);
+  const patient = profile?.mode === 'patient' ? profile : null;
+  const plans = patient?.patientId ? await loadFollowedPlans(store, patient.patientId) : [];
+  const { log, damaged } = await loadHomeLog(store);
+  return {
+    store,
+    patientId: patient?.patientId ?? null,
+    patientCode: patient?.patientCode ?? null,
+    deviceId: patient?.deviceId ?? null,
+    isPatientDevice: patient !== null,
+    plans,
+    log,
+    logDamaged: damaged,
+    today: localToday(),
+  };
+}
+
+/** The plans that run on `day` (normally one). */
+export function plansOn(plans: readonly FollowedPlan[], day: string): FollowedPlan[] {
+  return plans.filter((p) => planRunsOn(p.plan, day));
+}

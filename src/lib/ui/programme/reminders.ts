@@ -1,0 +1,77 @@
+import { readLocalState, writeLocalState, type KinnoteStore } from '$lib/store';
+
+/** Reminder times of day, "HH:MM" in the phone's own time. */
+export interface ReminderSettings {
+  readonly enabled: boolean;
+  readonly times: string[];
+}
+const KEY = 'local:reminders';
+const TIME = /^([01]\d|2[0-3]):[0-5]\d$/;
+
+export async function loadReminders(store: KinnoteStore): Promise<ReminderSettings> {
+  const saved = (await readLocalState(store, KEY)) as ReminderSettings | undefined;
+  if (saved && typeof saved.enabled === 'boolean' && Array.isArray(saved.times) && saved.times.every((t) => TIME.test(t))) return saved;
+  return { enabled: false, times: ['09:00', '18:00'] };
+}
+
+export async function saveReminders(store: KinnoteStore, settings: ReminderSettings): Promise<void> {
+  await writeLocalState(store, KEY, { enabled: settings.enabled, times: settings.times.filter((t) => TIME.test(t)).sort() });
+}
+
+/** What this browser can do about notifications, in words for the person. */
+export function notificationSupport(): { state: 'unsupported' | 'denied' | 'default' | 'granted'; message: string } {
+  if (typeof Notification === 'undefined') {
+    return { state: 'unsupported', message: 'This browser cannot show reminders. Set an alarm on your phone for your exercise times instead.' };
+  }
+  if (Notification.permission === 'denied') {
+    return { state: 'denied', message: 'Reminders are blocked for Kinnote in this browser\'s settings. Allow notifications there, or set an alarm on your phone.' };
+  }
+  return Notification.permission === 'granted'
+    ? { state: 'granted', message: 'Reminders are allowed.' }
+    : { state: 'default', message: 'Kinnote needs your permission to show reminders.' };
+}
+
+/** Shows one reminder now, through the offline worker when there is one (works in the background on more phones). */
+export async function showReminder(body = 'Time for your home exercises.'): Promise<boolean> {
+  if (typeof Notification === 'undefined' || Notification.permission !== 'granted') return false;
+  try {
+    const registration = await navigator.serviceWorker?.getRegistration();
+    if (registration) {
+      await registration.showNotification('Kinnote', { body, tag: 'kinnote-home-programme', icon: '/icons/icon-192.png' });
+      return true;
+    }
+    new Notification('Kinnote', { body });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+let timers: ReturnType<typeof setTimeout>[] = [];
+
+/**
+ * Sets timers for today's remaining reminder times and again each day after. Browsers only run
+ * them while Kinnote is open or in the background; there is no way for a web page to wake a
+ * closed app without a server, which this app does not use (the page says so).
+ */
+export function scheduleReminders(settings: ReminderSettings, nowMs: () => number = () => Date.now()): void {
+  for (const t of timers) clearTimeout(t);
+  timers = [];
+  if (!settings.enabled) return;
+  for (const time of settings.times) {
+    const [h, m] = time.split(':').map(Number) as [number, number];
+    const arm = () => {
+      const now = new Date(nowMs());
+      const at = new Date(now);
+      at.setHours(h, m, 0, 0);
+      if (at.getTime() <= now.getTime()) at.setDate(at.getDate() + 1);
+      timers.push(
+        setTimeout(() => {
+          void showReminder();
+          arm();
+        }, at.getTime() - now.getTime()),
+      );
+    };
+    arm();
+  }
+}
