@@ -35,6 +35,8 @@ describe('app shell', () => {
       await page.goto('/');
       await expect(page.title()).resolves.toBe('Kinnote');
       await page.getByRole('heading', { level: 1 }).waitFor();
+      // The set-up form appears once the on-device store has opened.
+      await page.getByRole('button', { name: /demo caseload/i }).waitFor();
       expect(await page.getByRole('button', { name: /demo caseload/i }).count()).toBe(1);
       expect(await page.getByText('not a diagnostic device').count()).toBeGreaterThan(0);
       await screenshot(page, `home-${name}`);
