@@ -1,38 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import type { DBCore, DBCoreMutateRequest, Middleware } from 'dexie';
 import { ordinalValue } from '../../../src/lib/domain';
 import { exportBackup, importBackup, StoreError, type KinnoteStore } from '../../../src/lib/store';
 
-import { dumpAll, freshStore, seedPatient } from './store-helpers';
-
-/**
- * Dexie middleware that lets `allowed` mutations through, then fails each one with a DOMException
- * named QuotaExceededError, as a full disk does inside a transaction.
- */
-function quotaFault(allowed: number): Middleware<DBCore> & { armed: boolean } {
-  let count = 0;
-  const fault = {
-    stack: 'dbcore' as const,
-    name: 'quota-fault',
-    armed: false,
-    create(down: DBCore): DBCore {
-      return {
-        ...down,
-        table(name: string) {
-          const table = down.table(name);
-          return {
-            ...table,
-            mutate(req: DBCoreMutateRequest) {
-              if (fault.armed && count++ >= allowed) return Promise.reject(new DOMException('The quota has been exceeded.', 'QuotaExceededError'));
-              return table.mutate(req);
-            },
-          };
-        },
-      };
-    },
-  };
-  return fault;
-}
+import { dumpAll, freshStore, quotaFault, seedPatient } from './store-helpers';
 
 /** A store opened with the fault layer in place (disarmed until `arm`). */
 async function faultyStore(allowed: number) {

@@ -1,33 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import type { DBCore, DBCoreMutateRequest, Middleware } from 'dexie';
 import { ordinalValue } from '../../../src/lib/domain';
 import { saveAssessment, StoreError } from '../../../src/lib/store';
-import { dumpAll, freshStore } from './store-helpers';
+import { dumpAll, freshStore, quotaFault } from './store-helpers';
 
-function failAfter(allowed: number): Middleware<DBCore> & { armed: boolean } {
-  let count = 0;
-  const fault = {
-    stack: 'dbcore' as const,
-    name: 'quota-after',
-    armed: false,
-    create(down: DBCore): DBCore {
-      return {
-        ...down,
-        table(name: string) {
-          const table = down.table(name);
-          return {
-            ...table,
-            mutate(req: DBCoreMutateRequest) {
-              if (fault.armed && count++ >= allowed) return Promise.reject(new DOMException('The quota has been exceeded.', 'QuotaExceededError'));
-              return table.mutate(req);
-            },
-          };
-        },
-      };
-    },
-  };
-  return fault;
-}
 
 async function withPatient(options: Parameters<typeof freshStore>[0] = {}) {
   const store = await freshStore(options);
@@ -75,7 +50,7 @@ describe('saveAssessment', () => {
   });
 
   it('a full disk part-way through leaves nothing half-written', async () => {
-    const fault = failAfter(2);
+    const fault = quotaFault(2);
     const { store, assessment, observations, traces } = await withPatient({ middleware: [fault] });
     const before = await dumpAll(store);
     fault.armed = true;

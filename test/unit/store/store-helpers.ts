@@ -1,4 +1,5 @@
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
+import type { DBCore, DBCoreMutateRequest, Middleware } from 'dexie';
 import { ordinalValue } from '../../../src/lib/domain';
 import { openStore, type KinnoteStore, type OpenStoreOptions } from '../../../src/lib/store';
 
@@ -62,4 +63,33 @@ export async function dumpAll(store: KinnoteStore): Promise<Record<string, unkno
   const out: Record<string, unknown[]> = {};
   for (const table of store.db.tables) out[table.name] = await table.toArray();
   return out;
+}
+
+/**
+ * Dexie middleware that lets `allowed` mutations through once armed, then fails each one with a
+ * DOMException named QuotaExceededError, as a full disk does inside a transaction.
+ */
+export function quotaFault(allowed: number): Middleware<DBCore> & { armed: boolean } {
+  let count = 0;
+  const fault = {
+    stack: 'dbcore' as const,
+    name: 'quota-fault',
+    armed: false,
+    create(down: DBCore): DBCore {
+      return {
+        ...down,
+        table(name: string) {
+          const table = down.table(name);
+          return {
+            ...table,
+            mutate(req: DBCoreMutateRequest) {
+              if (fault.armed && count++ >= allowed) return Promise.reject(new DOMException('The quota has been exceeded.', 'QuotaExceededError'));
+              return table.mutate(req);
+            },
+          };
+        },
+      };
+    },
+  };
+  return fault;
 }
