@@ -160,3 +160,62 @@ export const storeChecks = {
 };
 
 (globalThis as unknown as { storeChecks: typeof storeChecks }).storeChecks = storeChecks;
+
+/**
+ * Fills the app's own database (already set up on this device) with `count` invented patients, each
+ * with one assessment and two Modified Ashworth grades, for the large-caseload test.
+ */
+export async function fillCaseload(count: number): Promise<{ patients: number; seconds: number }> {
+  const start = performance.now();
+  const store = await openStore({ idleTimeoutMs: null });
+  const alphabet = '23456789ABCDEFGHJKMNPQRSTVWXYZ';
+  const code = (i: number) => {
+    let s = '';
+    let n = i + 30 ** 7;
+    for (let k = 0; k < 8; k++) {
+      s = alphabet[n % 30] + s;
+      n = Math.floor(n / 30);
+    }
+    return `${s.slice(0, 4)}-${s.slice(4)}`;
+  };
+  for (let first = 0; first < count; first += 1000) {
+    const patients = await store.patients.createMany(
+      Array.from({ length: Math.min(1000, count - first) }, (_, j) => ({
+        code: code(first + j),
+        birthYear: 1940 + ((first + j) % 60),
+        condition: 'stroke' as const,
+        affectedSides: ['left' as const],
+        status: 'active' as const,
+      })),
+    );
+    const assessments = await store.assessments.createMany(
+      patients.map((p, j) => ({
+        patientId: p.id,
+        assessorId: store.actor!.clinicianId,
+        performedAt: new Date(Date.UTC(2026, 0, 1 + ((first + j) % 300), 10)).toISOString(),
+        setting: 'home' as const,
+        conditions: { position: null, minutesSinceMedication: null, painNrs: null },
+        notes: null,
+      })),
+    );
+    await store.observations.createMany(
+      assessments.flatMap((a, j) =>
+        ['elbow-flexors', 'knee-extensors'].map((siteCode) => ({
+          patientId: a.patientId,
+          assessmentId: a.id,
+          takenAt: a.performedAt,
+          measureCode: 'mas',
+          siteCode,
+          side: 'left' as const,
+          mode: null,
+          instrument: null,
+          value: ordinalValue('mas', ['1', '1+', '2'][(first + j) % 3] as string),
+          traceId: null,
+        })),
+      ),
+    );
+  }
+  store.close();
+  return { patients: count, seconds: (performance.now() - start) / 1000 };
+}
+(globalThis as unknown as { fillCaseload: typeof fillCaseload }).fillCaseload = fillCaseload;

@@ -1,0 +1,51 @@
+// A caseload of 5,000 patients: the list stays virtual (a few dozen rows in the page), scrolls to the
+// last patient, and filters by search.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { bundleForPage } from './bundle-for-page';
+import { setUpDevice } from './app-helpers';
+import { launchChromium, newAppContext, phone, screenshot } from './harness';
+
+let browser: Browser;
+let bundle: string;
+beforeAll(async () => {
+  bundle = await bundleForPage('test/e2e/in-page/store-checks.ts', 'kinnoteStoreChecks');
+  browser = await launchChromium();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe('caseload with 5,000 patients', () => {
+  it('renders only the rows in view, scrolls to the end and searches', async () => {
+    const context = await newAppContext(browser, { viewport: phone });
+    const page = await context.newPage();
+    await setUpDevice(page, { demo: false });
+    await page.addScriptTag({ content: bundle });
+    const filled = (await page.evaluate(() => (globalThis as unknown as { fillCaseload: (n: number) => Promise<unknown> }).fillCaseload(5000))) as { patients: number; seconds: number };
+    expect(filled.patients).toBe(5000);
+
+    const started = Date.now();
+    await page.goto('/patients');
+    await page.getByText('5000 of 5000 patients').waitFor({ timeout: 60_000 });
+    const shownAfterMs = Date.now() - started;
+    console.log(`caseload of 5,000: filled in ${filled.seconds.toFixed(1)} s, listed ${shownAfterMs} ms after navigation`);
+    const rendered = await page.locator('ul[aria-label="Patients"] > li').count();
+    expect(rendered).toBeGreaterThan(5);
+    expect(rendered).toBeLessThan(60);
+
+    // Scroll to the bottom: the last row (posinset 5000) is rendered, the first is gone.
+    await page.locator('.viewport').evaluate((el) => el.scrollTo(0, el.scrollHeight));
+    await page.locator('li[aria-posinset="5000"]').waitFor();
+    expect(await page.locator('li[aria-posinset="1"]').count()).toBe(0);
+    expect(await page.locator('ul[aria-label="Patients"] > li').count()).toBeLessThan(60);
+    await screenshot(page, 'caseload-5000-phone');
+
+    // The first code made by fillCaseload is 3222-2222; its prefix matches the first 30 patients only.
+    await page.getByLabel(/Search by code/).fill('3222-222');
+    await page.getByText('30 of 5000 patients').waitFor();
+    expect(await page.locator('a.row .code', { hasText: '3222-2222' }).count()).toBe(1);
+    for (const code of await page.locator('a.row .code').allTextContents()) expect(code.startsWith('3222-222')).toBe(true);
+    await context.close();
+  });
+});
