@@ -19,16 +19,22 @@ export interface SampleTiming {
 export function uniformSampleRate(timeS: Float64Array): SampleTiming {
   const n = timeS.length;
   if (n < 2) return { rateHz: Number.NaN, maxIntervalS: Number.NaN, maxJitter: Number.NaN };
-  const intervals = new Float64Array(n - 1);
   let maxIntervalS = 0;
+  let minIntervalS = Infinity;
   for (let i = 1; i < n; i++) {
     const dt = timeS[i] - timeS[i - 1];
-    intervals[i - 1] = dt;
     if (dt > maxIntervalS) maxIntervalS = dt;
+    if (dt < minIntervalS) minIntervalS = dt;
   }
-  let minIntervalS = Infinity;
-  for (let i = 0; i < n - 1; i++) if (intervals[i] < minIntervalS) minIntervalS = intervals[i];
-  const medianS = medianInPlace(intervals);
+  // Regular clocks (the common case) need no selection: every interval is the median to rounding.
+  let medianS: number;
+  if (maxIntervalS - minIntervalS <= 1e-9 * maxIntervalS + 1e-12) {
+    medianS = (timeS[n - 1] - timeS[0]) / (n - 1);
+  } else {
+    const intervals = new Float64Array(n - 1);
+    for (let i = 1; i < n; i++) intervals[i - 1] = timeS[i] - timeS[i - 1];
+    medianS = medianInPlace(intervals);
+  }
   let rateHz = 1 / medianS;
   const whole = Math.round(rateHz);
   if (whole > 0 && Math.abs(rateHz - whole) <= 0.005 * rateHz) rateHz = whole;
