@@ -7,6 +7,7 @@ import { analyseMotionRecording, parseMotionCsv } from '../../src/lib/sensors';
 import { mulberry32, reflexForSeverity, simulatePendulum } from '../reference/pendulum/simulator';
 import { axisAngle, deviceMotionFromSwing, multiply, randomRotation, SHIN_SCREEN_OUT, staticDeviceMotion, typicalPhoneErrors, NO_ERRORS } from '../reference/sensors/device-motion-simulator';
 import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
+import { openFirstPatient, setUpDevice } from './app-helpers';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -182,6 +183,39 @@ describe('phone inclinometer', () => {
     await screenshot(page, 'sensors-inclinometer-360');
     await page.setViewportSize(tablet);
     await screenshot(page, 'sensors-inclinometer-1024');
+    await context.close();
+  });
+
+  it('saves the phone reading to a patient: range of motion with instrument "phone sensor", shown on the patient page', async () => {
+    const toTable = (o: Float64Array) => {
+      const st = staticDeviceMotion(o, 0.5, { rateHz: RATE_HZ, errors: { ...NO_ERRORS, accNoiseMs2: 0.03, gyroNoiseDps: 0.1 }, seed: 5 });
+      return Array.from(st.timeMs, (_, i) => [st.rateAlphaDps[i], st.rateBetaDps[i], st.rateGammaDps[i], st.accXMs2[i], st.accYMs2[i], st.accZMs2[i]]);
+    };
+    const context = await newAppContext(browser, { viewport: smallPhone });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    const patientPath = await openFirstPatient(page);
+    await page.getByRole('link', { name: 'Phone inclinometer' }).click();
+    await page.getByRole('button', { name: 'Start sensors' }).waitFor();
+    await startDispatch(page, toTable(SHIN_SCREEN_OUT), 0);
+    await release(page);
+    await page.getByRole('button', { name: 'Start sensors' }).click();
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    await page.getByRole('button', { name: 'Set zero' }).click();
+    await setTable(page, toTable(multiply(axisAngle(0, 1, 0, 95), SHIN_SCREEN_OUT)));
+    await page.waitForTimeout(1300);
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    await page.getByRole('button', { name: 'Measure end position' }).click();
+    await page.getByRole('combobox', { name: /Motion/ }).selectOption('knee-flexion');
+    await page.getByRole('radio', { name: 'Right' }).check();
+    await page.getByRole('button', { name: 'Save to patient record' }).click();
+    const saved = await page.getByText(/^Saved [\d.]+° to the patient's record\.$/).textContent();
+    const angle = Number(/Saved ([\d.]+)°/.exec(saved ?? '')?.[1]);
+    expect(Math.abs(angle - 95)).toBeLessThan(1);
+    await page.goto(patientPath);
+    const card = page.locator('ul.series > li', { hasText: 'Right knee flexion (passive) · Range of motion' });
+    await card.waitFor();
+    expect(await card.textContent()).toContain(`${angle}°`);
     await context.close();
   });
 });
