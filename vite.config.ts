@@ -59,16 +59,6 @@ export default defineConfig({
           name: 'unit',
           environment: 'node',
           include: ['test/unit/**/*.test.ts', 'test/reference/**/*.test.ts'],
-          exclude: ['test/unit/**/*.dom.test.ts'],
-        },
-      },
-      {
-        extends: true,
-        resolve: { conditions: ['browser'] },
-        test: {
-          name: 'dom',
-          environment: 'happy-dom',
-          include: ['test/unit/**/*.dom.test.ts'],
         },
       },
       {

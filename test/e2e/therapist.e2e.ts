@@ -153,6 +153,25 @@ describe('therapist on a home visit', () => {
     await context.close();
   });
 
+  it('deletes an assessment (a tombstone) and brings it back with Undo', async () => {
+    const context = await newAppContext(browser, { viewport: phone });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    await openFirstPatient(page);
+    const items = page.locator('section[aria-labelledby="assessments-title"] ol.timeline > li');
+    const before = await items.count();
+    expect(before).toBeGreaterThan(1);
+    const firstText = await items.first().locator('time').textContent();
+    page.once('dialog', (d) => void d.accept());
+    await items.first().getByRole('button', { name: /^Delete the assessment of/ }).click();
+    await page.getByText(/^Deleted the assessment of/).waitFor();
+    await expect.poll(() => items.count()).toBe(before - 1);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect.poll(() => items.count()).toBe(before);
+    expect(await items.first().locator('time').textContent()).toBe(firstText);
+    await context.close();
+  });
+
   it('every page has no serious or critical axe-core violation and no sideways overflow, at phone and tablet size (screenshots written)', async () => {
     const context = await newAppContext(browser, { viewport: tablet });
     const page = await context.newPage();

@@ -30,3 +30,4 @@ export { requestPersistentStorage, storageUsage, type StorageManagerLike } from 
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { readLocalState, writeLocalState } from './local-state';
+export { setAssessmentDeleted } from './assessment-tombstone';
