@@ -41,12 +41,16 @@ export function changeHistogram(input: ChangeDistributionInput): { centres: Floa
 
 export function changeDistributionOptions(input: ChangeDistributionInput, width: number, height: number): uPlot.Options {
   const bars = uPlot.paths.bars?.({ size: [0.9, 60] });
+  // The x range is the bins' own (uPlot's automatic range goes astray for a single bin).
+  const { centres, width: binWidth } = changeHistogram(input);
+  const xRange: [number, number] =
+    centres.length === 0 ? [-1, 1] : [(centres[0] as number) - binWidth / 2, (centres[centres.length - 1] as number) + binWidth / 2];
   return {
     width,
     height,
     legend: { show: false },
     cursor: { drag: { x: false, y: false } },
-    scales: { x: { time: false }, y: { range: (_u, _min, max) => [0, Math.max(1, max) * 1.15] } },
+    scales: { x: { time: false, range: () => xRange }, y: { range: (_u, _min, max) => [0, Math.max(1, max) * 1.15] } },
     axes: [
       { stroke: chartColours.axis, grid: { stroke: chartColours.grid }, values: (_u, splits) => splits.map((s) => `${+s.toFixed(2)}${input.unitLabel}`) },
       { stroke: chartColours.axis, grid: { stroke: chartColours.grid }, size: 40, values: (_u, splits) => splits.map((s) => (Number.isInteger(s) ? String(s) : '')) },

@@ -1,5 +1,5 @@
 import { errorReference, referenceMdc95, type Instrument, type Observation } from '../domain';
-import { changeVerdict, cohortChangeSummary, type ChangeVerdict, type CohortChangeSummary, type MdcProvenance } from '../stats';
+import { changeVerdict, cohortChangeSummary, ORDINAL_STEP_MDC, type ChangeVerdict, type CohortChangeSummary, type MdcProvenance } from '../stats';
 import { CohortExportError } from './cohort-export-error';
 import type { LocalMdc } from './cohort-types';
 import { measureQuantities, type MeasureQuantity } from './measure-quantities';
@@ -92,7 +92,8 @@ function localFor(list: readonly LocalMdc[], measureCode: string, siteCode: stri
  * The MDC is, in order: a local value from `options.localMdc` (site-specific before measure-wide),
  * else the catalogue's published reference for the measure's primary quantity (referenceMdc95,
  * with the group's one instrument, or none when mixed, and 'same-rater' only when every pair kept
- * its assessor), else none, with the catalogue's reason. Cost O(n log n) per group.
+ * its assessor), else for ordinal grades one whole grade step (ORDINAL_STEP_MDC, common practice, said
+ * in its citation), else none, with the catalogue's reason. Cost O(n log n) per group.
  * Throws CohortExportError for a local MDC that is not positive and finite.
  */
 export function summariseCohort(cohort: Cohort, options: SummariseOptions = {}): CohortSummary {
@@ -136,6 +137,9 @@ export function summariseCohort(cohort: Cohort, options: SummariseOptions = {}):
             source: 'reference',
             citation: `${f.source}; ${f.statistic} ${f.low === f.high ? f.high : `${f.low}–${f.high} (upper end used)`}${reference.convertedFromSem ? ' × 1.96·√2' : ''}; ${f.status}`,
           };
+        } else if (s.measure.kind === 'ordinal') {
+          // The same convention as a patient's verdicts (outcomeSeries): one whole grade step.
+          mdc = ORDINAL_STEP_MDC;
         }
       }
       if (!mdc) {

@@ -1,3 +1,4 @@
+import { ORDINAL_STEP_MDC } from '../../../src/lib/stats';
 import { describe, expect, it } from 'vitest';
 import { quantile as ssQuantile, median as ssMedian } from 'simple-statistics';
 import { generateDemoScenario } from '../../../src/lib/demo';
@@ -72,15 +73,18 @@ describe('summariseCohort', () => {
     expect(checked).toBeGreaterThan(5);
   });
 
-  it('ordinal Modified Ashworth changes are whole grade steps (rank differences), with no catalogue MDC', () => {
+  it('ordinal Modified Ashworth changes are whole grade steps, judged by one whole step (common practice, no catalogue MDC)', () => {
     const masGroups = summary.groups.filter((g) => g.measureCode === 'mas');
     expect(masGroups.length).toBeGreaterThan(0);
     for (const g of masGroups) {
       expect(g.quantity.changeUnit).toBe('grade steps');
       for (const c of g.changes) expect(Number.isInteger(c)).toBe(true);
-      expect(g.mdc).toBeNull();
-      expect(g.mdcNote).toMatch(/ordinal/);
-      expect(g.summary.improvedBeyondMdc).toBeNull();
+      expect(g.mdc).toBe(ORDINAL_STEP_MDC);
+      expect(g.mdc?.citation).toMatch(/common practice/);
+      expect(g.mdcNote).toBeNull();
+      // Lower grades are better: improved = fell by at least one whole step.
+      const improved = Array.from(g.changes).filter((c) => c <= -1).length;
+      expect(g.summary.improvedBeyondMdc?.count).toBe(improved);
     }
   });
 });
