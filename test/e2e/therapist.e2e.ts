@@ -153,6 +153,24 @@ describe('therapist on a home visit', () => {
     await context.close();
   });
 
+  it('a tap on a progress chart at 360 px shows the date and value (touch tooltip)', async () => {
+    const context = await newAppContext(browser, { viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    await openFirstPatient(page);
+    const card = page.locator('ul.series > li', { hasText: 'Modified Ashworth' }).first();
+    await card.getByRole('button', { name: 'Show chart' }).tap();
+    const plot = card.locator('.u-over');
+    await plot.waitFor();
+    const box = (await plot.boundingBox())!;
+    await page.touchscreen.tap(box.x + box.width - 4, box.y + box.height / 2);
+    const tip = card.locator('.tip');
+    await tip.waitFor();
+    expect(await tip.textContent()).toMatch(/\d{4}\n(0|1\+?|2|3|4)$/);
+    await card.screenshot({ path: 'test-output/screenshots/progress-chart-touch-360.png' });
+    await context.close();
+  });
+
   it('deletes an assessment (a tombstone) and brings it back with Undo', async () => {
     const context = await newAppContext(browser, { viewport: phone });
     const page = await context.newPage();
