@@ -171,6 +171,32 @@ describe('therapist on a home visit', () => {
     await context.close();
   });
 
+  it('reads a reliability table from CSV (Shrout & Fleiss 1979 example: ICC(2,1) = .29), and an adopted local MDC drives the verdicts', async () => {
+    const context = await newAppContext(browser, { viewport: tablet });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Reliability' }).click();
+    await page.getByRole('heading', { name: 'Reliability studies' }).waitFor();
+    await page.getByLabel(/Or read a CSV/).setInputFiles('test/fixtures/stats/shrout-fleiss-table2.csv');
+    await page.getByText(/Read 6 subjects × 4 columns/).waitFor();
+    // Shrout & Fleiss (1979) Table 4, as reproduced by psych/DescTools: ICC(2,1) = .290 (REFERENCES.md §1c, VERIFIED).
+    expect(await page.locator('p.live').textContent()).toMatch(/ICC\(2,1\) 0\.290 \(95 % CI 0\.019 to 0\.761\)/);
+
+    // The demo's own study: adopt its MDC; the ankle dorsiflexion verdicts then say they used it.
+    const study = page.locator('article.study', { hasText: 'Ankle dorsiflexion' });
+    const mdcText = (await study.locator('p.numbers strong').nth(1).textContent()) as string;
+    await study.getByRole('button', { name: 'Use this MDC for verdicts' }).click();
+    await study.getByText(/In use for verdicts since/).waitFor();
+    await openFirstPatient(page, { inApp: true });
+    const card = page.locator('ul.series > li', { hasText: 'ankle dorsiflexion' }).first();
+    await card.waitFor();
+    // The study page rounds to 0.1°, the patient page to 0.01°.
+    const shownMdc = /MDC([\d.]+)° \(local\)/.exec((await card.locator('dl.numbers').textContent()) ?? '')?.[1];
+    expect(Number(shownMdc).toFixed(1)).toBe(mdcText.replace('°', ''));
+    expect(await card.locator('p.verdict').textContent()).toMatch(/local reliability study: Ankle dorsiflexion, two raters/);
+    await context.close();
+  });
+
   it('deletes an assessment (a tombstone) and brings it back with Undo', async () => {
     const context = await newAppContext(browser, { viewport: phone });
     const page = await context.newPage();
