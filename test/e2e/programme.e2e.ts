@@ -146,6 +146,11 @@ describe('home programme hand-off, offline, between two devices', () => {
     await p.getByRole('button', { name: 'This is my own phone: I follow a home programme' }).click();
     await p.getByText('No programme on this phone yet').waitFor();
     expect(await p.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()).toEqual(['Today', 'My week', 'How I feel', 'Send report', 'Reminders']);
+    // Therapist pages are not reachable on the patient's phone, even by address.
+    for (const path of ['/settings', '/patients', '/cohort']) {
+      await p.goto(path);
+      await p.waitForURL(/\/home-programme$/);
+    }
     await p.getByRole('link', { name: 'Get my programme' }).click();
     await p.getByRole('heading', { name: 'Get my programme' }).waitFor();
     await lookAt(p, 'receive');
