@@ -1,6 +1,6 @@
 import { readFile, writeFile } from 'node:fs/promises';
 import { basename, resolve } from 'node:path';
-import type { PendulumIndices } from '../../lib/pendulum/index';
+import { forJson } from './pendulum';
 import { analyseMotionRecording, formatAngleTraceCsv, MotionInputError, parseMotionCsv } from '../../lib/sensors/index';
 import { parseOptions, RefusedInput, type CliCommand } from '../command';
 
@@ -58,13 +58,3 @@ export const motionCommand: CliCommand = {
     return 0;
   },
 };
-
-// Same shaping as the pendulum command's output (duplicated: that module does not export it).
-function forJson(indices: PendulumIndices): PendulumIndices {
-  return JSON.parse(JSON.stringify(indices, (_key, value: unknown) => (typeof value === 'number' ? roundForPrint(value) : value))) as PendulumIndices;
-}
-
-function roundForPrint(x: number): number | null {
-  if (!Number.isFinite(x)) return null;
-  return Math.round(x * 1e4) / 1e4;
-}

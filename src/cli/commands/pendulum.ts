@@ -1,6 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import { basename, resolve } from 'node:path';
 import { analysePendulumCsv, PendulumInputError, type PendulumIndices } from '../../lib/pendulum/index';
+import { csvRow } from '../../lib/export/index';
 import { parseOptions, RefusedInput, type CliCommand } from '../command';
 
 const usage = `kinnote pendulum FILE.csv [FILE.csv ...] [--csv] [--start-angle DEG] [--emg-k K]
@@ -102,8 +103,11 @@ function numberOption(value: string | undefined, name: string, min: number, max:
   return x;
 }
 
-/** Rounds numbers for printing (6 significant decimals are far below any measurement error). */
-function forJson(indices: PendulumIndices): PendulumIndices {
+/**
+ * The indices as printed by `kinnote pendulum` and `kinnote motion`: numbers rounded to 4 decimals
+ * (far below any measurement error), non-finite numbers as null.
+ */
+export function forJson(indices: PendulumIndices): PendulumIndices {
   return JSON.parse(JSON.stringify(indices, (_key, value: unknown) => (typeof value === 'number' ? roundForPrint(value) : value))) as PendulumIndices;
 }
 
@@ -113,14 +117,14 @@ function roundForPrint(x: number): number | null {
 }
 
 function toCsv(outcomes: readonly Outcome[]): string {
-  const rows = [['file', 'status', 'reason', ...CSV_COLUMNS]];
+  const rows: Array<Array<string | number | boolean | null>> = [['file', 'status', 'reason', ...CSV_COLUMNS]];
   for (const o of outcomes) {
     if ('reason' in o) {
       rows.push([o.file, 'refused', o.reason, ...CSV_COLUMNS.map(() => '')]);
       continue;
     }
     const x = o.indices;
-    const cell = (column: (typeof CSV_COLUMNS)[number]): string => {
+    const cell = (column: (typeof CSV_COLUMNS)[number]): string | number | boolean | null => {
       switch (column) {
         case 'fitAmplitudeDeg':
           return numberCell(x.fit.amplitudeDeg);
@@ -131,28 +135,23 @@ function toCsv(outcomes: readonly Outcome[]): string {
         case 'fitR2':
           return numberCell(x.fit.r2);
         case 'fitConverged':
-          return String(x.fit.converged);
+          return x.fit.converged;
         case 'emgBurstCount':
           return x.emg ? String(x.emg.bursts.length) : '';
         case 'warnings':
           return x.warnings.join('; ');
         default: {
           const value = x[column];
-          return typeof value === 'number' ? numberCell(value) : value === null ? '' : String(value);
+          return typeof value === 'number' ? numberCell(value) : value === null ? null : String(value);
         }
       }
     };
     rows.push([o.file, 'ok', '', ...CSV_COLUMNS.map(cell)]);
   }
-  return `${rows.map((r) => r.map(quoteField).join(',')).join('\r\n')}\r\n`;
+  // csvRow: RFC 4180 quoting and formula neutralising, shared with every other CSV Kinnote writes.
+  return rows.map((r) => csvRow(r)).join('');
 }
 
-function numberCell(x: number | null): string {
-  const rounded = x === null ? null : roundForPrint(x);
-  return rounded === null ? '' : String(rounded);
-}
-
-/** RFC 4180: quote a field holding a comma, a double quote or a line break; double inner quotes. */
-function quoteField(field: string): string {
-  return /[",\r\n]/.test(field) ? `"${field.replace(/"/g, '""')}"` : field;
+function numberCell(x: number | null): number | null {
+  return x === null ? null : roundForPrint(x);
 }
