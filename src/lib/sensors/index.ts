@@ -10,4 +10,6 @@ export {
   type MotionSourceCallbacks,
   type PermissionOutcome,
 } from './device-motion-source';
-export { pendulumObservations, romObservation, motionTraceChannels, saveSensorMeasurement, type SensorSaveStore, type SensorSaveInput } from './save-sensor-measurement';
+// The pendulum measures are built by the engine's own helper, for a file or a phone recording alike.
+export { pendulumObservations } from '../pendulum';
+export { romObservation, motionTraceChannels, saveSensorMeasurement, type SensorSaveStore, type SensorSaveInput } from './save-sensor-measurement';

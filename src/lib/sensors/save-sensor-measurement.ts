@@ -1,8 +1,7 @@
 // Turns a sensor measurement into record inputs (observations, a trace) and saves them through an
 // atomic save function (the store's saveAssessment). Kept structural (no import of the store) so that the
 // sensors folder depends on the domain only, and so it can be tested against the real store in Node.
-import { findMeasure, findSite, type Assessment, type Observation, type RecordInput, type Side, type Trace } from '../domain';
-import type { PendulumIndices } from '../pendulum';
+import { type Assessment, type Observation, type RecordInput, type Side, type Trace } from '../domain';
 import type { MotionRecording } from './signal';
 
 type ObservationInput = RecordInput<Observation>;
@@ -87,32 +86,6 @@ interface ObservationContext {
   readonly takenAt: string;
   readonly side: Side;
   readonly traceId: string | null;
-}
-
-/**
- * The five pendulum measures of the catalogue from the engine's indices. A value that is not finite
- * or lies outside the catalogue's limits is left out and named in `skipped` (never clamped).
- */
-export function pendulumObservations(indices: PendulumIndices, ctx: ObservationContext): { observations: ObservationInput[]; skipped: string[] } {
-  const candidates: Array<[string, ObservationInput['value'], number]> = [
-    ['pendulum-ri', { kind: 'index', value: indices.relaxationIndex }, indices.relaxationIndex],
-    ['pendulum-ri-normalised', { kind: 'index', value: indices.normalizedRelaxationIndex }, indices.normalizedRelaxationIndex],
-    ['pendulum-first-swing', { kind: 'angle', angleDeg: indices.a1Deg }, indices.a1Deg],
-    ['pendulum-resting-angle', { kind: 'angle', angleDeg: indices.restAngleDeg }, indices.restAngleDeg],
-    ['pendulum-swing-count', { kind: 'count', value: indices.peakCount }, indices.peakCount],
-  ];
-  const observations: ObservationInput[] = [];
-  const skipped: string[] = [];
-  for (const [code, value, x] of candidates) {
-    const measure = findMeasure(code);
-    const limits = measure && measure.kind !== 'ordinal' && measure.kind !== 'tardieu' ? (findSite(measure, 'knee')?.limits ?? measure.limits) : null;
-    if (!Number.isFinite(x) || !limits || x < limits.min || x > limits.max) {
-      skipped.push(`${measure?.label ?? code}: ${Number.isFinite(x) ? x.toFixed(2) : 'not measurable'} is outside what the record accepts`);
-      continue;
-    }
-    observations.push({ ...ctx, measureCode: code, siteCode: 'knee', mode: null, instrument: null, value });
-  }
-  return { observations, skipped };
 }
 
 /** One range-of-motion observation measured with the phone (measure 'rom', instrument 'phone-sensor'). */
