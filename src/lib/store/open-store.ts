@@ -5,6 +5,7 @@ import { DEFAULT_KDF_ITERATIONS, cryptoRandomBytes } from './crypto-box';
 import { IdentityRepository, ObservationRepository, Repository } from './repository';
 import { LATEST_SCHEMA_VERSION, declareSchema } from './schema';
 import { auditEntry, type Actor, type StoreContext } from './store-context';
+import { installedNativeVersion } from './installed-version';
 import { StoreError, toStoreError } from './store-error';
 import { Vault, type Timers, type VaultRecord } from './vault';
 
@@ -86,7 +87,20 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
   const dexieOptions: { indexedDB?: IDBFactory; IDBKeyRange?: typeof IDBKeyRange } = {};
   if (options.indexedDB) dexieOptions.indexedDB = options.indexedDB;
   if (options.IDBKeyRange) dexieOptions.IDBKeyRange = options.IDBKeyRange;
-  const db = new Dexie(options.name ?? 'kinnote', dexieOptions);
+  const name = options.name ?? 'kinnote';
+  const factory = options.indexedDB ?? (globalThis as { indexedDB?: IDBFactory }).indexedDB;
+  if (!factory) throw new StoreError('DatabaseUnavailable', 'opening the database: IndexedDB is not available in this browser');
+  let installed: number;
+  try {
+    installed = await installedNativeVersion(factory, name);
+  } catch (error) {
+    throw toStoreError(error, 'opening the database');
+  }
+  // Dexie stores version × 10 in IndexedDB. Refuse a newer database before Dexie can patch it.
+  if (installed / 10 > LATEST_SCHEMA_VERSION) {
+    throw new StoreError('VersionConflict', `the database on this device is from a newer Kinnote (schema ${installed / 10}, this app knows ${LATEST_SCHEMA_VERSION}); update the app`);
+  }
+  const db = new Dexie(name, dexieOptions);
   declareSchema(db);
   for (const layer of options.middleware ?? []) db.use(layer);
   try {
@@ -94,8 +108,7 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
   } catch (error) {
     throw toStoreError(error, 'opening the database');
   }
-  // Dexie 4 opens a database whose version is above every declared one; this app must not write to it.
-  // Dexie stores version × 10 in IndexedDB.
+  // A newer app may have upgraded the database between the probe and this open (another tab).
   const onDisk = Math.max(db.verno, db.backendDB().version / 10);
   if (onDisk > LATEST_SCHEMA_VERSION) {
     db.close();

@@ -77,5 +77,23 @@ describe('schema migrations', () => {
     await future.open();
     future.close();
     await expect(openStore({ indexedDB: factory, IDBKeyRange })).rejects.toMatchObject({ code: 'VersionConflict' });
+    // The newer database is left exactly as it was: Dexie must not "patch" it with this app's tables
+    // (it would add them and bump the version, printing a SchemaDiff warning).
+    const after = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    await after.open();
+    expect(after.backendDB().version).toBe((LATEST_SCHEMA_VERSION + 5) * 10);
+    expect(Array.from(after.backendDB().objectStoreNames)).toEqual(['meta']);
+    after.close();
+  });
+
+  it('a first open creates the database at the latest version; the version probe creates nothing', async () => {
+    const factory = new IDBFactory();
+    const { installedNativeVersion } = await import('../../../src/lib/store/installed-version');
+    expect(await installedNativeVersion(factory, 'kinnote')).toBe(0);
+    expect((await factory.databases()).map((d) => d.name)).toEqual([]);
+    const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
+    store.close();
+    expect(await installedNativeVersion(factory, 'kinnote')).toBe(LATEST_SCHEMA_VERSION * 10);
   });
 });
