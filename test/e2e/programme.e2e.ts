@@ -7,7 +7,7 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, Download, Page } from 'playwright-core';
 import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
 
 const work = join('test-output', 'programme-e2e');
 let browser: Browser;
@@ -27,14 +27,12 @@ async function savedDownload(page: Page, click: () => Promise<void>, name: strin
 }
 
 /** 200 % text size, as a person with low vision sets it (root font size; the app's rem-based layout follows). */
-async function bigText(page: Page): Promise<void> {
-  await page.addStyleTag({ content: 'html { font-size: 200% !important; }' });
-}
-
 async function lookAt(page: Page, name: string): Promise<void> {
-  await bigText(page);
-  // Nothing may push the page wider than the 360 px phone, even at 200 % text.
-  expect(await page.evaluate(() => document.documentElement.scrollWidth), `${name} width`).toBeLessThanOrEqual(smallPhone.width);
+  // Text at 200 % (the browser's text-size setting) at 360 px: nothing wider than the phone, no control cut off.
+  await setTextScale(page, 2);
+  await waitForSettledPage(page, `the patient's ${name} screen`);
+  expect(await rootFontPx(page), 'text size really doubled').toBe(32);
+  expect((await reflowProblems(page)).join('\n'), `${name} at 360 px with 200 % text`).toBe('');
   await screenshot(page, `programme-patient-${name}`);
   expect(await seriousAxeViolations(page), name).toEqual([]);
 }

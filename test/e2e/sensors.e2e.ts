@@ -42,10 +42,11 @@ const TABLE = Array.from(r.timeMs, (_, i) => [r.rateAlphaDps[i], r.rateBetaDps[i
 async function startDispatch(page: Page, table: number[][], holdRows: number): Promise<void> {
   await page.evaluate(
     ({ table, holdRows, rateHz }) => {
-      const w = window as unknown as { __motion: { release: number | null; table: number[][]; timer: number } };
-      w.__motion = { release: null, table, timer: 0 };
+      const w = window as unknown as { __motion: { release: number | null; table: number[][]; timer: number; sent: number } };
+      w.__motion = { release: null, table, timer: 0, sent: 0 };
       w.__motion.timer = window.setInterval(() => {
         const m = w.__motion;
+        m.sent++;
         const k = m.release === null ? 0 : Math.min(m.table.length - 1, holdRows + Math.floor(((performance.now() - m.release) * rateHz) / 1000));
         const [alpha, beta, gamma, x, y, z] = m.table[k] as number[];
         window.dispatchEvent(
@@ -61,6 +62,19 @@ async function release(page: Page): Promise<void> {
   await page.evaluate(() => {
     (window as unknown as { __motion: { release: number | null } }).__motion.release = performance.now();
   });
+}
+
+/**
+ * Waits until `count` more events have been dispatched (a condition on the data the page received,
+ * not on the clock: a loaded machine that fires the timer late simply waits longer).
+ */
+async function waitForEvents(page: Page, count: number, what: string): Promise<void> {
+  const from = await page.evaluate(() => (window as unknown as { __motion: { sent: number } }).__motion.sent);
+  await page
+    .waitForFunction((target) => (window as unknown as { __motion: { sent: number } }).__motion.sent >= target, from + count, { timeout: 30_000, polling: 50 })
+    .catch((error: unknown) => {
+      throw new Error(`waiting for ${count} more devicemotion events (${what}): ${String(error).split('\n')[0]}`);
+    });
 }
 
 async function setTable(page: Page, table: number[][]): Promise<void> {
@@ -109,7 +123,7 @@ describe('pendulum test with the phone', () => {
     const page = await context.newPage();
     await page.goto('/measure/pendulum');
     await page.getByRole('button', { name: 'Start' }).click();
-    await page.getByRole('alert').filter({ hasText: /no motion sensor is sending data/i }).waitFor({ timeout: 5000 });
+    await page.getByRole('alert').filter({ hasText: /no motion sensor is sending data/i }).waitFor({ timeout: 20_000 });
     expect(await page.getByRole('button', { name: 'Record again' }).count()).toBe(1);
     expect(await seriousAxeViolations(page)).toEqual([]);
     await screenshot(page, 'sensors-pendulum-no-sensor-1024');
@@ -142,7 +156,8 @@ describe('pendulum test with the phone', () => {
     await page.getByRole('button', { name: 'Start' }).click();
     await page.getByText('Recording: let go of the leg now.').waitFor({ timeout: 10_000 });
     await release(page);
-    await page.waitForTimeout(600);
+    // About 0.6 s of swing at the 16 ms event interval.
+    await waitForEvents(page, 38, 'the first part of the swing');
     await page.evaluate(() => {
       Object.defineProperty(document, 'visibilityState', { value: 'hidden', configurable: true });
       document.dispatchEvent(new Event('visibilitychange'));
@@ -170,12 +185,13 @@ describe('phone inclinometer', () => {
     await startDispatch(page, toTable(startOrientation), 0);
     await release(page);
     await page.getByRole('button', { name: 'Start sensors' }).click();
-    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     expect(Number((await page.locator('[data-value="segment"]').textContent())?.replace('°', ''))).toBeCloseTo(90, 0);
     await page.getByRole('button', { name: 'Set zero' }).click();
     await setTable(page, toTable(endOrientation));
-    await page.waitForTimeout(1300);
-    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    // The steadiness window (about 1 s) must refill with the new position: 80 events at 16 ms.
+    await waitForEvents(page, 80, 'the leg held still in the end position');
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await page.getByRole('button', { name: 'Measure end position' }).click();
     const shown = Number((await page.getByLabel('Joint angle').textContent())?.replace('°', ''));
     expect(Math.abs(shown - 72)).toBeLessThan(1);
@@ -200,11 +216,12 @@ describe('phone inclinometer', () => {
     await startDispatch(page, toTable(SHIN_SCREEN_OUT), 0);
     await release(page);
     await page.getByRole('button', { name: 'Start sensors' }).click();
-    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await page.getByRole('button', { name: 'Set zero' }).click();
     await setTable(page, toTable(multiply(axisAngle(0, 1, 0, 95), SHIN_SCREEN_OUT)));
-    await page.waitForTimeout(1300);
-    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 5000 });
+    // The steadiness window (about 1 s) must refill with the new position: 80 events at 16 ms.
+    await waitForEvents(page, 80, 'the leg held still in the end position');
+    await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await page.getByRole('button', { name: 'Measure end position' }).click();
     await page.getByRole('combobox', { name: /Motion/ }).selectOption('knee-flexion');
     await page.getByRole('radio', { name: 'Right' }).check();
