@@ -52,6 +52,9 @@ export type {
 export { MEASURE_CATALOGUE, findMeasure, findSite } from './measure-catalogue';
 export { HYPERMOBILITY_MARGIN_DEG, ROM_SITES } from './rom-motions';
 export { checkObservation, ordinalValue, tardieuValue } from './check-observation';
+export { MAX_AUDIT_SNAPSHOT_CHARS, checkAuditEntry } from './check-audit-entry';
+export { EARLIEST_TIMESTAMP, MAX_CLOCK_SKEW_MS, checkTimestamps } from './timestamp-bounds';
+export { RECORD_REFERENCES, referencedIds, type RecordReference } from './record-references';
 export { SEM_TO_MDC95, errorReference, referenceMdc95, type ReferenceMdc } from './reference-mdc';
 export {
   PROTECTED_TEXT_FIELDS,
@@ -62,3 +65,6 @@ export {
   type RecordTables,
   type TableName,
 } from './record-tables';
+export { decimalProblem, decimalValue, readDecimal, readWholeNumber, type DecimalReading } from './read-decimal';
+export { readCalendarDate } from './read-calendar-date';
+export { withoutByteOrderMark } from './without-byte-order-mark';

@@ -2,6 +2,7 @@ import * as v from 'valibot';
 import { AdherenceEntrySchema } from './adherence-entry';
 import { AssessmentSchema } from './assessment';
 import { AuditEntrySchema } from './audit-entry';
+import { checkAuditEntry } from './check-audit-entry';
 import { checkObservation } from './check-observation';
 import { ClinicianSchema } from './clinician';
 import { DeviceSchema } from './device';
@@ -90,8 +91,10 @@ export function isTableName(name: string): name is TableName {
 }
 
 /**
- * Validates one record of `table`: its schema (valibot), then for observations the measure
- * catalogue. Returns the issues, each with a dot path; never throws. Cost: O(size of the record).
+ * Validates one record of `table`: its schema (valibot), createdAt not after updatedAt, then for
+ * observations the measure catalogue and for audit entries their table name, snapshot size and the
+ * absence of protected text (checkAuditEntry). Returns the issues, each with a dot path; never
+ * throws. Cost: O(size of the record).
  */
 export function validateRecord<K extends TableName>(
   table: K,
@@ -104,11 +107,13 @@ export function validateRecord<K extends TableName>(
       issues: result.issues.map((issue) => ({ path: v.getDotPath(issue) ?? '', message: issue.message })),
     };
   }
-  if (table === 'observations') {
-    const issues = checkObservation(result.output as Observation);
-    if (issues.length > 0) return { ok: false, issues };
-  }
-  return { ok: true, record: result.output as RecordTables[K] };
+  const record = result.output as RecordTables[K];
+  const issues: ValidationIssue[] = [];
+  if (record.createdAt > record.updatedAt) issues.push({ path: 'updatedAt', message: `${record.updatedAt} is before createdAt ${record.createdAt}` });
+  if (table === 'observations') issues.push(...checkObservation(record as Observation));
+  if (table === 'audit') issues.push(...checkAuditEntry(record as AuditEntry, TABLE_NAMES, PROTECTED_TEXT_FIELDS as Record<string, readonly string[]>));
+  if (issues.length > 0) return { ok: false, issues };
+  return { ok: true, record };
 }
 
 /** Like validateRecord, but returns the record or throws DomainValidationError naming the table, id and fields. */

@@ -8,7 +8,10 @@ export const TraceChannelSchema = v.strictObject({
   name: NonEmptyTextSchema(100),
   /** UCUM unit of the samples, e.g. "deg", "rad", "rad/s". */
   unit: NonEmptyTextSchema(40),
-  samples: v.instance(Float64Array),
+  samples: v.pipe(
+    v.instance(Float64Array),
+    v.check((samples) => samples.every(Number.isFinite), 'every sample must be a finite number (no NaN or Infinity)'),
+  ),
 });
 
 /** Raw samples behind an observation (e.g. a pendulum test), stored as typed-array columns. */

@@ -101,7 +101,8 @@ export async function acceptProgrammePackage(
       protectedContent: 'omitted',
     },
   );
-  const merge = await importBackup(store, bundle);
+  // The phone never holds the patient's record: the package vouches for the patient it names.
+  const merge = await importBackup(store, bundle, { knownPatientIds: [pkg.patient.id] });
   const next: DeviceProfile = { mode: 'patient', patientId: pkg.patient.id, patientCode: pkg.patient.code, deviceId, currentProgrammeId: pkg.programme.id };
   await writeDeviceProfile(store, next);
   return { merge, profile: next };

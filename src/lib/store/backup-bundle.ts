@@ -1,5 +1,5 @@
 import * as v from 'valibot';
-import { PROTECTED_TEXT_FIELDS, TABLE_NAMES, validateRecord, type RecordTables, type TableName } from '../domain';
+import { PROTECTED_TEXT_FIELDS, TABLE_NAMES, checkTimestamps, validateRecord, type RecordTables, type TableName } from '../domain';
 import { base64ToFloat64, float64ToBase64 } from './base64';
 import { canonicalJson } from './canonical-json';
 import { sha256Hex } from './crypto-box';
@@ -46,8 +46,15 @@ export function emptyTables(): BundleTables {
   return Object.fromEntries(TABLE_NAMES.map((t) => [t, []])) as unknown as BundleTables;
 }
 
-/** Domain record → bundle form (trace samples to base64). */
+/**
+ * Domain record → bundle form (trace samples to base64). An audit entry loses `importedBy`: that
+ * is the importing device's own note, never carried to another device nor compared in a merge.
+ */
 export function toPortable(table: TableName, record: object): Record<string, unknown> {
+  if (table === 'audit' && 'importedBy' in record) {
+    const { importedBy: _local, ...rest } = record as Record<string, unknown>;
+    return rest;
+  }
   if (table !== 'traces') return record as Record<string, unknown>;
   const trace = record as RecordTables['traces'];
   return {
@@ -116,11 +123,18 @@ const EnvelopeSchema = v.object({
 /**
  * Checks a parsed bundle completely before anything is written: format and version (else
  * UnsupportedBundle), envelope (InvalidBundle), checksum (TamperedBundle), then every record
- * against its schema and the measure catalogue, duplicate ids, and protected text where the bundle
+ * against its schema and the measure catalogue, its stamps against `nowMs` (checkTimestamps: no
+ * later than the clock plus 10 minutes, no earlier than 2000), duplicate ids, the bundle's scope
+ * (a one-patient bundle holds that patient's records only) and protected text where the bundle
  * says it was omitted (InvalidBundle, with issues naming table, index, id and field). Never returns
- * a partly valid bundle.
+ * a partly valid bundle. References between records are checked by checkReferences.
+ *
+ * The checksum is an integrity check, not an authenticity check: it catches damage, but anyone can
+ * recompute it after editing the file. Authenticity comes only from the encrypted form (AES-GCM's
+ * tag under a key derived from the passphrase: only someone who knows it could have written the
+ * file) or from a signature, which plain bundles do not carry.
  */
-export async function verifyBundle(parsed: unknown): Promise<VerifiedBundle> {
+export async function verifyBundle(parsed: unknown, nowMs: number): Promise<VerifiedBundle> {
   if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) {
     throw new StoreError('InvalidBundle', 'not a Kinnote backup: the file is not a JSON object');
   }
@@ -169,6 +183,8 @@ export async function verifyBundle(parsed: unknown): Promise<VerifiedBundle> {
         for (const issue of result.issues) issues.push({ record: where, ...issue });
         continue;
       }
+      for (const issue of checkTimestamps(result.record, nowMs)) issues.push({ record: where, ...issue });
+      for (const issue of scopeIssues(body.scope, table, result.record)) issues.push({ record: where, ...issue });
       if (seen.has(result.record.id)) issues.push({ record: where, path: 'id', message: 'appears twice in this table' });
       seen.add(result.record.id);
       if (omitted) {
@@ -180,8 +196,30 @@ export async function verifyBundle(parsed: unknown): Promise<VerifiedBundle> {
       (tables[table] as unknown[]).push(result.record);
     }
   }
+  if (body.scope.kind === 'patient') {
+    const ids = new Set(TABLE_NAMES.flatMap((t) => (t === 'audit' ? [] : tables[t].map((r) => r.id))));
+    tables.audit.forEach((entry, i) => {
+      if (entry.recordId === null || !ids.has(entry.recordId)) {
+        issues.push({ record: `tables.audit[${i}] (${entry.id})`, path: 'recordId', message: 'a one-patient backup carries only the audit entries of its own records' });
+      }
+    });
+  }
   if (issues.length > 0) {
     throw new StoreError('InvalidBundle', `invalid backup, nothing imported: ${describeIssues(issues)}`, { issues });
   }
   return { header, checksum: checksum.value, tables };
+}
+
+/**
+ * What a one-patient scope allows: patients only that patient, patient-scoped records only theirs,
+ * no reliability studies (they travel only in whole-store backups). Clinicians and devices travel
+ * with any scope (records are stamped with them).
+ */
+function scopeIssues(scope: BundleScope, table: TableName, record: object): { path: string; message: string }[] {
+  if (scope.kind !== 'patient') return [];
+  const r = record as { id: string; patientId?: unknown };
+  if (table === 'patients' && r.id !== scope.patientId) return [{ path: 'id', message: `another patient in a backup of patient ${scope.patientId} only` }];
+  if (table === 'reliabilityStudies') return [{ path: '', message: 'reliability studies travel only in whole-store backups, not in a one-patient backup' }];
+  if (typeof r.patientId === 'string' && r.patientId !== scope.patientId) return [{ path: 'patientId', message: `another patient's record in a backup of patient ${scope.patientId} only` }];
+  return [];
 }

@@ -1,6 +1,7 @@
-import { TABLE_NAMES, type AuditEntry, type RecordBase, type TableName } from '../domain';
+import { TABLE_NAMES, withoutByteOrderMark, type AuditEntry, type RecordBase, type TableName } from '../domain';
 import { toPortable, verifyBundle, type BundleHeader, type VerifiedBundle } from './backup-bundle';
 import { canonicalJson } from './canonical-json';
+import { checkReferences, type OutsideLookup } from './check-references';
 import { decryptBundleText, isEncryptedBundle } from './encrypted-bundle';
 import type { KinnoteStore } from './open-store';
 import { SEALED_MARKER, auditSnapshot } from './rows';
@@ -37,19 +38,32 @@ export interface MergeReport {
   readonly conflicts: readonly MergeConflict[];
 }
 
+export interface ReadBackupOptions {
+  readonly passphrase?: string;
+  /** The reading device's clock (ms since 1970); default the system clock. Stamps later than this plus 10 minutes are refused. */
+  readonly now?: () => number;
+  /** Where references that the bundle does not resolve may point (the store imported into); none: the bundle must be self-contained. */
+  readonly outside?: OutsideLookup;
+  /** Patient ids the caller vouches for although their record is absent (a phone's own patient). */
+  readonly knownPatientIds?: readonly string[];
+}
+
 /**
  * Parses (and, for an encrypted backup, decrypts) backup text or an already parsed value, and
- * verifies it completely (see verifyBundle). Writes nothing.
+ * verifies it completely (verifyBundle, then checkReferences). A leading UTF-8 byte-order mark is
+ * ignored, as browsers do when they read a file as text. Writes nothing.
  */
-export async function readBackup(input: string | unknown, options: { passphrase?: string } = {}): Promise<VerifiedBundle> {
+export async function readBackup(input: string | unknown, options: ReadBackupOptions = {}): Promise<VerifiedBundle> {
   let parsed: unknown = input;
-  if (typeof input === 'string') parsed = parseJson(input, 'backup');
+  if (typeof input === 'string') parsed = parseJson(withoutByteOrderMark(input), 'backup');
   if (isEncryptedBundle(parsed)) {
     if (options.passphrase === undefined) throw new StoreError('WrongPassphrase', 'this backup is encrypted: enter its passphrase');
     const inner = await decryptBundleText(parsed, options.passphrase);
     parsed = parseJson(inner, 'decrypted backup');
   }
-  return verifyBundle(parsed);
+  const bundle = await verifyBundle(parsed, (options.now ?? Date.now)());
+  await checkReferences(bundle.tables, options.outside ?? null, { patientIds: options.knownPatientIds ?? [] });
+  return bundle;
 }
 
 function parseJson(text: string, what: string): unknown {
@@ -73,13 +87,27 @@ interface Planned {
  * one transaction. Absent records are inserted; identical ones left alone; when both sides differ
  * the newer updatedAt wins (equal times: the larger canonical text, so every device settles alike),
  * and each such conflict gets an audit entry (before = local, after = incoming) and a line in the
- * report. Audit entries from the bundle are only ever added. With protected content omitted from
+ * report. Audit entries from the bundle are only ever added, each marked `importedBy` this device.
+ * References must resolve in the bundle or the store (`knownPatientIds`: patients vouched for by
+ * the caller although absent). With protected content omitted from
  * the bundle, local names and notes are kept. A second import of the same bundle writes nothing.
  * Throws StoreError (InvalidBundle, TamperedBundle, UnsupportedBundle, WrongPassphrase, Locked,
  * VersionConflict if the store changed during the import, QuotaExceeded, Aborted).
  */
-export async function importBackup(store: KinnoteStore, input: string | unknown, options: { passphrase?: string } = {}): Promise<MergeReport> {
-  const bundle = await readBackup(input, options);
+export async function importBackup(
+  store: KinnoteStore,
+  input: string | unknown,
+  options: { passphrase?: string; knownPatientIds?: readonly string[] } = {},
+): Promise<MergeReport> {
+  const outside: OutsideLookup = async (table, ids) => {
+    try {
+      const found = (await store.db.table(table).bulkGet([...ids])) as (RecordBase | undefined)[];
+      return new Set(found.filter((r): r is RecordBase => r !== undefined).map((r) => r.id));
+    } catch (error) {
+      throw toStoreError(error, 'reading the store before import');
+    }
+  };
+  const bundle = await readBackup(input, { ...options, now: store.context.now, outside });
   requireActor(store.context);
   const included = bundle.header.protectedContent === 'included';
   const codecs = store.context.codecs;
@@ -103,6 +131,8 @@ export async function importBackup(store: KinnoteStore, input: string | unknown,
   const counts = Object.fromEntries(TABLE_NAMES.map((t) => [t, { inserted: 0, replaced: 0, unchanged: 0, keptLocal: 0 }])) as Record<TableName, TableCounts>;
   const writes: Planned[] = [];
   const checks: Planned[] = [];
+  const at = nextTimestamp(store.context);
+  const importedBy = { deviceId: requireActor(store.context).deviceId, importedAt: at };
   const conflicts: MergeConflict[] = [];
   const conflictAudits: { conflict: MergeConflict; before: Record<string, unknown>; after: Record<string, unknown> }[] = [];
   for (const table of TABLE_NAMES) {
@@ -111,7 +141,9 @@ export async function importBackup(store: KinnoteStore, input: string | unknown,
     for (const record of bundle.tables[table] as RecordBase[]) {
       const current = localRows.get(record.id);
       if (!current) {
-        writes.push({ table, id: record.id, localUpdatedAt: undefined, row: await codec.toRow(record as never) });
+        // An audit entry from a file keeps the author it claims, marked as taken in by this device.
+        const row = table === 'audit' ? { ...toPortable('audit', record), importedBy } : await codec.toRow(record as never);
+        writes.push({ table, id: record.id, localUpdatedAt: undefined, row });
         counts[table].inserted++;
         continue;
       }
@@ -163,7 +195,6 @@ export async function importBackup(store: KinnoteStore, input: string | unknown,
   const report: MergeReport = { header: bundle.header, checksum: bundle.checksum, changed, counts, conflicts };
   if (!changed) return report;
 
-  const at = nextTimestamp(store.context);
   const audits: AuditEntry[] = conflictAudits.map(({ conflict, before, after }) =>
     auditEntry(
       store.context,

@@ -25,7 +25,8 @@ export {
 } from './backup-bundle';
 export { ENCRYPTED_BUNDLE_FORMAT, decryptBundleText, encryptBundleText } from './encrypted-bundle';
 export { exportBackup, exportBackupText, type ExportOptions } from './export-backup';
-export { importBackup, readBackup, type MergeConflict, type MergeReport, type TableCounts } from './import-backup';
+export { importBackup, readBackup, type MergeConflict, type MergeReport, type ReadBackupOptions, type TableCounts } from './import-backup';
+export { checkReferences, type OutsideLookup } from './check-references';
 export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';

@@ -134,6 +134,8 @@ describe('round trip therapist → phone → therapist', () => {
     expect(gathered.selfReports.map((s) => [s.reportedOn, s.spasmFrequencyPenn, s.spasmSeverityNrs])).toEqual([['2025-03-09', 1, 4]]);
     const reportText = await createHomeReport(gathered, RETURN_CODE, sealing);
 
+    // The report reaches the therapist's tablet a week later (its stamps must not be in the tablet's future).
+    Object.assign(t.store.context, { now: steppingClock(Date.UTC(2025, 2, 10, 9)) });
     // A wrong code, a tampered report and a report for another patient's page write nothing.
     const auditBefore = await t.store.audit.count();
     await expect(importHomeReport(t.store, reportText, CODE, t.patient)).rejects.toMatchObject({ code: 'WrongCode' });
