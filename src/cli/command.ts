@@ -1,3 +1,4 @@
+import { readCalendarDate, readDecimal, readWholeNumber } from '../lib/domain';
 /** What every `kinnote` command provides. Commands live in src/cli/commands, one per file. */
 export interface CliIo {
   readonly stdout: (text: string) => void;
@@ -52,4 +53,30 @@ export function parseOptions(
     }
   }
   return { positional, values, switches };
+}
+
+/**
+ * Option readers shared by every command, all on the domain's one number and date reader
+ * (hexadecimal, overflow, impossible dates refused alike). Each returns undefined when the option
+ * was not given and throws RefusedInput naming the option otherwise.
+ */
+export function optionWholeNumber(text: string | undefined, flag: string, min: number, max: number): number | undefined {
+  if (text === undefined) return undefined;
+  const reading = readWholeNumber(text, min, max);
+  if (!reading.ok) throw new RefusedInput(`--${flag} "${text.slice(0, 40)}": ${reading.reason}`);
+  return reading.value;
+}
+
+export function optionDecimal(text: string | undefined, flag: string, min: number, max: number): number | undefined {
+  if (text === undefined) return undefined;
+  const reading = readDecimal(text);
+  if (!reading.ok || reading.value < min || reading.value > max) throw new RefusedInput(`--${flag} "${text.slice(0, 40)}": expected a decimal number from ${min} to ${max}`);
+  return reading.value;
+}
+
+export function optionDate(text: string | undefined, flag: string, earliest = '1900-01-01', latest = '2100-12-31'): string | undefined {
+  if (text === undefined) return undefined;
+  const reading = readCalendarDate(text, earliest, latest);
+  if (!reading.ok) throw new RefusedInput(`--${flag}: ${reading.reason}`);
+  return reading.value;
 }

@@ -1,5 +1,4 @@
 import { randomBytes, webcrypto } from 'node:crypto';
-import { createWriteStream } from 'node:fs';
 import { mkdir, readFile } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { createInterface } from 'node:readline';
@@ -19,7 +18,8 @@ import {
   type LocalMdc,
 } from '../../lib/export';
 import { readBackup, StoreError } from '../../lib/store';
-import { parseOptions, RefusedInput, type CliCommand, type CliIo } from '../command';
+import { optionDate, optionWholeNumber, parseOptions, RefusedInput, type CliCommand, type CliIo } from '../command';
+import { refuseFolder, StreamedOutputFile } from '../output-file';
 
 const VALUE_FLAGS = [
   'out',
@@ -46,17 +46,11 @@ const list = (text: string | undefined): string[] => (text ?? '').split(',').map
 /** `6-12` → [6, 12]; refuses anything else. */
 function range(text: string, flag: string): [number, number] {
   const m = /^(\d+)\s*[-–]\s*(\d+)$/.exec(text);
-  if (!m) throw new RefusedInput(`--${flag} must be a range like 6-12, not "${text}"`);
-  const low = Number(m[1]);
-  const high = Number(m[2]);
+  if (!m) throw new RefusedInput(`--${flag} must be a range like 6-12, not "${text.slice(0, 40)}"`);
+  const low = optionWholeNumber(m[1], flag, 0, 3650) as number;
+  const high = optionWholeNumber(m[2], flag, 0, 3650) as number;
   if (high < low) throw new RefusedInput(`--${flag} ${text}: the end is before the start`);
   return [low, high];
-}
-
-function wholeNumber(text: string | undefined, flag: string): number | undefined {
-  if (text === undefined) return undefined;
-  if (!/^\d+$/.test(text)) throw new RefusedInput(`--${flag} must be a whole number, not "${text}"`);
-  return Number(text);
 }
 
 /** `MEASURE[:SITE[:QUANTITY]]=VALUE@CITATION`, several separated by ";". */
@@ -80,15 +74,15 @@ function filtersFrom(values: Map<string, string>): CohortFilters {
   let anchor: CohortFilters['anchor'] = null;
   if (event) {
     const [start, end] = weeks ? range(weeks, 'window-weeks').map((w) => w * 7) as [number, number] : days ? range(days, 'window-days') : [42, 84];
-    anchor = { kind: event as EventKind, windowStartDay: start, windowEndDay: end, baselineMaxDaysBefore: wholeNumber(values.get('baseline-max-days'), 'baseline-max-days') ?? null };
+    anchor = { kind: event as EventKind, windowStartDay: start, windowEndDay: end, baselineMaxDaysBefore: optionWholeNumber(values.get('baseline-max-days'), 'baseline-max-days', 0, 3650) ?? null };
   }
   const conditions = list(values.get('condition'));
   for (const c of conditions) {
     if (!(CONDITION_CATEGORIES as readonly string[]).includes(c)) throw new RefusedInput(`--condition: "${c}" is not one of ${CONDITION_CATEGORIES.join(', ')}`);
   }
   return {
-    fromDate: values.get('from') ?? null,
-    toDate: values.get('to') ?? null,
+    fromDate: optionDate(values.get('from'), 'from') ?? null,
+    toDate: optionDate(values.get('to'), 'to') ?? null,
     conditions: conditions as CohortCondition[],
     anchor,
     measureCode: values.get('measure') ?? null,
@@ -118,12 +112,6 @@ async function passphraseFor(text: string, io: CliIo): Promise<string | undefine
   if (fromEnv !== undefined && fromEnv !== '') return fromEnv;
   if (process.stdin.isTTY && process.stderr.isTTY) return promptPassphrase();
   return undefined;
-}
-
-/** Writes text to a file stream, waiting when the stream asks for it (back-pressure). */
-function writeChunk(stream: NodeJS.WritableStream, text: string): Promise<void> | void {
-  if (stream.write(text)) return;
-  return new Promise((resolvePromise) => stream.once('drain', () => resolvePromise()));
 }
 
 export const cohortCommand: CliCommand = {
@@ -162,7 +150,7 @@ export const cohortCommand: CliCommand = {
     const filters = filtersFrom(values);
     const datesMode = values.get('dates') ?? 'days';
     if (datesMode !== 'days' && datesMode !== 'shifted') throw new RefusedInput(`--dates must be days or shifted, not "${datesMode}"`);
-    const maxShiftDays = wholeNumber(values.get('max-shift-days'), 'max-shift-days');
+    const maxShiftDays = optionWholeNumber(values.get('max-shift-days'), 'max-shift-days', 1, 3650);
     const fileKinds = list(values.get('files'));
     for (const kind of fileKinds) {
       if (!(COHORT_FILE_KINDS as readonly string[]).includes(kind)) throw new RefusedInput(`--files: "${kind}" is not one of ${COHORT_FILE_KINDS.join(', ')}`);
@@ -227,26 +215,32 @@ export const cohortCommand: CliCommand = {
       io.stderr('kinnote cohort: warning: identified export: the files name patients (codes, names, dates of birth, real dates); keep them as protected health information');
     }
     const written: { file: string; kind: CohortFileKind; rows: number; characters: number }[] = [];
-    let stream: NodeJS.WritableStream | null = null;
+    // Every file goes to a temporary name first and is renamed into place only when all of them
+    // were written: a full disk or a folder in the way leaves no partial file and no success report.
+    for (const f of prepared.files) await refuseFolder(join(dir, f.fileName), join(outDir, f.fileName));
+    const outputs: StreamedOutputFile[] = [];
+    let current: StreamedOutputFile | null = null;
     let characters = 0;
-    await runCohortExport(prepared, {
-      onFileStart: (f) => {
-        stream = createWriteStream(join(dir, f.fileName), { encoding: 'utf8' });
-        characters = 0;
-      },
-      onChunk: (_f, chunk) => {
-        characters += chunk.length;
-        return writeChunk(stream as NodeJS.WritableStream, chunk);
-      },
-      onFileEnd: async (f) => {
-        const s = stream as NodeJS.WritableStream;
-        await new Promise<void>((resolvePromise, reject) => {
-          s.once('error', reject);
-          s.end(() => resolvePromise());
-        });
-        written.push({ file: join(dir, f.fileName), kind: f.kind, rows: f.rows, characters });
-      },
-    });
+    try {
+      await runCohortExport(prepared, {
+        onFileStart: (f) => {
+          current = new StreamedOutputFile(join(dir, f.fileName), join(outDir, f.fileName));
+          outputs.push(current);
+          characters = 0;
+        },
+        onChunk: (_f, chunk) => {
+          characters += chunk.length;
+          return (current as StreamedOutputFile | null)!.write(chunk);
+        },
+        onFileEnd: (f) => {
+          written.push({ file: join(dir, f.fileName), kind: f.kind, rows: f.rows, characters });
+        },
+      });
+      for (const output of outputs) await output.commit();
+    } catch (error) {
+      for (const output of outputs) await output.discard();
+      throw error;
+    }
     const { cohort } = prepared;
     io.stdout(
       JSON.stringify(

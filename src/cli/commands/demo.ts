@@ -1,8 +1,8 @@
-import { writeFile } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import { DEMO_DEFAULT_END_DATE } from '../../lib/demo';
 import { demoBundle, serializeBundle } from '../../lib/store';
-import { parseOptions, RefusedInput, type CliCommand } from '../command';
+import { optionDate, parseOptions, RefusedInput, type CliCommand } from '../command';
+import { writeOutputFile } from '../output-file';
 
 /** `kinnote demo --out FILE.json [--seed N] [--end YYYY-MM-DD]`: writes the invented demo caseload as a backup bundle. */
 export const demoCommand: CliCommand = {
@@ -22,18 +22,12 @@ export const demoCommand: CliCommand = {
     if (!out) throw new RefusedInput('--out FILE.json is required');
     const seedText = values.get('seed') ?? '1';
     if (!/^-?\d{1,10}$/.test(seedText)) throw new RefusedInput(`--seed must be a whole number, not "${seedText}"`);
-    const endDate = values.get('end') ?? DEMO_DEFAULT_END_DATE;
-    if (!/^\d{4}-\d{2}-\d{2}$/.test(endDate) || Number.isNaN(Date.parse(`${endDate}T00:00:00Z`))) {
-      throw new RefusedInput(`--end must be a date YYYY-MM-DD, not "${endDate}"`);
-    }
+    // The demo spans about two years before its end; records stamped before 2000 would be refused on import.
+    const endDate = optionDate(values.get('end'), 'end', '2003-01-01', '2100-12-31') ?? DEMO_DEFAULT_END_DATE;
     const seed = Number(seedText);
     const bundle = await demoBundle({ seed, endDate });
     const path = resolve(io.cwd, out);
-    try {
-      await writeFile(path, serializeBundle(bundle));
-    } catch (error) {
-      throw new RefusedInput(`${path}: cannot write (${(error as NodeJS.ErrnoException).code ?? (error as Error).message})`);
-    }
+    await writeOutputFile(path, serializeBundle(bundle), out);
     const counts = Object.fromEntries(Object.entries(bundle.tables).map(([table, records]) => [table, records.length]));
     io.stdout(JSON.stringify({ out: path, seed, endDate, checksum: bundle.checksum.value, counts }, null, 2));
     return 0;

@@ -1,8 +1,9 @@
-import { readFile, writeFile } from 'node:fs/promises';
+import { readFile } from 'node:fs/promises';
 import { basename, resolve } from 'node:path';
 import { forJson } from './pendulum';
 import { analyseMotionRecording, formatAngleTraceCsv, MotionInputError, parseMotionCsv } from '../../lib/sensors/index';
-import { parseOptions, RefusedInput, type CliCommand } from '../command';
+import { optionDecimal, parseOptions, RefusedInput, type CliCommand } from '../command';
+import { writeOutputFile } from '../output-file';
 
 const usage = `kinnote motion FILE.csv [--trace OUT.csv] [--start-angle DEG]
 
@@ -27,11 +28,7 @@ export const motionCommand: CliCommand = {
     const { positional, values } = parseOptions(args, ['trace', 'start-angle']);
     if (positional.length !== 1) throw new RefusedInput('give one file; usage: kinnote motion FILE.csv [--trace OUT.csv]');
     const name = positional[0] as string;
-    const startText = values.get('start-angle');
-    const startAngle = startText === undefined ? 0 : Number(startText);
-    if (startText !== undefined && (startText.trim() === '' || !Number.isFinite(startAngle) || startAngle < -30 || startAngle > 180)) {
-      throw new RefusedInput(`option --start-angle: "${startText}" is not a number between -30 and 180`);
-    }
+    const startAngle = optionDecimal(values.get('start-angle'), 'start-angle', -30, 180) ?? 0;
     let text: string;
     try {
       text = await readFile(resolve(io.cwd, name), 'utf8');
@@ -48,11 +45,7 @@ export const motionCommand: CliCommand = {
     }
     const tracePath = values.get('trace');
     if (tracePath !== undefined) {
-      try {
-        await writeFile(resolve(io.cwd, tracePath), formatAngleTraceCsv(result.reconstruction.timeS, result.reconstruction.angleDeg), 'utf8');
-      } catch (error) {
-        throw new RefusedInput(`${tracePath}: cannot write the trace (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
-      }
+      await writeOutputFile(resolve(io.cwd, tracePath), formatAngleTraceCsv(result.reconstruction.timeS, result.reconstruction.angleDeg), tracePath);
     }
     io.stdout(JSON.stringify(forJson(result.analysis.indices), null, 2));
     return 0;

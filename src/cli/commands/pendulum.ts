@@ -2,7 +2,7 @@ import { readFile } from 'node:fs/promises';
 import { basename, resolve } from 'node:path';
 import { analysePendulumCsv, PendulumInputError, type PendulumIndices } from '../../lib/pendulum/index';
 import { csvRow } from '../../lib/export/index';
-import { parseOptions, RefusedInput, type CliCommand } from '../command';
+import { optionDecimal, parseOptions, RefusedInput, type CliCommand } from '../command';
 
 const usage = `kinnote pendulum FILE.csv [FILE.csv ...] [--csv] [--start-angle DEG] [--emg-k K]
 
@@ -57,8 +57,8 @@ export const pendulumCommand: CliCommand = {
   async run(args, io) {
     const { positional, values, switches } = parseOptions(args, ['start-angle', 'emg-k'], ['csv']);
     if (positional.length === 0) throw new RefusedInput('no file given; usage: kinnote pendulum FILE.csv [--csv]');
-    const startAngle = numberOption(values.get('start-angle'), 'start-angle', -30, 180);
-    const emgK = numberOption(values.get('emg-k'), 'emg-k', 0, 100);
+    const startAngle = optionDecimal(values.get('start-angle'), 'start-angle', -30, 180);
+    const emgK = optionDecimal(values.get('emg-k'), 'emg-k', 0, 100);
     const options = { ...(startAngle === undefined ? {} : { gyroStartAngleDeg: startAngle }), ...(emgK === undefined ? {} : { emgThresholdK: emgK }) };
 
     const outcomes: Outcome[] = [];
@@ -93,15 +93,6 @@ export const pendulumCommand: CliCommand = {
     return refused.length === outcomes.length ? 1 : 0;
   },
 };
-
-function numberOption(value: string | undefined, name: string, min: number, max: number): number | undefined {
-  if (value === undefined) return undefined;
-  const x = Number(value);
-  if (value.trim() === '' || !Number.isFinite(x) || x < min || x > max) {
-    throw new RefusedInput(`option --${name}: "${value}" is not a number between ${min} and ${max}`);
-  }
-  return x;
-}
 
 /**
  * The indices as printed by `kinnote pendulum` and `kinnote motion`: numbers rounded to 4 decimals

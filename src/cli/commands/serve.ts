@@ -1,7 +1,7 @@
 import { createServer } from 'node:http';
 import { readFile, stat } from 'node:fs/promises';
 import { extname, join, normalize, resolve, sep } from 'node:path';
-import { parseOptions, RefusedInput, type CliCommand } from '../command';
+import { optionWholeNumber, parseOptions, RefusedInput, type CliCommand } from '../command';
 
 const contentTypes: Readonly<Record<string, string>> = {
   '.html': 'text/html; charset=utf-8',
@@ -60,7 +60,10 @@ export async function startStaticServer(
     });
   });
   await new Promise<void>((done, fail) => {
-    server.once('error', fail);
+    server.once('error', (error: NodeJS.ErrnoException) => {
+      const why = error.code === 'EADDRINUSE' ? 'is in use by another program; stop it or choose another --port' : error.code === 'EACCES' ? 'needs privileges; choose a port above 1023' : `cannot be opened (${error.code ?? error.message})`;
+      fail(new RefusedInput(`--port ${port}: ${host}:${port} ${why}`));
+    });
     server.listen(port, host, () => done());
   });
   const address = server.address();
@@ -77,10 +80,7 @@ export const serveCommand: CliCommand = {
   usage: 'kinnote serve [--port 4173] [--dir build]',
   async run(args, io) {
     const { values } = parseOptions(args, ['port', 'dir']);
-    const port = Number(values.get('port') ?? '4173');
-    if (!Number.isInteger(port) || port < 0 || port > 65535) {
-      throw new RefusedInput(`--port: "${values.get('port')}" is not a port number`);
-    }
+    const port = optionWholeNumber(values.get('port'), 'port', 0, 65535) ?? 4173;
     const server = await startStaticServer(resolve(io.cwd, values.get('dir') ?? 'build'), port);
     io.stderr(`Kinnote is served at ${server.url} (Ctrl+C stops it)`);
     await new Promise<void>(() => undefined);

@@ -1,3 +1,4 @@
+import { decimalProblem, decimalValue, withoutByteOrderMark } from '../domain';
 import { PendulumInputError } from './pendulum-input-error';
 
 /** One recording as columns, in the file's own time base (seconds) and units (degrees, deg/s, µV). */
@@ -34,7 +35,8 @@ const KNOWN_COLUMNS: readonly ColumnKind[] = ['time_s', 'time_ms', 'angle_deg', 
  * non-finite value, time not strictly increasing, an angle outside -30..180 degrees.
  */
 export function parsePendulumCsv(text: string, fileName: string): PendulumTrace {
-  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  text = withoutByteOrderMark(text);
+  let pos = 0;
   let line = 0;
   let header: string | null = null;
   let headerLine = 0;
@@ -105,10 +107,10 @@ export function parsePendulumCsv(text: string, fileName: string): PendulumTrace 
       if (c < width - 1 && fieldEnd === end) {
         throw new PendulumInputError(fileName, line, `expected ${width} values, found ${c + 1}`);
       }
-      const value = parseNumber(text, fieldStart, fieldEnd);
+      const value = decimalValue(text, fieldStart, fieldEnd);
       if (!Number.isFinite(value)) {
         const raw = text.slice(fieldStart, fieldEnd).trim();
-        const reason = raw === '' ? 'empty value' : Number.isNaN(value) && !/^"?[+-]?(nan|inf(inity)?)"?$/i.test(raw) ? 'non-numeric value' : 'non-finite value';
+        const reason = decimalProblem(raw, value);
         throw new PendulumInputError(fileName, line, `${reason} "${raw.slice(0, 40)}" in column ${names[c]}`);
       }
       columns[c][rows] = value;
@@ -172,49 +174,6 @@ function isSpace(code: number): boolean {
 
 function unquote(field: string): string {
   return field.length >= 2 && field.startsWith('"') && field.endsWith('"') ? field.slice(1, -1).replace(/""/g, '"') : field;
-}
-
-/**
- * Strict decimal number in text[start, end): optional spaces and one pair of double quotes around
- * [+-]digits[.digits][e[+-]digits]. Returns NaN for anything else (empty, hex, words), and ±Infinity
- * for overflow, so the caller can tell the reasons apart. Avoids Number('') === 0 and Number('0x1') === 1.
- */
-function parseNumber(text: string, start: number, end: number): number {
-  while (start < end && isSpace(text.charCodeAt(start))) start++;
-  while (end > start && isSpace(text.charCodeAt(end - 1))) end--;
-  if (end - start >= 2 && text.charCodeAt(start) === 34 && text.charCodeAt(end - 1) === 34) {
-    start++;
-    end--;
-  }
-  let i = start;
-  let c = text.charCodeAt(i);
-  if (c === 43 || c === 45) i++;
-  let digits = 0;
-  while (i < end && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
-    i++;
-    digits++;
-  }
-  if (i < end && text.charCodeAt(i) === 46) {
-    i++;
-    while (i < end && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
-      i++;
-      digits++;
-    }
-  }
-  if (digits === 0) return Number.NaN;
-  if (i < end && (text.charCodeAt(i) | 32) === 101) {
-    i++;
-    c = text.charCodeAt(i);
-    if (c === 43 || c === 45) i++;
-    let exponentDigits = 0;
-    while (i < end && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
-      i++;
-      exponentDigits++;
-    }
-    if (exponentDigits === 0) return Number.NaN;
-  }
-  if (i !== end) return Number.NaN;
-  return Number(text.slice(start, end));
 }
 
 function formatValue(x: number): string {

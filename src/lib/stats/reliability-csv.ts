@@ -1,3 +1,4 @@
+import { readDecimal, withoutByteOrderMark } from '../domain';
 import type { ReliabilityTable } from './complete-subjects';
 import { StatsInputError } from './stats-input-error';
 
@@ -14,7 +15,8 @@ export interface CsvRecord {
  */
 export function parseCsvRecords(text: string, file: string): CsvRecord[] {
   const records: CsvRecord[] = [];
-  let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  text = withoutByteOrderMark(text);
+  let i = 0;
   let line = 1;
   let fields: string[] = [];
   let field = '';
@@ -76,9 +78,13 @@ export function parseCsvRecords(text: string, file: string): CsvRecord[] {
   return records.filter((r) => !(r.fields.length === 1 && (r.fields[0] as string).trim() === ''));
 }
 
-const numberPattern = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-/** Reads the subjects × trials table: header first, subject column first, empty cell = missing. */
+/**
+ * Reads the subjects × trials table: header first, subject column first, empty cell = missing.
+ * Throws StatsInputError (file, line, reason) for a first row whose trial columns are all numbers
+ * (no header: the first subject would be taken as one), a subject id that appears twice (it would
+ * count as two subjects), a row of the wrong width, and a score that is not a finite decimal
+ * (readDecimal: hexadecimal and overflow such as 1e400 are refused).
+ */
 export function readReliabilityCsv(text: string, file: string): { table: ReliabilityTable; lines: number[]; columns: string[] } {
   const records = parseCsvRecords(text, file);
   const header = records[0];
@@ -87,6 +93,13 @@ export function readReliabilityCsv(text: string, file: string): { table: Reliabi
   if (k < 2) {
     throw new StatsInputError(`${file}: line ${header.line}: the header names ${k} trial column(s); need a subject column and at least 2 trial or rater columns`);
   }
+  const headerTrials = header.fields.slice(1).map((f) => f.trim());
+  if (headerTrials.every((f) => f !== '' && readDecimal(f).ok)) {
+    throw new StatsInputError(
+      `${file}: line ${header.line}: the first row holds numbers where the header should name the trials (${headerTrials.slice(0, 3).join(', ')}); add a header row like subject,trial1,trial2`,
+    );
+  }
+  const firstLineOf = new Map<string, number>();
   const subjectIds: string[] = [];
   const lines: number[] = [];
   const rows = records.slice(1);
@@ -97,6 +110,11 @@ export function readReliabilityCsv(text: string, file: string): { table: Reliabi
     }
     const id = (record.fields[0] as string).trim();
     if (id === '') throw new StatsInputError(`${file}: line ${record.line}: the subject column is empty`);
+    const earlier = firstLineOf.get(id);
+    if (earlier !== undefined) {
+      throw new StatsInputError(`${file}: line ${record.line}: subject "${id.slice(0, 40)}" appears again (first on line ${earlier}); give each subject one row with all its trials`);
+    }
+    firstLineOf.set(id, record.line);
     subjectIds.push(id);
     lines.push(record.line);
     for (let j = 0; j < k; j++) {
@@ -105,12 +123,13 @@ export function readReliabilityCsv(text: string, file: string): { table: Reliabi
         scores[r * k + j] = Number.NaN;
         continue;
       }
-      if (!numberPattern.test(cell)) {
+      const reading = readDecimal(cell);
+      if (!reading.ok) {
         throw new StatsInputError(
-          `${file}: line ${record.line}: subject "${id}", column "${(header.fields[j + 1] as string).trim()}": "${cell}" is not a number`,
+          `${file}: line ${record.line}: subject "${id}", column "${(header.fields[j + 1] as string).trim()}": "${cell.slice(0, 40)}" is not a finite decimal number (${reading.reason})`,
         );
       }
-      scores[r * k + j] = Number(cell);
+      scores[r * k + j] = reading.value;
     }
   });
   return { table: { subjectIds, trialCount: k, scores }, lines, columns: header.fields.map((f) => f.trim()) };

@@ -64,7 +64,7 @@ describe('kinnote cohort', () => {
     ['encrypted without a passphrase', [encryptedPath, '--out', 'x'], {}, /demo-encrypted\.json: .*passphrase.*KINNOTE_PASSPHRASE/],
     ['a wrong passphrase', [encryptedPath, '--out', 'x'], { KINNOTE_PASSPHRASE: 'wrong' }, /demo-encrypted\.json: wrong passphrase/],
     ['an unknown measure', [plainPath, '--out', 'x', '--measure', 'nope'], {}, /demo\.json: filters\.measureCode: "nope" is not a measure/],
-    ['a bad date', [plainPath, '--out', 'x', '--from', '2025-13-01'], {}, /filters\.fromDate/],
+    ['a bad date', [plainPath, '--out', 'x', '--from', '2025-13-01'], {}, /--from: 2025-13-01 does not exist in the calendar/],
     ['a window without an event', [plainPath, '--out', 'x', '--window-weeks', '6-12'], {}, /--event/],
     ['a missing file', ['missing.json', '--out', 'x'], {}, /missing\.json: cannot read the file \(ENOENT\)/],
     ['no --out', [plainPath], {}, /--out DIR is required/],

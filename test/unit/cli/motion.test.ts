@@ -54,7 +54,7 @@ describe('kinnote motion', () => {
 
   const refusals: Array<[string, RegExp]> = [
     ['bad-unknown-column.csv', /^kinnote motion: bad-unknown-column\.csv: row 1: unknown column "acc_w_ms2"/],
-    ['bad-non-numeric.csv', /^kinnote motion: bad-non-numeric\.csv: row 4: acc_z_ms2 "abc" is not a finite number/],
+    ['bad-non-numeric.csv', /^kinnote motion: bad-non-numeric\.csv: row 4: non-numeric value "abc" in column acc_z_ms2/],
     ['bad-time-not-increasing.csv', /^kinnote motion: bad-time-not-increasing\.csv: row 5: time_ms not strictly increasing/],
     ['bad-missing-field.csv', /^kinnote motion: bad-missing-field\.csv: row 3: 6 fields, the header has 7/],
     ['bad-no-swing.csv', /^kinnote motion: bad-no-swing\.csv: no swing found/],

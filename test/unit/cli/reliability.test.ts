@@ -73,8 +73,8 @@ describe('kinnote reliability', () => {
   });
 
   const refusals: [string, string, RegExp][] = [
-    ['not-a-number.csv', 'subject,a,b\nS1,1,2\nS2,3,x7\n', /line 3: subject "S2", column "b": "x7" is not a number/],
-    ['decimal-comma.csv', 'subject,a,b\nS1,1,2\nS2,"3,5",4\n', /line 3: .*"3,5" is not a number/],
+    ['not-a-number.csv', 'subject,a,b\nS1,1,2\nS2,3,x7\n', /line 3: subject "S2", column "b": "x7" is not a finite decimal number \(non-numeric value\)/],
+    ['decimal-comma.csv', 'subject,a,b\nS1,1,2\nS2,"3,5",4\n', /line 3: .*"3,5" is not a finite decimal number/],
     ['short-row.csv', 'subject,a,b\nS1,1,2\nS2,3\n', /line 3: 2 fields, the header has 3/],
     ['one-trial.csv', 'subject,a\nS1,1\nS2,3\n', /line 1: .*at least 2 trial or rater columns/],
     ['open-quote.csv', 'subject,a,b\n"S1,1,2\n', /line 2: a quoted field is never closed/],

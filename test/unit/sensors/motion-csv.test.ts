@@ -22,9 +22,9 @@ describe('parseMotionCsv', () => {
     { text: `${HEADER},time_ms`, message: /^f\.csv: row 1: column "time_ms" appears twice/ },
     { text: HEADER.replace(',acc_z_ms2', ''), message: /^f\.csv: row 1: missing column acc_z_ms2/ },
     { text: `${HEADER}\n0,0,0,0,0,0\n`, message: /^f\.csv: row 2: 6 fields, the header has 7/ },
-    { text: `${HEADER}\n0,0,0,0,0,0,x\n`, message: /^f\.csv: row 2: acc_z_ms2 "x" is not a finite number/ },
-    { text: `${HEADER}\n0,0,0,0,0,0,Infinity\n`, message: /^f\.csv: row 2: acc_z_ms2 "Infinity" is not a finite number/ },
-    { text: `${HEADER}\n0,0,0,0,0,0,\n`, message: /^f\.csv: row 2: acc_z_ms2 "" is not a finite number/ },
+    { text: `${HEADER}\n0,0,0,0,0,0,x\n`, message: /^f\.csv: row 2: non-numeric value "x" in column acc_z_ms2/ },
+    { text: `${HEADER}\n0,0,0,0,0,0,Infinity\n`, message: /^f\.csv: row 2: non-finite value "Infinity" in column acc_z_ms2/ },
+    { text: `${HEADER}\n0,0,0,0,0,0,\n`, message: /^f\.csv: row 2: empty value "" in column acc_z_ms2/ },
     { text: `${HEADER}\n0,20000,0,0,0,0,9.8\n`, message: /^f\.csv: row 2: rate_alpha_dps 20000 is beyond ±10000/ },
     { text: `${HEADER}\n5,0,0,0,0,0,9.8\n5,0,0,0,0,0,9.8\n`, message: /^f\.csv: row 3: time_ms not strictly increasing/ },
   ];

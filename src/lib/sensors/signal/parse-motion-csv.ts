@@ -1,3 +1,4 @@
+import { readDecimal, withoutByteOrderMark } from '../../domain';
 import { MotionInputError } from './motion-input-error';
 import { MOTION_CSV_COLUMNS, type MotionRecording } from './motion-recording';
 
@@ -19,7 +20,7 @@ const MAX_ACCELERATION_MS2 = 2000;
  * not strictly increasing.
  */
 export function parseMotionCsv(text: string, fileName: string): MotionRecording {
-  const rows = text.charCodeAt(0) === 0xfeff ? text.slice(1).split(/\r\n|\n|\r/) : text.split(/\r\n|\n|\r/);
+  const rows = withoutByteOrderMark(text).split(/\r\n|\n|\r/);
   let headerLine = -1;
   for (let i = 0; i < rows.length; i++) {
     const content = rows[i].trim();
@@ -54,9 +55,10 @@ export function parseMotionCsv(text: string, fileName: string): MotionRecording 
     }
     for (let k = 0; k < MOTION_CSV_COLUMNS.length; k++) {
       const raw = fields[order[k]].trim();
-      const value = raw === '' ? Number.NaN : Number(raw);
+      const reading = readDecimal(raw);
       const name = MOTION_CSV_COLUMNS[k];
-      if (!Number.isFinite(value)) throw new MotionInputError(fileName, line, `${name} "${raw}" is not a finite number`);
+      if (!reading.ok) throw new MotionInputError(fileName, line, `${reading.reason} "${raw.slice(0, 40)}" in column ${name}`);
+      const value = reading.value;
       const limit = k === 0 ? Infinity : k <= 3 ? MAX_RATE_DPS : MAX_ACCELERATION_MS2;
       if (Math.abs(value) > limit) throw new MotionInputError(fileName, line, `${name} ${value} is beyond ±${limit}`);
       columns[k][n] = value;
