@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
 import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot } from './harness';
+import { launchChromium, newAppContext, phone, runScriptInPage, screenshot } from './harness';
 
 let browser: Browser;
 let bundle: string;
@@ -21,7 +21,7 @@ describe('caseload with 5,000 patients', () => {
     const context = await newAppContext(browser, { viewport: phone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
-    await page.addScriptTag({ content: bundle });
+    await runScriptInPage(page, bundle);
     const filled = (await page.evaluate(() => (globalThis as unknown as { fillCaseload: (n: number) => Promise<unknown> }).fillCaseload(5000))) as { patients: number; seconds: number };
     expect(filled.patients).toBe(5000);
 

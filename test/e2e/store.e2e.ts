@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, phone, tablet } from './harness';
+import { launchChromium, newAppContext, runScriptInPage, screenshot, seriousAxeViolations, phone, tablet } from './harness';
 import type { storeChecks } from './in-page/store-checks';
 import { setUpDevice } from './app-helpers';
 
@@ -23,7 +23,7 @@ async function checksPage(): Promise<Page> {
   const context = await newAppContext(browser, { serviceWorkers: 'block' });
   const page = await context.newPage();
   await page.goto('/in-page-checks');
-  await page.addScriptTag({ content: bundle });
+  await runScriptInPage(page, bundle);
   return page;
 }
 
