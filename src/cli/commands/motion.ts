@@ -10,7 +10,11 @@ Analyses a knee pendulum test recorded with a phone strapped to the shank. FILE.
 device-motion samples with the header
   time_ms,rate_alpha_dps,rate_beta_dps,rate_gamma_dps,acc_x_ms2,acc_y_ms2,acc_z_ms2
 (rotation rate in deg/s and acceleration including gravity in m/s², on the W3C DeviceMotionEvent
-axes; the phone may sit on the shank in any orientation). The knee angle is reconstructed by fusing
+axes; the phone may sit on the shank in any orientation). The rotation-rate columns follow the
+current W3C Device Orientation and Motion text, as Chrome and Firefox on Android and Safari on iOS
+deliver it: rate_alpha_dps is the rate about the phone's x axis, rate_beta_dps about y,
+rate_gamma_dps about z. (An older text paired alpha with z, beta with x, gamma with y; a file in
+that older order is recognised from its data where possible and analysed with a warning.) The knee angle is reconstructed by fusing
 gyroscope and gravity, then analysed as by \`kinnote pendulum\`, whose JSON this prints.
 
   --trace OUT.csv   also write the reconstructed trace as time_s,angle_deg

@@ -10,14 +10,17 @@ import {
   motionTiming,
   principalAxis,
   quietMask,
+  rateAxisOrder,
+  reconstructKneeAngle,
   steadyReading,
   wrap180,
 } from '../../../src/lib/sensors';
-import { axisAngle, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
+import { axisAngle, deviceMotionFromSwing, multiply, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
+import { simulatePendulum } from '../../reference/pendulum/simulator';
 
-describe('W3C axes (Device Orientation and Motion spec: alpha about z, beta about x, gamma about y; at rest the accelerometer reads +g upward)', () => {
-  it('maps rotationRate (alpha, beta, gamma) to the angular velocity on (x, y, z) as (beta, gamma, alpha)', () => {
-    const rec = { timeMs: Float64Array.of(0), rateAlphaDps: Float64Array.of(3), rateBetaDps: Float64Array.of(1), rateGammaDps: Float64Array.of(2), accXMs2: Float64Array.of(0), accYMs2: Float64Array.of(0), accZMs2: Float64Array.of(9.8) };
+describe('W3C axes (current Device Orientation and Motion text, w3c/deviceorientation PR #43 / issue #44: rotationRate alpha about x, beta about y, gamma about z; at rest the accelerometer reads +g upward)', () => {
+  it('maps rotationRate (alpha, beta, gamma) to the angular velocity on (x, y, z) as (alpha, beta, gamma), not the older (beta, gamma, alpha)', () => {
+    const rec = { timeMs: Float64Array.of(0), rateAlphaDps: Float64Array.of(1), rateBetaDps: Float64Array.of(2), rateGammaDps: Float64Array.of(3), accXMs2: Float64Array.of(0), accYMs2: Float64Array.of(0), accZMs2: Float64Array.of(9.8) };
     expect(Array.from(deviceAngularVelocity(rec, 0, new Float64Array(3)))).toEqual([1, 2, 3]);
   });
   it('a phone lying flat, screen up, reads (0, 0, +9.81) and its long edge is 90° from the vertical; standing upright, 0°', () => {
@@ -152,10 +155,10 @@ describe('LiveSwingMonitor', () => {
   it('integrates a steady rotation about any axis into its angle, and stops 2 s after the leg comes to rest', () => {
     const m = new LiveSwingMonitor();
     const axis = [0.48, -0.6, 0.64];
-    // 90 °/s for 1 s at 100 Hz about `axis` (on x, y, z = beta, gamma, alpha).
+    // 90 °/s for 1 s at 100 Hz about `axis` (on x, y, z = alpha, beta, gamma).
     let t = 0;
     m.push(t, 0, 0, 0);
-    for (let i = 1; i <= 100; i++) m.push((t = i * 10), 90 * axis[2], 90 * axis[0], 90 * axis[1]);
+    for (let i = 1; i <= 100; i++) m.push((t = i * 10), 90 * axis[0], 90 * axis[1], 90 * axis[2]);
     expect(m.state.angleDeg).toBeCloseTo(90, 6);
     expect(m.state.moved).toBe(true);
     for (let i = 1; i <= 199; i++) m.push(t + i * 10, 0, 0, 0);
@@ -165,9 +168,39 @@ describe('LiveSwingMonitor', () => {
     expect(m.state.shouldStop).toBe(true);
     expect(m.state.angleDeg).toBeCloseTo(90, 6);
   });
+  it('removes its bias on the axis the current W3C text names: a 70 °/s bias about x cancels alpha, not gamma', () => {
+    const m = new LiveSwingMonitor([70, 0, 0]);
+    for (let i = 0; i < 50; i++) m.push(i * 10, 70, 0, 0);
+    expect(m.state.moved).toBe(false);
+    expect(m.state.angleDeg).toBeCloseTo(0, 9);
+  });
   it('never stops before the leg has moved', () => {
     const m = new LiveSwingMonitor();
     for (let i = 0; i < 500; i++) m.push(i * 10, 0.5, 0.5, 0.5);
     expect(m.state.shouldStop).toBe(false);
+  });
+});
+
+describe('rateAxisOrder: the older z, x, y column order recognised from the data (a hinge keeps the acceleration along its axis constant)', () => {
+  // Hinge physics, not code output: any rotation-rate column order other than the one the file was
+  // written in moves the gyro's principal axis off the knee axis.
+  const trace = simulatePendulum({ holdS: 1.5, durationS: 8 });
+  const mounting = multiply(axisAngle(0, 0, 1, 30), axisAngle(1, 0, 0, 50));
+  const stream = deviceMotionFromSwing(trace, { mounting, offsetM: 0.22, heightM: 0.04, rateHz: 100, errors: NO_ERRORS, seed: 3 });
+  const current = stream.recording;
+  // The same samples written the older way: alpha = rate about z, beta = about x, gamma = about y.
+  const legacy = { ...current, rateAlphaDps: current.rateGammaDps, rateBetaDps: current.rateAlphaDps, rateGammaDps: current.rateBetaDps };
+  it('says "current" for a file in the current order and "legacy" for the same data in the older order', () => {
+    expect(rateAxisOrder(current).order).toBe('current');
+    expect(rateAxisOrder(legacy).order).toBe('legacy');
+  });
+  it('reconstructs the same angle from both files and warns only about the older one', () => {
+    const a = reconstructKneeAngle(current);
+    const b = reconstructKneeAngle(legacy);
+    expect(a.warnings.join(' ')).not.toMatch(/older order/);
+    expect(b.warnings.join(' ')).toMatch(/older order/);
+    let worst = 0;
+    for (let i = 0; i < a.angleDeg.length; i++) worst = Math.max(worst, Math.abs(a.angleDeg[i] - b.angleDeg[i]));
+    expect(worst).toBeLessThan(0.01);
   });
 });

@@ -3,6 +3,7 @@ import { motionSampleCount, STANDARD_GRAVITY_MS2, type MotionRecording } from '.
 import { LOW_RATE_HZ, motionTiming, type MotionTiming } from './motion-timing';
 import { principalAxis } from './principal-axis';
 import { maskRuns, quietMask } from './quiet-mask';
+import { rateAxisOrder } from './rate-axis-order';
 
 export interface KneeAngleOptions {
   /** Name used in refusal messages. */
@@ -115,15 +116,25 @@ export function reconstructKneeAngle(recording: MotionRecording, options: KneeAn
   const lineOf = (i: number): number => (recording.lines ? recording.lines[i] : i + 2);
   if (n < 2) throw new MotionInputError(file, null, n === 0 ? 'no samples' : 'only one sample; a recording needs many');
   const { timeMs, accXMs2: ax, accYMs2: ay, accZMs2: az } = recording;
-  const gx = recording.rateBetaDps;
-  const gy = recording.rateGammaDps;
-  const gz = recording.rateAlphaDps;
   for (let i = 0; i < n; i++) {
-    if (![timeMs[i], gx[i], gy[i], gz[i], ax[i], ay[i], az[i]].every(Number.isFinite)) throw new MotionInputError(file, lineOf(i), 'non-finite value');
+    if (![timeMs[i], recording.rateAlphaDps[i], recording.rateBetaDps[i], recording.rateGammaDps[i], ax[i], ay[i], az[i]].every(Number.isFinite)) throw new MotionInputError(file, lineOf(i), 'non-finite value');
     if (i > 0 && !(timeMs[i] > timeMs[i - 1])) throw new MotionInputError(file, lineOf(i), 'time not strictly increasing');
   }
   const timing = motionTiming(timeMs);
   const warnings: string[] = [];
+  // Device axes of the rotation rate: the current W3C text (alpha about x, beta about y, gamma about
+  // z, as Chrome and Firefox on Android and Safari on iOS deliver it), unless the data clearly follow
+  // the older alpha-about-z order (a file from an older tool): then that order, said loudly.
+  const orderEvidence = rateAxisOrder(recording);
+  const legacy = orderEvidence.order === 'legacy';
+  if (legacy) {
+    warnings.push(
+      `the rotation-rate columns look like the older order (rate_alpha_dps about the phone's z axis, beta about x, gamma about y): read in today's order the acceleration along the knee axis would swing by ${round(orderEvidence.currentSpreadMs2, 1)} m/s² instead of ${round(orderEvidence.legacySpreadMs2, 1)} m/s²; analysed in the older order. Today's browsers deliver alpha about x, beta about y, gamma about z`,
+    );
+  }
+  const gx = legacy ? recording.rateBetaDps : recording.rateAlphaDps;
+  const gy = legacy ? recording.rateGammaDps : recording.rateBetaDps;
+  const gz = legacy ? recording.rateAlphaDps : recording.rateGammaDps;
   if (timing.rateHz < LOW_RATE_HZ) {
     warnings.push(`the motion sensor delivered ${round(timing.rateHz, 1)} samples per second, under ${LOW_RATE_HZ}; the fast first swing may be under-sampled`);
   }
