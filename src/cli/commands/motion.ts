@@ -18,7 +18,10 @@ that older order is recognised from its data where possible and analysed with a 
 gyroscope and gravity, then analysed as by \`kinnote pendulum\`, whose JSON this prints.
 
   --trace OUT.csv   also write the reconstructed trace as time_s,angle_deg
-  --start-angle     knee flexion at which the leg was held before release (default 0 = full extension)
+  --start-angle     knee flexion at which the leg was held before release, when known better than
+                    the phone's reading (default: from gravity along the phone's long edge, which
+                    must lie along the shin; absolute angles then carry up to ±15° of the phone's
+                    tilt on the shank, A0, A1 and R2 do not)
 
 Refused input exits with status 1 and one line on stderr naming file, row and reason.
 Not a diagnostic device: the indices support, and never replace, a clinician's judgement.`;
@@ -32,8 +35,8 @@ export const motionCommand: CliCommand = {
     if (positional.length !== 1) throw new RefusedInput('give one file; usage: kinnote motion FILE.csv [--trace OUT.csv]');
     const name = positional[0] as string;
     const startText = values.get('start-angle');
-    const startAngle = startText === undefined ? 0 : Number(startText);
-    if (startText !== undefined && (startText.trim() === '' || !Number.isFinite(startAngle) || startAngle < -30 || startAngle > 180)) {
+    const startAngle = startText === undefined ? undefined : Number(startText);
+    if (startText !== undefined && (startText.trim() === '' || startAngle === undefined || !Number.isFinite(startAngle) || startAngle < -30 || startAngle > 180)) {
       throw new RefusedInput(`option --start-angle: "${startText}" is not a number between -30 and 180`);
     }
     let text: string;
@@ -45,7 +48,7 @@ export const motionCommand: CliCommand = {
     const fileName = basename(name);
     let result;
     try {
-      result = analyseMotionRecording(parseMotionCsv(text, fileName), { fileName, startAngleDeg: startAngle });
+      result = analyseMotionRecording(parseMotionCsv(text, fileName), { fileName, ...(startAngle === undefined ? {} : { startAngleDeg: startAngle }) });
     } catch (error) {
       if (error instanceof MotionInputError) throw new RefusedInput(error.message);
       throw error;

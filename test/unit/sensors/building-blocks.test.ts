@@ -15,8 +15,8 @@ import {
   steadyReading,
   wrap180,
 } from '../../../src/lib/sensors';
-import { axisAngle, deviceMotionFromSwing, multiply, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
-import { simulatePendulum } from '../../reference/pendulum/simulator';
+import { axisAngle, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
+import { phonePendulumCases, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 
 describe('W3C axes (current Device Orientation and Motion text, w3c/deviceorientation PR #43 / issue #44: rotationRate alpha about x, beta about y, gamma about z; at rest the accelerometer reads +g upward)', () => {
   it('maps rotationRate (alpha, beta, gamma) to the angular velocity on (x, y, z) as (alpha, beta, gamma), not the older (beta, gamma, alpha)', () => {
@@ -184,10 +184,7 @@ describe('LiveSwingMonitor', () => {
 describe('rateAxisOrder: the older z, x, y column order recognised from the data (a hinge keeps the acceleration along its axis constant)', () => {
   // Hinge physics, not code output: any rotation-rate column order other than the one the file was
   // written in moves the gyro's principal axis off the knee axis.
-  const trace = simulatePendulum({ holdS: 1.5, durationS: 8 });
-  const mounting = multiply(axisAngle(0, 0, 1, 30), axisAngle(1, 0, 0, 50));
-  const stream = deviceMotionFromSwing(trace, { mounting, offsetM: 0.22, heightM: 0.04, rateHz: 100, errors: NO_ERRORS, seed: 3 });
-  const current = stream.recording;
+  const current = simulatePhonePendulum({ ...phonePendulumCases(3, 77)[0], rollDeg: 30, rateHz: 100 }).recording;
   // The same samples written the older way: alpha = rate about z, beta = about x, gamma = about y.
   const legacy = { ...current, rateAlphaDps: current.rateGammaDps, rateBetaDps: current.rateAlphaDps, rateGammaDps: current.rateBetaDps };
   it('says "current" for a file in the current order and "legacy" for the same data in the older order', () => {

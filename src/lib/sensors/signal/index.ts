@@ -9,9 +9,8 @@ export { principalAxis, type PrincipalAxis } from './principal-axis';
 export { quietMask, maskRuns } from './quiet-mask';
 export {
   reconstructKneeAngle,
-  complementaryPass,
   wrap180,
-  GRAVITY_TIME_CONSTANT_S,
+  MOUNTING_TILT_BOUND_DEG,
   type KneeAngleOptions,
   type KneeAngleReconstruction,
 } from './reconstruct-knee-angle';
