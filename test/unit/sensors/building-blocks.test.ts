@@ -16,7 +16,7 @@ import {
   wrap180,
 } from '../../../src/lib/sensors';
 import { axisAngle, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
-import { phonePendulumCases, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
+import { phonePendulumCases, seededUniform, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 
 describe('W3C axes (current Device Orientation and Motion text, w3c/deviceorientation PR #43 / issue #44: rotationRate alpha about x, beta about y, gamma about z; at rest the accelerometer reads +g upward)', () => {
   it('maps rotationRate (alpha, beta, gamma) to the angular velocity on (x, y, z) as (alpha, beta, gamma), not the older (beta, gamma, alpha)', () => {
@@ -73,6 +73,22 @@ describe('motionTiming', () => {
     expect(x.rateHz).toBeCloseTo(100, 9);
     expect(x.droppedSamples).toBe(4);
     expect(x.longestGapMs).toBe(50);
+  });
+  it('±3 ms jitter at 100 Hz is not reported as dropped samples; a real run of 3 missing events still is (seeded, 20 recordings)', () => {
+    // Issue 13: a 16 ms interval after a 4 ms one is jitter. Old per-gap rule (k ≥ 1.5 median) counted it.
+    for (let seed = 1; seed <= 20; seed++) {
+      const rng = seededUniform(seed);
+      const clean: number[] = [];
+      const gapped: number[] = [];
+      for (let i = 0; i < 1500; i++) {
+        const t = 1234 + 10 * i + 3 * (2 * rng() - 1);
+        clean.push(t);
+        if (i < 700 || i > 702) gapped.push(t);
+      }
+      expect(motionTiming(Float64Array.from(clean)).droppedSamples).toBe(0);
+      expect(motionTiming(Float64Array.from(gapped)).droppedSamples).toBe(3);
+      expect(motionTiming(Float64Array.from(clean)).rateHz).toBeCloseTo(100, 1);
+    }
   });
   it('n = 0 and n = 1 give NaN rate and no drops', () => {
     expect(motionTiming(new Float64Array(0)).rateHz).toBeNaN();
