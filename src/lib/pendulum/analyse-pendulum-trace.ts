@@ -56,8 +56,16 @@ const FILTER_ORDER = 2;
 export const PEAK_COUNT_MARGIN_DEG = 1;
 /** R2 of a typical relaxed leg (Bajd & Vodovnik 1984, from memory), for the normalised index. */
 export const TYPICAL_RELAXATION_INDEX = 1.6;
-/** Side areas within ±20 % of their total count as balanced (this project's choice). */
-export const AREA_BALANCE_FRACTION = 0.2;
+/**
+ * A side dominates when its area is at least 1.5 times the other's; "balanced" only below that.
+ * Why 1.5: a relaxed leg's lightly damped swing puts about as much area on each side of rest (the
+ * successive half-waves of a lightly damped oscillation shrink by only a few per cent each, so the
+ * first flexion half-swing tips the sum only a little), while a reflex that stops the swing on one
+ * side takes most of the other side's area away. Half as much again on one side is a difference a
+ * reader can see on the chart, and equals a 20 % share of the total ((1.5 − 1) / (1.5 + 1)), the
+ * cut-off used before. Project choice, not a published cut-off.
+ */
+export const DOMINANT_AREA_RATIO = 1.5;
 const SPIKE_FLOOR_DEG = 3;
 const SHORT_REST_WINDOW_S = 0.5;
 const SPIKE_FLOOR_DPS = 50;
@@ -193,15 +201,16 @@ export function analysePendulumTrace(input: PendulumTraceInput, options: Pendulu
 
   let peakCount = 0;
   let firstPeriodS: number | null = null;
-  let seen = 0;
+  let firstCountingAt = Number.NaN;
   for (const p of flexionPeaks) {
     if (p < firstPeakIndex) continue;
     const [at, value] = refineExtremum(angleDeg, p);
-    const counts = value - restAngle > PEAK_COUNT_MARGIN_DEG;
-    if (counts) peakCount++;
-    // Period: first flexion peak to the next one, if that one still passes rest by the margin.
-    if (seen === 1 && counts) firstPeriodS = (at - firstPeakAt) / fs;
-    seen++;
+    if (!(value - restAngle > PEAK_COUNT_MARGIN_DEG)) continue;
+    peakCount++;
+    // First period: between the first two flexion peaks that pass rest by the margin, whichever they
+    // are (an early catch in an extension-type leg can make the very first maximum fall short).
+    if (peakCount === 1) firstCountingAt = at;
+    else if (peakCount === 2) firstPeriodS = (at - firstCountingAt) / fs;
   }
 
   // Peak flexion velocity of the first downswing (the gyro, when given, measures it directly).
@@ -212,9 +221,12 @@ export function analysePendulumTrace(input: PendulumTraceInput, options: Pendulu
   }
 
   const [flexionArea, extensionArea] = sideAreas(angleDeg, restAngle, releaseIndex, rest.onsetIndex, fs);
-  const total = flexionArea + extensionArea;
-  const balance = total > 0 ? (flexionArea - extensionArea) / total : 0;
-  const dominantSide = balance > AREA_BALANCE_FRACTION ? 'flexion' : balance < -AREA_BALANCE_FRACTION ? 'extension' : 'balanced';
+  const dominantSide =
+    flexionArea >= DOMINANT_AREA_RATIO * extensionArea && flexionArea > 0
+      ? 'flexion'
+      : extensionArea >= DOMINANT_AREA_RATIO * flexionArea && extensionArea > 0
+        ? 'extension'
+        : 'balanced';
 
   // Damped-cosine fit from release to one second into the plateau, at about 100 Hz.
   const fitEnd = Math.min(m, rest.onsetIndex + Math.round(fs));

@@ -109,3 +109,37 @@ describe('warnings and patterns', () => {
     expect(() => analysePendulumCsv('time_s,angle_deg\n', 'empty.csv')).toThrow(/empty\.csv: no data rows/);
   });
 });
+
+describe('first period and dominant side (issue 13)', () => {
+  // A hand-drawn trace: held at 5°, an early catch at 40° (below rest), then swings about a 60° rest.
+  // Between successive extremes a half-cosine (zero velocity at each extreme). Flexion peaks above
+  // rest + 1°: 85° at 2.0 s and 72° at 3.1 s, so the first period is 1.1 s by construction.
+  const extremes: Array<[number, number]> = [
+    [0, 5], [1, 5], [1.3, 40], [1.45, 37], [2.0, 85], [2.55, 45], [3.1, 72], [3.65, 52], [4.2, 64], [4.75, 57], [5.3, 60.8], [5.85, 59.6], [6.4, 60], [10, 60],
+  ];
+  const rate = 200;
+  const n = 10 * rate + 1;
+  const timeS = new Float64Array(n);
+  const angleDeg = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const t = i / rate;
+    let k = 0;
+    while (k < extremes.length - 2 && t > extremes[k + 1][0]) k++;
+    const [t0, a0] = extremes[k];
+    const [t1, a1] = extremes[k + 1];
+    const u = Math.min(1, Math.max(0, (t - t0) / (t1 - t0)));
+    timeS[i] = t;
+    angleDeg[i] = a0 + (a1 - a0) * 0.5 * (1 - Math.cos(Math.PI * u));
+  }
+  const x = analysePendulumTrace({ timeS, angleDeg }).indices;
+  it('reports the first period between the first two flexion peaks that stand > 1° above rest, past an early catch', () => {
+    expect(x.peakCount).toBe(3);
+    expect(x.firstPeriodS).not.toBeNull();
+    expect(Math.abs((x.firstPeriodS as number) - 1.1)).toBeLessThan(0.02);
+  });
+  it('names the dominant side exactly when one area is at least 1.5 times the other', () => {
+    const ratio = Math.max(x.flexionAreaDegS, x.extensionAreaDegS) / Math.min(x.flexionAreaDegS, x.extensionAreaDegS);
+    const named = x.flexionAreaDegS >= x.extensionAreaDegS ? 'flexion' : 'extension';
+    expect(x.dominantSide).toBe(ratio >= 1.5 ? named : 'balanced');
+  });
+});
