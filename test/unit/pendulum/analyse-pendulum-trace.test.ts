@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { analysePendulumCsv, analysePendulumTrace, PendulumInputError } from '../../../src/lib/pendulum/index';
-import { mulberry32, reflexForSeverity, sampleTrace, simulatePendulum, toCsv, withEmg } from '../../reference/pendulum/simulator';
+import { gaussian, mulberry32, reflexForSeverity, sampleTrace, simulatePendulum, toCsv, withEmg } from '../../reference/pendulum/simulator';
 
 const relaxed = sampleTrace(simulatePendulum({ startAngleDeg: 10, durationS: 12 }), 100);
 
@@ -141,5 +141,44 @@ describe('first period and dominant side (issue 13)', () => {
     const ratio = Math.max(x.flexionAreaDegS, x.extensionAreaDegS) / Math.min(x.flexionAreaDegS, x.extensionAreaDegS);
     const named = x.flexionAreaDegS >= x.extensionAreaDegS ? 'flexion' : 'extension';
     expect(x.dominantSide).toBe(ratio >= 1.5 ? named : 'balanced');
+  });
+});
+
+describe('EMG bursts hold their false-alarm rate over long silent stretches (issue 13)', () => {
+  // Independent EMG: resting level 3–6 µV (Gaussian) that wanders by ±35 % over tens of seconds (skin
+  // and electrode contact change), 50 Hz mains hum of 1–8 µV whose amplitude drifts too, on a relaxed
+  // leg's 30 s recording; bursts added as 150 ms of 10× the resting level.
+  const leg = sampleTrace(simulatePendulum({ durationS: 30 }), 1000);
+  const releaseS = analysePendulumTrace({ timeS: leg.timeS, angleDeg: leg.angleDeg }).indices.releaseTimeS;
+  const emgFor = (seed: number, burstStartsS: readonly number[]) => {
+    const rng = mulberry32(seed);
+    const resting = 3 + 3 * rng();
+    const hum = 1 + 7 * rng();
+    const drift = 2 * Math.PI * (0.05 + 0.2 * rng());
+    const wander = 2 * Math.PI * (0.03 + 0.07 * rng());
+    const phase = 2 * Math.PI * rng();
+    const emg = new Float64Array(leg.timeS.length);
+    for (let i = 0; i < emg.length; i++) {
+      const t = leg.timeS[i];
+      const inBurst = burstStartsS.some((b) => t >= releaseS + b && t < releaseS + b + 0.15);
+      emg[i] = resting * (1 + 0.35 * Math.sin(wander * t + phase)) * (inBurst ? 10 : 1) * gaussian(rng) + hum * (1 + 0.3 * Math.sin(drift * t)) * Math.sin(2 * Math.PI * 50 * t);
+    }
+    return emg;
+  };
+  it('finds no burst in 12 silent 30 s recordings with hum and noise', () => {
+    let falseBursts = 0;
+    for (let seed = 1; seed <= 12; seed++) {
+      const x = analysePendulumTrace({ timeS: leg.timeS, angleDeg: leg.angleDeg, emgUv: emgFor(seed, []) }).indices.emg;
+      falseBursts += x?.bursts.length ?? 0;
+    }
+    expect(falseBursts).toBe(0);
+  });
+  it('still finds every clear burst, its onset within 60 ms, in the same noise', () => {
+    const starts = [0.08, 4, 9];
+    for (let seed = 21; seed <= 26; seed++) {
+      const x = analysePendulumTrace({ timeS: leg.timeS, angleDeg: leg.angleDeg, emgUv: emgFor(seed, starts) }).indices.emg;
+      expect(x?.bursts.length).toBe(3);
+      x?.bursts.forEach((b, j) => expect(Math.abs(b.onsetS - starts[j])).toBeLessThan(0.06));
+    }
   });
 });
