@@ -5,11 +5,9 @@ import {
   axisAngleToVerticalDeg,
   deviceAngularVelocity,
   LiveSwingMonitor,
-  maskRuns,
   MotionBuffer,
   motionTiming,
   principalAxis,
-  quietMask,
   rateAxisOrder,
   reconstructKneeAngle,
   steadyReading,
@@ -93,24 +91,6 @@ describe('motionTiming', () => {
   it('n = 0 and n = 1 give NaN rate and no drops', () => {
     expect(motionTiming(new Float64Array(0)).rateHz).toBeNaN();
     expect(motionTiming(Float64Array.of(5)).droppedSamples).toBe(0);
-  });
-});
-
-describe('quietMask and maskRuns', () => {
-  it('marks samples whose whole ±window is slow and near g', () => {
-    const n = 21;
-    const t = Float64Array.from({ length: n }, (_, i) => i * 10);
-    const rate = new Float64Array(n);
-    const acc = new Float64Array(n).fill(9.8);
-    rate[10] = 50;
-    const mask = quietMask(t, rate, acc, 9.8, 8, 0.5, 20, new Uint8Array(n));
-    expect(maskRuns(mask)).toEqual([
-      [0, 8],
-      [13, 21],
-    ]);
-  });
-  it('empty input gives no runs', () => {
-    expect(maskRuns(quietMask(new Float64Array(0), new Float64Array(0), new Float64Array(0), 9.8, 8, 0.5, 20, new Uint8Array(0)))).toEqual([]);
   });
 });
 

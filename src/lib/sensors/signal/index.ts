@@ -6,7 +6,6 @@ export { parseMotionCsv } from './parse-motion-csv';
 export { formatMotionCsv, formatAngleTraceCsv } from './format-motion-csv';
 export { motionTiming, LOW_RATE_HZ, type MotionTiming } from './motion-timing';
 export { principalAxis, type PrincipalAxis } from './principal-axis';
-export { quietMask, maskRuns } from './quiet-mask';
 export {
   reconstructKneeAngle,
   wrap180,
