@@ -11,11 +11,18 @@ Analyses a knee pendulum test recorded with a phone strapped to the shank. FILE.
 device-motion samples with the header
   time_ms,rate_alpha_dps,rate_beta_dps,rate_gamma_dps,acc_x_ms2,acc_y_ms2,acc_z_ms2
 (rotation rate in deg/s and acceleration including gravity in m/s², on the W3C DeviceMotionEvent
-axes; the phone may sit on the shank in any orientation). The knee angle is reconstructed by fusing
+axes; the phone may sit on the shank in any orientation). The rotation-rate columns follow the
+current W3C Device Orientation and Motion text, as Chrome and Firefox on Android and Safari on iOS
+deliver it: rate_alpha_dps is the rate about the phone's x axis, rate_beta_dps about y,
+rate_gamma_dps about z. (An older text paired alpha with z, beta with x, gamma with y; a file in
+that older order is recognised from its data where possible and analysed with a warning.) The knee angle is reconstructed by fusing
 gyroscope and gravity, then analysed as by \`kinnote pendulum\`, whose JSON this prints.
 
   --trace OUT.csv   also write the reconstructed trace as time_s,angle_deg
-  --start-angle     knee flexion at which the leg was held before release (default 0 = full extension)
+  --start-angle     knee flexion at which the leg was held before release, when known better than
+                    the phone's reading (default: from gravity along the phone's long edge, which
+                    must lie along the shin; absolute angles then carry up to ±15° of the phone's
+                    tilt on the shank, A0, A1 and R2 do not)
 
 Refused input exits with status 1 and one line on stderr naming file, row and reason.
 Not a diagnostic device: the indices support, and never replace, a clinician's judgement.`;
@@ -28,7 +35,7 @@ export const motionCommand: CliCommand = {
     const { positional, values } = parseOptions(args, ['trace', 'start-angle']);
     if (positional.length !== 1) throw new RefusedInput('give one file; usage: kinnote motion FILE.csv [--trace OUT.csv]');
     const name = positional[0] as string;
-    const startAngle = optionDecimal(values.get('start-angle'), 'start-angle', -30, 180) ?? 0;
+    const startAngle = optionDecimal(values.get('start-angle'), 'start-angle', -30, 180);
     let text: string;
     try {
       text = await readFile(resolve(io.cwd, name), 'utf8');
@@ -38,7 +45,7 @@ export const motionCommand: CliCommand = {
     const fileName = basename(name);
     let result;
     try {
-      result = analyseMotionRecording(parseMotionCsv(text, fileName), { fileName, startAngleDeg: startAngle });
+      result = analyseMotionRecording(parseMotionCsv(text, fileName), { fileName, ...(startAngle === undefined ? {} : { startAngleDeg: startAngle }) });
     } catch (error) {
       if (error instanceof MotionInputError) throw new RefusedInput(error.message);
       throw error;

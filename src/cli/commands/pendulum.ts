@@ -13,7 +13,7 @@ peak flexion velocity, side areas, damped-cosine fit, EMG bursts, and warnings.
 
   --csv            one CSV row per file (RFC 4180); refused files appear as rows with the reason
   --start-angle    gyro-only files: the angle the leg was held at before release (default 0)
-  --emg-k          EMG burst threshold: baseline mean + k·SD (default 3)
+  --emg-k          EMG burst threshold: baseline median + k·robust SD (default 3)
 
 One file: refused input exits with status 1 and one line on stderr. Several files: a JSON array
 (or CSV), refused files reported in place, status 0 unless every file was refused.

@@ -36,7 +36,7 @@ export interface PendulumOptions {
   readonly fileName?: string;
   /** Gyro-only input: the angle at which the leg was held before release (default 0 = full extension). */
   readonly gyroStartAngleDeg?: number;
-  /** EMG burst threshold k in mean + k·SD of the pre-release baseline (default 3). */
+  /** EMG burst-on threshold k in median + k·robust SD of the silent baseline (default 3); see EMG_* below. */
   readonly emgThresholdK?: number;
 }
 
@@ -56,8 +56,20 @@ const FILTER_ORDER = 2;
 export const PEAK_COUNT_MARGIN_DEG = 1;
 /** R2 of a typical relaxed leg (Bajd & Vodovnik 1984, from memory), for the normalised index. */
 export const TYPICAL_RELAXATION_INDEX = 1.6;
-/** Side areas within ±20 % of their total count as balanced (this project's choice). */
-export const AREA_BALANCE_FRACTION = 0.2;
+/**
+ * A side dominates when its area is at least 1.5 times the other's; "balanced" only below that.
+ * Why 1.5: a relaxed leg's lightly damped swing puts about as much area on each side of rest (the
+ * successive half-waves of a lightly damped oscillation shrink by only a few per cent each, so the
+ * first flexion half-swing tips the sum only a little), while a reflex that stops the swing on one
+ * side takes most of the other side's area away. Half as much again on one side is a difference a
+ * reader can see on the chart, and equals a 20 % share of the total ((1.5 − 1) / (1.5 + 1)), the
+ * cut-off used before. Project choice, not a published cut-off.
+ */
+export const DOMINANT_AREA_RATIO = 1.5;
+/** An EMG burst lasts at least this long above the off threshold (s); a reflex burst lasts 50–200 ms (common practice). */
+const EMG_MIN_BURST_S = 0.05;
+/** An EMG burst peaks at least this many times the on threshold's distance above baseline. Project choice. */
+const EMG_CONFIRM_FACTOR = 2;
 const SPIKE_FLOOR_DEG = 3;
 const SHORT_REST_WINDOW_S = 0.5;
 const SPIKE_FLOOR_DPS = 50;
@@ -193,15 +205,16 @@ export function analysePendulumTrace(input: PendulumTraceInput, options: Pendulu
 
   let peakCount = 0;
   let firstPeriodS: number | null = null;
-  let seen = 0;
+  let firstCountingAt = Number.NaN;
   for (const p of flexionPeaks) {
     if (p < firstPeakIndex) continue;
     const [at, value] = refineExtremum(angleDeg, p);
-    const counts = value - restAngle > PEAK_COUNT_MARGIN_DEG;
-    if (counts) peakCount++;
-    // Period: first flexion peak to the next one, if that one still passes rest by the margin.
-    if (seen === 1 && counts) firstPeriodS = (at - firstPeakAt) / fs;
-    seen++;
+    if (!(value - restAngle > PEAK_COUNT_MARGIN_DEG)) continue;
+    peakCount++;
+    // First period: between the first two flexion peaks that pass rest by the margin, whichever they
+    // are (an early catch in an extension-type leg can make the very first maximum fall short).
+    if (peakCount === 1) firstCountingAt = at;
+    else if (peakCount === 2) firstPeriodS = (at - firstCountingAt) / fs;
   }
 
   // Peak flexion velocity of the first downswing (the gyro, when given, measures it directly).
@@ -212,9 +225,12 @@ export function analysePendulumTrace(input: PendulumTraceInput, options: Pendulu
   }
 
   const [flexionArea, extensionArea] = sideAreas(angleDeg, restAngle, releaseIndex, rest.onsetIndex, fs);
-  const total = flexionArea + extensionArea;
-  const balance = total > 0 ? (flexionArea - extensionArea) / total : 0;
-  const dominantSide = balance > AREA_BALANCE_FRACTION ? 'flexion' : balance < -AREA_BALANCE_FRACTION ? 'extension' : 'balanced';
+  const dominantSide =
+    flexionArea >= DOMINANT_AREA_RATIO * extensionArea && flexionArea > 0
+      ? 'flexion'
+      : extensionArea >= DOMINANT_AREA_RATIO * flexionArea && extensionArea > 0
+        ? 'extension'
+        : 'balanced';
 
   // Damped-cosine fit from release to one second into the plateau, at about 100 Hz.
   const fitEnd = Math.min(m, rest.onsetIndex + Math.round(fs));
@@ -530,13 +546,19 @@ function emgSummary(
     warnings.push('EMG: less than 0.1 s of recording before release, so no baseline for burst detection');
     return null;
   }
-  let mean = 0;
-  for (let i = baselineStart; i < baselineEnd; i++) mean += envelope[i];
-  mean /= baselineEnd - baselineStart;
-  let variance = 0;
-  for (let i = baselineStart; i < baselineEnd; i++) variance += (envelope[i] - mean) ** 2;
-  const sd = Math.sqrt(variance / (baselineEnd - baselineStart - 1));
+  // Robust baseline over both silent stretches: the second before release and the rest plateau
+  // after its first half second (the leg hangs still there). Median and MAD ignore a stray blip,
+  // where a mean and SD over one second were pulled by it and set the bar too low or too high.
+  const restFrom = Math.min(rest.endIndex, rest.onsetIndex + Math.round(0.5 * fs));
+  const baseline = new Float64Array(baselineEnd - baselineStart + Math.max(0, rest.endIndex - restFrom));
+  baseline.set(envelope.subarray(baselineStart, baselineEnd));
+  baseline.set(envelope.subarray(restFrom, rest.endIndex), baselineEnd - baselineStart);
+  const mean = medianInPlace(baseline);
+  for (let i = 0; i < baseline.length; i++) baseline[i] = Math.abs(baseline[i] - mean);
+  const sd = 1.4826 * medianInPlace(baseline);
   const threshold = mean + k * sd;
+  const offThreshold = mean + 0.5 * k * sd;
+  const confirm = mean + EMG_CONFIRM_FACTOR * k * sd;
 
   // Swing phases: release → first flexion peak → next extension trough → next flexion peak … → rest.
   const boundaries: number[] = [releaseIndex];
@@ -569,7 +591,14 @@ function emgSummary(
   }));
   phases.push({ phase: 'rest', startS: (rest.onsetIndex - releaseIndex) / fs, endS: (rest.endIndex - releaseIndex) / fs, burstCount: 0 });
 
-  const minRun = Math.max(1, Math.round(0.025 * fs));
+  // Hysteresis and a minimum duration hold the false-alarm rate over a whole recording: a burst
+  // starts when the envelope passes the on threshold, runs while it stays above the lower off
+  // threshold (its onset stays where it passed the on threshold: the zero-phase envelope already
+  // spreads a burst backwards by tens of milliseconds), and counts only when it lasts
+  // EMG_MIN_BURST_S and peaks at EMG_CONFIRM_FACTOR times the on threshold's distance from baseline.
+  // A 6 Hz envelope of noise wanders for tens of milliseconds at a time, so single crossings of
+  // baseline + 3·SD happen every few seconds in a silent muscle; a reflex burst is many times that.
+  const minRun = Math.max(1, Math.round(EMG_MIN_BURST_S * fs));
   const bursts: PendulumEmgBurst[] = [];
   let i = Math.ceil(releaseIndex);
   while (i < rest.endIndex) {
@@ -579,11 +608,11 @@ function emgSummary(
     }
     const onset = i;
     let peak = envelope[i];
-    while (i < envelope.length && envelope[i] >= threshold) {
+    while (i < envelope.length && envelope[i] >= offThreshold) {
       if (envelope[i] > peak) peak = envelope[i];
       i++;
     }
-    if (i - onset < minRun) continue;
+    if (i - onset < minRun || peak < confirm) continue;
     const onsetS = (onset - releaseIndex) / fs;
     let phaseIndex = phases.length - 1;
     for (let p = 0; p < phases.length - 1; p++) {

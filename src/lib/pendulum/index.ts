@@ -1,6 +1,6 @@
 // Public face of src/lib/pendulum: other folders import only this file.
 // Pure TypeScript: no DOM, storage or clock, so it runs in Node, in a Web Worker and in the page.
-export { analysePendulumTrace, ANGLE_CUTOFF_HZ, MIN_SAMPLE_RATE_HZ, PEAK_COUNT_MARGIN_DEG, TYPICAL_RELAXATION_INDEX, AREA_BALANCE_FRACTION } from './analyse-pendulum-trace';
+export { analysePendulumTrace, ANGLE_CUTOFF_HZ, MIN_SAMPLE_RATE_HZ, PEAK_COUNT_MARGIN_DEG, TYPICAL_RELAXATION_INDEX, DOMINANT_AREA_RATIO } from './analyse-pendulum-trace';
 export type { PendulumTraceInput, PendulumOptions } from './analyse-pendulum-trace';
 export { analysePendulumCsv } from './analyse-pendulum-csv';
 export { parsePendulumCsv, ANGLE_LIMITS_DEG } from './parse-pendulum-csv';

@@ -77,10 +77,13 @@ export interface PendulumEmgPhase {
 }
 
 export interface PendulumEmgIndices {
-  /** Mean and SD of the envelope over the pre-release baseline (µV). */
+  /**
+   * Robust centre and spread of the envelope over the silent stretches (the second before release and
+   * the rest plateau, µV): median, and 1.4826 × median absolute deviation (the SD for normal data).
+   */
   readonly baselineMeanUv: number;
   readonly baselineSdUv: number;
-  /** Threshold = mean + k·SD. */
+  /** Burst-on threshold = centre + k·spread (a burst is kept while it stays above centre + k/2·spread). */
   readonly thresholdUv: number;
   readonly thresholdK: number;
   readonly bursts: PendulumEmgBurst[];

@@ -13,3 +13,4 @@ export {
 // The pendulum measures are built by the engine's own helper, for a file or a phone recording alike.
 export { pendulumObservations } from '../pendulum';
 export { romObservation, motionTraceChannels, saveSensorMeasurement, type SensorSaveStore, type SensorSaveInput } from './save-sensor-measurement';
+export { reanalyseSavedRecording, type ReanalysedValue, type ReanalysisOutcome } from './reanalyse-saved-recording';

@@ -276,8 +276,8 @@ function truthIndices(
     a1Deg: a1,
     relaxationIndex: a1 / a0,
     peakCount,
-    // Period between the first two flexion peaks, when the second one still passes rest by > 1°.
-    firstPeriodS: maxima.length >= 2 && angle[maxima[1]] - restDeg > 1 ? timeS[maxima[1]] - timeS[maxima[0]] : null,
+    // Period between the first two flexion peaks that pass rest by > 1° (issue 13: whichever they are).
+    firstPeriodS: ((above) => (above.length >= 2 ? timeS[above[1]] - timeS[above[0]] : null))(maxima.filter((k) => angle[k] - restDeg > 1)),
     peakFlexionVelocityDps: velocity[peakVelocityIndex],
     flexionAreaDegS: flexion,
     extensionAreaDegS: extension,

@@ -10,8 +10,8 @@
 // Rigid-body kinematics: angular velocity θ'·Y; the phone point p = R_Y(θ)·p0 has acceleration
 // α × p + ω × (ω × p) (tangential and centripetal terms); the accelerometer reads that minus gravity,
 // i.e. a − g with g = (0, 0, −9.81): "acceleration including gravity", +9.81 up at rest. Both are
-// expressed on the device axes, then the rotation rate is named per W3C (alpha about z, beta about x,
-// gamma about y). Sensor errors: white noise, a constant bias per axis with a slow drift for the gyro,
+// expressed on the device axes, then the rotation rate is named per the current W3C text (alpha about x,
+// beta about y, gamma about z). Sensor errors: white noise, a constant bias per axis with a slow drift for the gyro,
 // a bias per axis for the accelerometer, quantisation to the 0.1 °/s and 0.1 m/s² steps that browsers
 // apply for privacy (W3C Device Orientation and Motion: precision is limited to resist
 // fingerprinting; the 0.1 steps from memory), timing jitter.
@@ -187,8 +187,8 @@ export function deviceMotionFromSwing(trace: SimulatedTrace, options: DeviceMoti
       const w = mounting[axis] * shankW[0] + mounting[3 + axis] * shankW[1] + mounting[6 + axis] * shankW[2];
       const gyro = w + errors.gyroBiasDps[axis] + errors.gyroDriftDpsPerS * elapsed + errors.gyroNoiseDps * gaussian(rng);
       const acc = f + errors.accBiasMs2[axis] + errors.accNoiseMs2 * gaussian(rng);
-      // Device axis order x, y, z → rotation rate beta, gamma, alpha (W3C).
-      const rateColumn = axis === 0 ? 2 : axis === 1 ? 3 : 1;
+      // Device axis order x, y, z → rotation rate alpha, beta, gamma (current W3C text).
+      const rateColumn = 1 + axis;
       cols[rateColumn][i] = quantiseTo(gyro, errors.gyroStepDps);
       cols[4 + axis][i] = quantiseTo(acc, errors.accStepMs2);
     }
@@ -213,7 +213,7 @@ export function staticDeviceMotion(orientation: Matrix3, durationS: number, opti
       // World specific force at rest is (0, 0, +g); device component = column `axis` · (0,0,g).
       const f = orientation[6 + axis] * GRAVITY_M_S2;
       cols[4 + axis][i] = quantiseTo(f + e.accBiasMs2[axis] + e.accNoiseMs2 * gaussian(rng), e.accStepMs2);
-      const rateColumn = axis === 0 ? 2 : axis === 1 ? 3 : 1;
+      const rateColumn = 1 + axis;
       cols[rateColumn][i] = quantiseTo(e.gyroBiasDps[axis] + (e.gyroNoiseDps + (options.tremorDps ?? 0)) * gaussian(rng), e.gyroStepDps);
     }
   }

@@ -2,20 +2,18 @@
 // Every file is invented: a simulated leg (test/reference/pendulum/simulator.ts) seen by a simulated phone.
 import { writeFileSync } from 'node:fs';
 import { formatMotionCsv, type MotionRecording } from '../../../src/lib/sensors';
-import { mulberry32, reflexForSeverity, simulatePendulum } from '../pendulum/simulator';
+import { mulberry32, simulatePendulum } from '../pendulum/simulator';
 import { deviceMotionFromSwing, randomRotation, staticDeviceMotion, typicalPhoneErrors, axisAngle } from './device-motion-simulator';
+import { phonePendulumCases, simulatePhonePendulum } from './phone-pendulum-simulator';
 
 const dir = new URL('../../fixtures/sensors/', import.meta.url).pathname;
 const write = (name: string, text: string) => writeFileSync(`${dir}${name}`, text);
 
-const healthy = simulatePendulum({ holdS: 1.5, durationS: 10 });
-const rngA = mulberry32(901);
-const phoneA = deviceMotionFromSwing(healthy, { mounting: randomRotation(rngA), offsetM: 0.2, heightM: 0.05, rateHz: 60, errors: typicalPhoneErrors(rngA), seed: 902 });
+// Swinging legs from the independent phone simulator (hand-held start, browsers' axis order).
+const cases = phonePendulumCases(14, 901);
+const phoneA = simulatePhonePendulum({ ...cases[7], rateHz: 60 });
 write('healthy-phone-60hz.csv', formatMotionCsv(phoneA.recording));
-
-const severe = simulatePendulum({ holdS: 1.5, durationS: 8, reflex: reflexForSeverity('extensor', 'severe') });
-const rngB = mulberry32(911);
-const phoneB = deviceMotionFromSwing(severe, { mounting: randomRotation(rngB), offsetM: 0.25, heightM: 0.04, rateHz: 30, errors: typicalPhoneErrors(rngB), seed: 912 });
+const phoneB = simulatePhonePendulum({ ...cases[3], rateHz: 30, drops: [] });
 write('extensor-severe-phone-30hz.csv', formatMotionCsv(phoneB.recording));
 
 // Still throughout: no swing.

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { analysePendulumCsv, analysePendulumTrace, PendulumInputError } from '../../../src/lib/pendulum/index';
-import { mulberry32, reflexForSeverity, sampleTrace, simulatePendulum, toCsv, withEmg } from '../../reference/pendulum/simulator';
+import { gaussian, mulberry32, reflexForSeverity, sampleTrace, simulatePendulum, toCsv, withEmg } from '../../reference/pendulum/simulator';
 
 const relaxed = sampleTrace(simulatePendulum({ startAngleDeg: 10, durationS: 12 }), 100);
 
@@ -107,5 +107,78 @@ describe('warnings and patterns', () => {
     const direct = analysePendulumTrace({ timeS: relaxed.timeS, angleDeg: relaxed.angleDeg }).indices;
     expect(fromCsv.relaxationIndex).toBeCloseTo(direct.relaxationIndex, 5);
     expect(() => analysePendulumCsv('time_s,angle_deg\n', 'empty.csv')).toThrow(/empty\.csv: no data rows/);
+  });
+});
+
+describe('first period and dominant side (issue 13)', () => {
+  // A hand-drawn trace: held at 5°, an early catch at 40° (below rest), then swings about a 60° rest.
+  // Between successive extremes a half-cosine (zero velocity at each extreme). Flexion peaks above
+  // rest + 1°: 85° at 2.0 s and 72° at 3.1 s, so the first period is 1.1 s by construction.
+  const extremes: Array<[number, number]> = [
+    [0, 5], [1, 5], [1.3, 40], [1.45, 37], [2.0, 85], [2.55, 45], [3.1, 72], [3.65, 52], [4.2, 64], [4.75, 57], [5.3, 60.8], [5.85, 59.6], [6.4, 60], [10, 60],
+  ];
+  const rate = 200;
+  const n = 10 * rate + 1;
+  const timeS = new Float64Array(n);
+  const angleDeg = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const t = i / rate;
+    let k = 0;
+    while (k < extremes.length - 2 && t > extremes[k + 1][0]) k++;
+    const [t0, a0] = extremes[k];
+    const [t1, a1] = extremes[k + 1];
+    const u = Math.min(1, Math.max(0, (t - t0) / (t1 - t0)));
+    timeS[i] = t;
+    angleDeg[i] = a0 + (a1 - a0) * 0.5 * (1 - Math.cos(Math.PI * u));
+  }
+  const x = analysePendulumTrace({ timeS, angleDeg }).indices;
+  it('reports the first period between the first two flexion peaks that stand > 1° above rest, past an early catch', () => {
+    expect(x.peakCount).toBe(3);
+    expect(x.firstPeriodS).not.toBeNull();
+    expect(Math.abs((x.firstPeriodS as number) - 1.1)).toBeLessThan(0.02);
+  });
+  it('names the dominant side exactly when one area is at least 1.5 times the other', () => {
+    const ratio = Math.max(x.flexionAreaDegS, x.extensionAreaDegS) / Math.min(x.flexionAreaDegS, x.extensionAreaDegS);
+    const named = x.flexionAreaDegS >= x.extensionAreaDegS ? 'flexion' : 'extension';
+    expect(x.dominantSide).toBe(ratio >= 1.5 ? named : 'balanced');
+  });
+});
+
+describe('EMG bursts hold their false-alarm rate over long silent stretches (issue 13)', () => {
+  // Independent EMG: resting level 3–6 µV (Gaussian) that wanders by ±35 % over tens of seconds (skin
+  // and electrode contact change), 50 Hz mains hum of 1–8 µV whose amplitude drifts too, on a relaxed
+  // leg's 30 s recording; bursts added as 150 ms of 10× the resting level.
+  const leg = sampleTrace(simulatePendulum({ durationS: 30 }), 1000);
+  const releaseS = analysePendulumTrace({ timeS: leg.timeS, angleDeg: leg.angleDeg }).indices.releaseTimeS;
+  const emgFor = (seed: number, burstStartsS: readonly number[]) => {
+    const rng = mulberry32(seed);
+    const resting = 3 + 3 * rng();
+    const hum = 1 + 7 * rng();
+    const drift = 2 * Math.PI * (0.05 + 0.2 * rng());
+    const wander = 2 * Math.PI * (0.03 + 0.07 * rng());
+    const phase = 2 * Math.PI * rng();
+    const emg = new Float64Array(leg.timeS.length);
+    for (let i = 0; i < emg.length; i++) {
+      const t = leg.timeS[i];
+      const inBurst = burstStartsS.some((b) => t >= releaseS + b && t < releaseS + b + 0.15);
+      emg[i] = resting * (1 + 0.35 * Math.sin(wander * t + phase)) * (inBurst ? 10 : 1) * gaussian(rng) + hum * (1 + 0.3 * Math.sin(drift * t)) * Math.sin(2 * Math.PI * 50 * t);
+    }
+    return emg;
+  };
+  it('finds no burst in 12 silent 30 s recordings with hum and noise', () => {
+    let falseBursts = 0;
+    for (let seed = 1; seed <= 12; seed++) {
+      const x = analysePendulumTrace({ timeS: leg.timeS, angleDeg: leg.angleDeg, emgUv: emgFor(seed, []) }).indices.emg;
+      falseBursts += x?.bursts.length ?? 0;
+    }
+    expect(falseBursts).toBe(0);
+  });
+  it('still finds every clear burst, its onset within 60 ms, in the same noise', () => {
+    const starts = [0.08, 4, 9];
+    for (let seed = 21; seed <= 26; seed++) {
+      const x = analysePendulumTrace({ timeS: leg.timeS, angleDeg: leg.angleDeg, emgUv: emgFor(seed, starts) }).indices.emg;
+      expect(x?.bursts.length).toBe(3);
+      x?.bursts.forEach((b, j) => expect(Math.abs(b.onsetS - starts[j])).toBeLessThan(0.06));
+    }
   });
 });

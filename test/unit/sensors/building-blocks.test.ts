@@ -5,19 +5,20 @@ import {
   axisAngleToVerticalDeg,
   deviceAngularVelocity,
   LiveSwingMonitor,
-  maskRuns,
   MotionBuffer,
   motionTiming,
   principalAxis,
-  quietMask,
+  rateAxisOrder,
+  reconstructKneeAngle,
   steadyReading,
   wrap180,
 } from '../../../src/lib/sensors';
 import { axisAngle, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
+import { phonePendulumCases, seededUniform, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 
-describe('W3C axes (Device Orientation and Motion spec: alpha about z, beta about x, gamma about y; at rest the accelerometer reads +g upward)', () => {
-  it('maps rotationRate (alpha, beta, gamma) to the angular velocity on (x, y, z) as (beta, gamma, alpha)', () => {
-    const rec = { timeMs: Float64Array.of(0), rateAlphaDps: Float64Array.of(3), rateBetaDps: Float64Array.of(1), rateGammaDps: Float64Array.of(2), accXMs2: Float64Array.of(0), accYMs2: Float64Array.of(0), accZMs2: Float64Array.of(9.8) };
+describe('W3C axes (current Device Orientation and Motion text, w3c/deviceorientation PR #43 / issue #44: rotationRate alpha about x, beta about y, gamma about z; at rest the accelerometer reads +g upward)', () => {
+  it('maps rotationRate (alpha, beta, gamma) to the angular velocity on (x, y, z) as (alpha, beta, gamma), not the older (beta, gamma, alpha)', () => {
+    const rec = { timeMs: Float64Array.of(0), rateAlphaDps: Float64Array.of(1), rateBetaDps: Float64Array.of(2), rateGammaDps: Float64Array.of(3), accXMs2: Float64Array.of(0), accYMs2: Float64Array.of(0), accZMs2: Float64Array.of(9.8) };
     expect(Array.from(deviceAngularVelocity(rec, 0, new Float64Array(3)))).toEqual([1, 2, 3]);
   });
   it('a phone lying flat, screen up, reads (0, 0, +9.81) and its long edge is 90° from the vertical; standing upright, 0°', () => {
@@ -71,27 +72,25 @@ describe('motionTiming', () => {
     expect(x.droppedSamples).toBe(4);
     expect(x.longestGapMs).toBe(50);
   });
+  it('±3 ms jitter at 100 Hz is not reported as dropped samples; a real run of 3 missing events still is (seeded, 20 recordings)', () => {
+    // Issue 13: a 16 ms interval after a 4 ms one is jitter. Old per-gap rule (k ≥ 1.5 median) counted it.
+    for (let seed = 1; seed <= 20; seed++) {
+      const rng = seededUniform(seed);
+      const clean: number[] = [];
+      const gapped: number[] = [];
+      for (let i = 0; i < 1500; i++) {
+        const t = 1234 + 10 * i + 3 * (2 * rng() - 1);
+        clean.push(t);
+        if (i < 700 || i > 702) gapped.push(t);
+      }
+      expect(motionTiming(Float64Array.from(clean)).droppedSamples).toBe(0);
+      expect(motionTiming(Float64Array.from(gapped)).droppedSamples).toBe(3);
+      expect(motionTiming(Float64Array.from(clean)).rateHz).toBeCloseTo(100, 1);
+    }
+  });
   it('n = 0 and n = 1 give NaN rate and no drops', () => {
     expect(motionTiming(new Float64Array(0)).rateHz).toBeNaN();
     expect(motionTiming(Float64Array.of(5)).droppedSamples).toBe(0);
-  });
-});
-
-describe('quietMask and maskRuns', () => {
-  it('marks samples whose whole ±window is slow and near g', () => {
-    const n = 21;
-    const t = Float64Array.from({ length: n }, (_, i) => i * 10);
-    const rate = new Float64Array(n);
-    const acc = new Float64Array(n).fill(9.8);
-    rate[10] = 50;
-    const mask = quietMask(t, rate, acc, 9.8, 8, 0.5, 20, new Uint8Array(n));
-    expect(maskRuns(mask)).toEqual([
-      [0, 8],
-      [13, 21],
-    ]);
-  });
-  it('empty input gives no runs', () => {
-    expect(maskRuns(quietMask(new Float64Array(0), new Float64Array(0), new Float64Array(0), 9.8, 8, 0.5, 20, new Uint8Array(0)))).toEqual([]);
   });
 });
 
@@ -152,10 +151,10 @@ describe('LiveSwingMonitor', () => {
   it('integrates a steady rotation about any axis into its angle, and stops 2 s after the leg comes to rest', () => {
     const m = new LiveSwingMonitor();
     const axis = [0.48, -0.6, 0.64];
-    // 90 °/s for 1 s at 100 Hz about `axis` (on x, y, z = beta, gamma, alpha).
+    // 90 °/s for 1 s at 100 Hz about `axis` (on x, y, z = alpha, beta, gamma).
     let t = 0;
     m.push(t, 0, 0, 0);
-    for (let i = 1; i <= 100; i++) m.push((t = i * 10), 90 * axis[2], 90 * axis[0], 90 * axis[1]);
+    for (let i = 1; i <= 100; i++) m.push((t = i * 10), 90 * axis[0], 90 * axis[1], 90 * axis[2]);
     expect(m.state.angleDeg).toBeCloseTo(90, 6);
     expect(m.state.moved).toBe(true);
     for (let i = 1; i <= 199; i++) m.push(t + i * 10, 0, 0, 0);
@@ -165,9 +164,36 @@ describe('LiveSwingMonitor', () => {
     expect(m.state.shouldStop).toBe(true);
     expect(m.state.angleDeg).toBeCloseTo(90, 6);
   });
+  it('removes its bias on the axis the current W3C text names: a 70 °/s bias about x cancels alpha, not gamma', () => {
+    const m = new LiveSwingMonitor([70, 0, 0]);
+    for (let i = 0; i < 50; i++) m.push(i * 10, 70, 0, 0);
+    expect(m.state.moved).toBe(false);
+    expect(m.state.angleDeg).toBeCloseTo(0, 9);
+  });
   it('never stops before the leg has moved', () => {
     const m = new LiveSwingMonitor();
     for (let i = 0; i < 500; i++) m.push(i * 10, 0.5, 0.5, 0.5);
     expect(m.state.shouldStop).toBe(false);
+  });
+});
+
+describe('rateAxisOrder: the older z, x, y column order recognised from the data (a hinge keeps the acceleration along its axis constant)', () => {
+  // Hinge physics, not code output: any rotation-rate column order other than the one the file was
+  // written in moves the gyro's principal axis off the knee axis.
+  const current = simulatePhonePendulum({ ...phonePendulumCases(3, 77)[0], rollDeg: 30, rateHz: 100 }).recording;
+  // The same samples written the older way: alpha = rate about z, beta = about x, gamma = about y.
+  const legacy = { ...current, rateAlphaDps: current.rateGammaDps, rateBetaDps: current.rateAlphaDps, rateGammaDps: current.rateBetaDps };
+  it('says "current" for a file in the current order and "legacy" for the same data in the older order', () => {
+    expect(rateAxisOrder(current).order).toBe('current');
+    expect(rateAxisOrder(legacy).order).toBe('legacy');
+  });
+  it('reconstructs the same angle from both files and warns only about the older one', () => {
+    const a = reconstructKneeAngle(current);
+    const b = reconstructKneeAngle(legacy);
+    expect(a.warnings.join(' ')).not.toMatch(/older order/);
+    expect(b.warnings.join(' ')).toMatch(/older order/);
+    let worst = 0;
+    for (let i = 0; i < a.angleDeg.length; i++) worst = Math.max(worst, Math.abs(a.angleDeg[i] - b.angleDeg[i]));
+    expect(worst).toBeLessThan(0.01);
   });
 });

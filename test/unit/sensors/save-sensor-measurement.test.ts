@@ -2,8 +2,7 @@
 // validation and the measure catalogue.
 import { describe, expect, it } from 'vitest';
 import { analyseMotionRecording, motionTraceChannels, pendulumObservations, romObservation, saveSensorMeasurement, type SensorSaveStore } from '../../../src/lib/sensors';
-import { mulberry32, simulatePendulum } from '../../reference/pendulum/simulator';
-import { deviceMotionFromSwing, randomRotation, typicalPhoneErrors } from '../../reference/sensors/device-motion-simulator';
+import { phonePendulumCases, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 import { saveAssessment, type KinnoteStore } from '../../../src/lib/store';
 import { freshStore } from '../store/store-helpers';
 
@@ -18,8 +17,7 @@ async function storeWithPatient() {
 describe('saveSensorMeasurement', () => {
   it('saves a phone pendulum test: assessment, raw trace with the angle, five pendulum observations linked to it', async () => {
     const { store, patient } = await storeWithPatient();
-    const rng = mulberry32(4);
-    const stream = deviceMotionFromSwing(simulatePendulum({ holdS: 1.5, durationS: 10 }), { mounting: randomRotation(rng), offsetM: 0.2, heightM: 0.05, rateHz: 60, errors: typicalPhoneErrors(rng), seed: 4 });
+    const stream = simulatePhonePendulum({ ...phonePendulumCases(1, 4)[0], rateHz: 60 });
     const { reconstruction, analysis } = analyseMotionRecording(stream.recording);
     const performedAt = '2025-04-02T10:00:00.000Z';
     let skipped: string[] = [];

@@ -26,7 +26,8 @@ export function analyseMotionRecording(recording: MotionRecording, options: Knee
       { fileName: file },
     );
   } catch (error) {
-    if (error instanceof PendulumInputError) throw new MotionInputError(file, error.line, error.reason);
+    // The trace is the phone's reconstruction, not a file the user wrote: no row to name.
+    if (error instanceof PendulumInputError) throw new MotionInputError(file, null, `the knee angle reconstructed from the phone: ${error.reason}`);
     throw error;
   }
   const indices = { ...analysis.indices, warnings: [...reconstruction.warnings, ...analysis.indices.warnings] };

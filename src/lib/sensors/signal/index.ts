@@ -1,16 +1,15 @@
 // Pure signal code of src/lib/sensors: no DOM, no clock, no storage. Runs in Node, workers and the page.
 export { MotionInputError } from './motion-input-error';
-export { MOTION_CSV_COLUMNS, STANDARD_GRAVITY_MS2, deviceAngularVelocity, motionSampleCount, type MotionRecording } from './motion-recording';
+export { rateAxisOrder, angularVelocityInOrder, type RateAxisOrder, type RateAxisOrderEvidence } from './rate-axis-order';
+export { MOTION_CSV_COLUMNS, RATE_AXES_NOTE, STANDARD_GRAVITY_MS2, deviceAngularVelocity, motionSampleCount, type MotionRecording } from './motion-recording';
 export { parseMotionCsv } from './parse-motion-csv';
 export { formatMotionCsv, formatAngleTraceCsv } from './format-motion-csv';
 export { motionTiming, LOW_RATE_HZ, type MotionTiming } from './motion-timing';
 export { principalAxis, type PrincipalAxis } from './principal-axis';
-export { quietMask, maskRuns } from './quiet-mask';
 export {
   reconstructKneeAngle,
-  complementaryPass,
   wrap180,
-  GRAVITY_TIME_CONSTANT_S,
+  MOUNTING_TILT_BOUND_DEG,
   type KneeAngleOptions,
   type KneeAngleReconstruction,
 } from './reconstruct-knee-angle';

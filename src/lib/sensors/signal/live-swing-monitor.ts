@@ -47,9 +47,10 @@ export class LiveSwingMonitor {
 
   /** Feeds one sample (time in ms; W3C rotationRate alpha, beta, gamma in deg/s). */
   push(timeMs: number, alphaDps: number, betaDps: number, gammaDps: number): LiveSwingState {
-    const wx = betaDps - this.biasDps[0];
-    const wy = gammaDps - this.biasDps[1];
-    const wz = alphaDps - this.biasDps[2];
+    // Current W3C text: alpha about x, beta about y, gamma about z (see MotionRecording).
+    const wx = alphaDps - this.biasDps[0];
+    const wy = betaDps - this.biasDps[1];
+    const wz = gammaDps - this.biasDps[2];
     const rate = Math.hypot(wx, wy, wz);
     if (Number.isFinite(this.#lastMs) && timeMs > this.#lastMs) {
       const dt = (timeMs - this.#lastMs) / 1000;

@@ -4,9 +4,16 @@
  *
  * - Device axes: x to the right of the screen, y up along the screen (towards the top edge), z out of
  *   the screen towards the viewer; right-handed.
- * - `rotationRate` in degrees per second: alpha about z, beta about x, gamma about y (right-hand rule:
- *   positive counter-clockwise seen from the axis tip). So the angular-velocity vector on (x, y, z) is
- *   (beta, gamma, alpha) — see deviceAngularVelocity.
+ * - `rotationRate` in degrees per second: **alpha about x, beta about y, gamma about z** (right-hand
+ *   rule: positive counter-clockwise seen from the axis tip). So the angular-velocity vector on
+ *   (x, y, z) is (alpha, beta, gamma) — see deviceAngularVelocity. The current W3C text (Device
+ *   Orientation and Motion, the DeviceMotionEventRotationRate section after w3c/deviceorientation
+ *   PR #43 for issue #44) says: "alpha: The rate of rotation around the X axis", "beta: … around the
+ *   Y axis", "gamma: … around the Z axis" (quoted from memory of the spec text; the change was made
+ *   because Chrome and Firefox on Android and Safari on iOS all deliver it that way). The older text
+ *   paired alpha with z, beta with x and gamma with y; Kinnote read it that way until schema
+ *   version 3 (see RATE_AXES_NOTE). reconstructKneeAngle detects files written in that older order
+ *   from the data and says so.
  * - `accelerationIncludingGravity` in m/s²: what an accelerometer measures, the device's acceleration
  *   minus gravity ("g-force"): a phone lying still, screen up, reads (0, 0, +9.81).
  * - Time stamps in milliseconds (Event.timeStamp, or whatever clock the file used), strictly increasing.
@@ -37,15 +44,19 @@ export const MOTION_CSV_COLUMNS = [
 /** Standard gravity, 9.80665 m/s² (CGPM 1901, the conventional value). */
 export const STANDARD_GRAVITY_MS2 = 9.80665;
 
+/** One sentence for documents and messages: how the rotation-rate columns map to the device axes. */
+export const RATE_AXES_NOTE =
+  'rate_alpha_dps is the rotation rate about the device x axis, rate_beta_dps about y, rate_gamma_dps about z (current W3C Device Orientation and Motion text, as Chrome and Firefox on Android and Safari on iOS deliver it)';
+
 /**
  * Writes sample i's angular velocity on the device axes (x, y, z) in deg/s into `out`:
- * (beta, gamma, alpha), because the W3C rotationRate names rotation about x "beta", about y
- * "gamma" and about z "alpha". Returns `out`.
+ * (alpha, beta, gamma), because the current W3C rotationRate text names the rate around the X axis
+ * "alpha", around Y "beta" and around Z "gamma" (see the MotionRecording comment). Returns `out`.
  */
 export function deviceAngularVelocity(recording: MotionRecording, i: number, out: Float64Array): Float64Array {
-  out[0] = recording.rateBetaDps[i];
-  out[1] = recording.rateGammaDps[i];
-  out[2] = recording.rateAlphaDps[i];
+  out[0] = recording.rateAlphaDps[i];
+  out[1] = recording.rateBetaDps[i];
+  out[2] = recording.rateGammaDps[i];
   return out;
 }
 

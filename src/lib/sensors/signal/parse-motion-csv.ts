@@ -11,7 +11,8 @@ const MAX_ACCELERATION_MS2 = 2000;
  *
  * Format: a header naming the seven columns of MOTION_CSV_COLUMNS (any order, case-insensitive):
  * `time_ms, rate_alpha_dps, rate_beta_dps, rate_gamma_dps, acc_x_ms2, acc_y_ms2, acc_z_ms2`, then one
- * row per sample. Comma-separated; a field may be wrapped in double quotes (RFC 4180); blank lines and
+ * row per sample. Rotation rates follow the current W3C text: rate_alpha_dps about device x,
+ * rate_beta_dps about y, rate_gamma_dps about z (RATE_AXES_NOTE). Comma-separated; a field may be wrapped in double quotes (RFC 4180); blank lines and
  * lines starting with `#` are skipped but counted, so row numbers are file line numbers.
  *
  * Cost: one pass, O(rows). Throws MotionInputError (file, row, reason) for: no header or no data rows,

@@ -2,110 +2,144 @@ import { MotionInputError } from './motion-input-error';
 import { motionSampleCount, STANDARD_GRAVITY_MS2, type MotionRecording } from './motion-recording';
 import { LOW_RATE_HZ, motionTiming, type MotionTiming } from './motion-timing';
 import { principalAxis } from './principal-axis';
-import { maskRuns, quietMask } from './quiet-mask';
+import { rateAxisOrder, type RateAxisOrder } from './rate-axis-order';
 
 export interface KneeAngleOptions {
   /** Name used in refusal messages. */
   readonly fileName?: string;
-  /** Knee flexion at the held start (deg); default 0 = full extension. */
+  /**
+   * Knee flexion at the held start (deg), when the examiner knows it better than the phone (e.g. from a
+   * goniometer). Default: the phone's own reading of the shank against gravity.
+   */
   readonly startAngleDeg?: number;
-  /** Complementary-filter crossover time constant (s); default GRAVITY_TIME_CONSTANT_S. */
-  readonly gravityTimeConstantS?: number;
 }
 
 /** The reconstructed knee angle and what was learnt about the sensor on the way. */
 export interface KneeAngleReconstruction {
   /** Time stamps in seconds, in the recording's own time base (time_ms / 1000). */
   readonly timeS: Float64Array;
-  /** Knee flexion (deg): startAngleDeg at the held start, increasing as the knee bends. */
+  /** Knee flexion (deg, 0 = straight with a level thigh), increasing as the knee bends. */
   readonly angleDeg: Float64Array;
-  /** Gyro-only angle (bias and its drift removed, no other use of gravity), for comparison. */
+  /** Gyro-only angle (rest bias removed, no gravity correction), from the same start, for comparison. */
   readonly gyroAngleDeg: Float64Array;
   /** Knee rotation axis on the device axes (x, y, z), oriented so that flexion is positive. */
   readonly axis: Float64Array;
   /** Share of the gyro's second moment about that axis (1 = a pure hinge). */
   readonly axisShare: number;
-  /** Gyro bias about the axis (deg/s) in the held start and in the final rest (NaN when no rest). */
+  /** Gyro rate about the axis (deg/s) averaged over the held start, and over the final rest (the bias used). */
   readonly biasStartDps: number;
   readonly biasEndDps: number;
-  /** Held start and final rest as [start, end) sample ranges; rest null when none was found. */
+  /** Held start and final rest as [start, end) sample ranges. */
   readonly hold: readonly [number, number];
-  readonly rest: readonly [number, number] | null;
-  /** Elevation of the phone's long edge (device y) above the horizontal during the hold (deg). */
-  readonly phoneTiltAtStartDeg: number;
+  readonly rest: readonly [number, number];
+  /** Sample where the first fall starts (the rotation rate first rises past ONSET_RATE_DPS). */
+  readonly fallOnset: number;
+  /** Knee flexion at the held start, from gravity along the shank (or the caller's startAngleDeg). */
+  readonly startAngleDeg: number;
+  /** Which device axis was taken as the shank's line ('+y' = the phone's top edge points to the ankle). */
+  readonly shankAxis: '+x' | '-x' | '+y' | '-y';
+  /**
+   * Bound (deg) on absolute angles (start, rest, peaks) from the phone's tilt on the shank within the
+   * swing plane, which no reading reveals: MOUNTING_TILT_BOUND_DEG. A0, A1 and R2 are differences and
+   * do not carry it.
+   */
+  readonly absoluteAngleBoundDeg: number;
   /** Angle between the knee axis and the horizontal during the hold (deg); 0 for a level thigh. */
   readonly axisTiltDeg: number;
   /** Rest minus start: by gravity alone and by the gyro alone (deg); their gap says how well they agree. */
   readonly gravityExcursionDeg: number;
   readonly gyroExcursionDeg: number;
-  /** Fraction of samples where gravity was trusted. */
-  readonly gravityTrustedFraction: number;
+  /** The rotation-rate column order used ('current' W3C text unless the data showed the older one). */
+  readonly rateOrder: RateAxisOrder;
   readonly timing: MotionTiming;
-  /** Plain-language notes on the recording (low rate, dropped samples, disagreement, …). */
+  /** Plain-language notes on the recording (low rate, dropped samples, older column order, …). */
   readonly warnings: string[];
 }
 
-/**
- * Complementary-filter time constant: 1 s. Why: the accelerometer's angle is exact on average while
- * the leg is quiet but noisy sample to sample (≈ 0.3° at 0.05 m/s² noise); the gyro is smooth but
- * drifts by its residual bias (≈ 0.01–0.1 °/s after the still-period estimate). With τ = 1 s the gyro
- * carries everything faster than about 0.16 Hz and gravity pins the level. Project choice.
- */
-export const GRAVITY_TIME_CONSTANT_S = 1;
-/** Still: |ω| under 8 °/s (bias included) and |a| within 0.5 m/s² of g, over ±0.15 s. Common practice. */
-const STILL_RATE_DPS = 8;
-const STILL_HALF_WINDOW_MS = 150;
-const GRAVITY_TOLERANCE_MS2 = 0.5;
-/** Gravity is trusted when |ω − bias| stays under 10 °/s over ±0.5 s (about one swing period). */
-const TRUST_RATE_DPS = 10;
-const TRUST_HALF_WINDOW_MS = 500;
-/** Samples faster than this (bias removed) count as motion for the axis estimate. */
+/** Smoothing of the rate magnitude for finding the first fall: ±20 ms moving mean. */
+const SMOOTH_HALF_WINDOW_MS = 20;
+/** A fall reaches hundreds of deg/s; anything slower than this is no pendulum test (common practice). */
+const MIN_FALL_RATE_DPS = 60;
+/** The first fall is the first stretch above 30 % of the fastest rate (and above MIN_FALL_RATE_DPS). */
+const FALL_SHARE = 0.3;
+/** The fall starts where the smoothed rate last rose past this: well above a held leg's tremor and sway
+ * (≤ 3 deg/s), bias (≤ 2.6 deg/s in magnitude) and smoothed noise. */
+const ONSET_RATE_DPS = 15;
+/** The hold is judged over up to 1 s ending 0.1 s before the onset, and needs at least 0.3 s. */
+const HOLD_GAP_MS = 100;
+const HOLD_MAX_MS = 1000;
+const HOLD_MIN_MS = 300;
+/** Averaging block for judging a hold or a rest on means rather than single samples. */
+const HOLD_BLOCK_MS = 100;
+const REST_BLOCK_MS = 250;
+/** A hold: every 0.1 s mean of the rotation rate within 8 deg/s of the hold's mean (hand sway reaches ~3). */
+const HOLD_RATE_SPREAD_DPS = 8;
+/** A rest: every 0.25 s mean within 4 deg/s of the rest's mean (a 0.5° wobble at 1 Hz reaches ~3). */
+const REST_RATE_SPREAD_DPS = 4;
+/** The final rest is the last 1.5 s (at least 1 s of samples). */
+const REST_MS = 1500;
+const REST_MIN_MS = 1000;
+/** Mean acceleration of a hold or rest within this of g (m/s²): otherwise the phone was being carried. */
+const GRAVITY_TOLERANCE_MS2 = 0.6;
+/** Samples faster than this (bias removed) count as swing for the axis estimate. */
 const MOTION_RATE_DPS = 20;
-/** A held start needs at least this long still (ms). */
-const MIN_HOLD_MS = 200;
+/** Knee-axis share under which the rotation is no hinge: refused; under the second, a warning. */
+const MIN_AXIS_SHARE = 0.8;
+const WARN_AXIS_SHARE = 0.95;
+/** Knee axis farther than this from level: gravity cannot give the shank's angle. */
+const MAX_AXIS_TILT_DEG = 30;
+/** Gyro and gravity must agree on start-to-rest within this (deg); a bias error of 0.5 deg/s over 10 s is 5°. */
+const MAX_DISAGREEMENT_DEG = 8;
+/** Where a pendulum test starts: candidates for the shank's line are judged by their distance from 15°. */
+const EXPECTED_START_DEG = 15;
+const START_RANGE_DEG: readonly [number, number] = [-25, 60];
+/** The first fall must bend the knee by at least this (deg); even a severe catch lets it drop more. */
+const MIN_FIRST_FALL_DEG = 10;
+/** A hanging leg rests in this range (deg of flexion). */
+const REST_RANGE_DEG: readonly [number, number] = [20, 130];
+/**
+ * How far the phone's long edge may lie off the shank's line within the swing plane (deg): the
+ * placement instruction ("along the shin bone") allows 15°; the tibia's front surface itself is a few
+ * degrees off the knee–ankle line (from memory). Project choice; no reading can measure it.
+ */
+export const MOUNTING_TILT_BOUND_DEG = 15;
 const DEG = Math.PI / 180;
 
 /**
- * Reconstructs the knee flexion angle of a seated pendulum test from a phone strapped to the shank.
+ * Reconstructs the knee flexion angle of a seated pendulum test from a phone strapped to the shank,
+ * recorded with a hand-held start.
  *
  * Method (this project's design; the ingredients are standard inertial-sensing practice):
- * 1. Still periods: quietMask (|ω| < 8 °/s, |a| ≈ g, ±0.15 s). The first still run before any motion
- *    is the held start (the examiner holds the leg straight); the last still run is the rest.
- * 2. Gyro bias: mean rotation-rate vector over the hold; its slow drift (a MEMS bias moves with
- *    temperature) as a linear ramp to the rest, sized so that the gyro's hold-to-rest excursion
- *    matches gravity's (step 5).
- * 3. Knee axis: the knee is a hinge, so the bias-free angular-velocity vectors all lie on one line
- *    through the origin. Its direction is the dominant eigenvector of their (uncentred) second-moment
- *    matrix Σ ω ωᵀ over motion samples, found by power iteration (principalAxis). Any phone
- *    orientation on the shank works; a low eigenvalue share warns of twisting or a slipping strap.
- * 4. Gravity angle: the accelerometer vector projected on the plane perpendicular to the axis turns
- *    by −θ when the shank turns by +θ about the axis (a world-fixed vector seen from the body); its
- *    angle from the held start is the shank's rotation. Projecting removes the phone's roll on the
- *    shin, and measuring from the hold removes its pitch: the mounting tilt cancels.
- * 5. Fusion: a complementary filter (gyro integration, pulled towards the gravity angle with time
- *    constant τ only where gravity is trusted: slow rotation over ±0.5 s and |a| ≈ g), run forward
- *    and backward and blended by how long each pass has integrated since its last trusted sample
- *    (each pass's drift grows with that time), which makes it zero-lag and drift-free at both ends.
- *    Why not a Kalman filter: with one rotational degree of freedom and the bias already pinned by
- *    still periods, a Kalman filter adds a noise model whose accelerometer term during the swing
- *    (tangential α·r and centripetal ω²·r, up to 5 m/s² at 0.25 m from the knee) is neither white nor
- *    Gaussian; gating gravity out explicitly does the same job with one interpretable parameter.
- * 6. Sign and zero: the axis is oriented so that the leg's net motion from hold to rest is positive
- *    (the pendulum test starts extended and ends hanging), and the held start reads startAngleDeg.
+ * 1. First fall first: the rotation-rate magnitude, smoothed over ±20 ms, first passes 30 % of its
+ *    maximum (and 60 deg/s) in the fall; walking back to where it rose past 15 deg/s gives the onset.
+ *    Nothing before that is assumed still sample by sample: a held leg shakes with tremor and sway.
+ * 2. The hold is the window up to 1 s ending 0.1 s before the onset, judged on 0.1 s means (rotation
+ *    within 8 deg/s of its mean, mean acceleration ≈ g); its mean acceleration is gravity at the start.
+ * 3. The final rest is the last 1.5 s, judged on 0.25 s means; its mean rotation rate is the gyro bias
+ *    (a hanging leg is truly still; the hold's mean carries the hand's sway), and its mean acceleration
+ *    is gravity at rest.
+ * 4. Knee axis: the dominant eigenvector of Σ ωωᵀ over the bias-free swing samples (principalAxis),
+ *    oriented so that the first fall turns positively: the first fast motion is flexion.
+ * 5. Shank line: the device x or y axis (the phone lies along the shin, upright, upside down or
+ *    sideways), projected on the swing plane; of the four signed candidates, the one that puts the held
+ *    start nearest 15° of flexion (candidates are 90° apart, starts lie within 5–25°).
+ *    Flexion = atan2(d·s, d·(k × s)) with d the downward direction in the swing plane: 0° with the
+ *    shank level, 90° hanging (a level thigh is assumed, as the test prescribes).
+ * 6. Angle: the start from gravity, then the gyro about the axis (trapezoidal integration); the gap
+ *    between the gyro's and gravity's start-to-rest excursions is removed as a linear bias drift
+ *    between the hold's and the rest's centres (exact for a constant bias error).
+ * 7. Shape checks, each a refusal that names the recording and the phone: a fall, a steady hold, a
+ *    hinge, a level knee axis, gyro and gravity agreeing, a start near extension, a fall into flexion,
+ *    a plausible rest.
  *
- * Assumption, stated: the held start is full extension (0°) unless told otherwise. With the thigh
- * horizontal, the shank is then horizontal at the start and hangs vertical at 90° flexion, so the
- * shank's angle to the vertical is 90° − flexion; the reconstruction itself needs only that the knee
- * axis is roughly horizontal (it uses the gravity component perpendicular to the axis).
- *
- * Cost: O(n), a few passes. Throws MotionInputError (file, row, reason) for: fewer than two samples,
- * unequal columns, non-finite values, time not strictly increasing, no still hold before the motion,
- * no swing (nothing faster than 20 °/s).
+ * Cost: O(n), a few passes. Throws MotionInputError (file, row, reason) for malformed columns (row
+ * named where one row is at fault) and, with no row, for every failed shape check.
  */
 export function reconstructKneeAngle(recording: MotionRecording, options: KneeAngleOptions = {}): KneeAngleReconstruction {
   const file = options.fileName ?? 'recording';
-  const tau = options.gravityTimeConstantS ?? GRAVITY_TIME_CONSTANT_S;
-  const startAngle = options.startAngleDeg ?? 0;
+  const refuse = (reason: string): never => {
+    throw new MotionInputError(file, null, reason);
+  };
   let n: number;
   try {
     n = motionSampleCount(recording);
@@ -113,13 +147,12 @@ export function reconstructKneeAngle(recording: MotionRecording, options: KneeAn
     throw new MotionInputError(file, null, (error as Error).message);
   }
   const lineOf = (i: number): number => (recording.lines ? recording.lines[i] : i + 2);
-  if (n < 2) throw new MotionInputError(file, null, n === 0 ? 'no samples' : 'only one sample; a recording needs many');
+  if (n < 2) refuse(n === 0 ? 'no samples' : 'only one sample; a recording needs many');
   const { timeMs, accXMs2: ax, accYMs2: ay, accZMs2: az } = recording;
-  const gx = recording.rateBetaDps;
-  const gy = recording.rateGammaDps;
-  const gz = recording.rateAlphaDps;
   for (let i = 0; i < n; i++) {
-    if (![timeMs[i], gx[i], gy[i], gz[i], ax[i], ay[i], az[i]].every(Number.isFinite)) throw new MotionInputError(file, lineOf(i), 'non-finite value');
+    if (![timeMs[i], recording.rateAlphaDps[i], recording.rateBetaDps[i], recording.rateGammaDps[i], ax[i], ay[i], az[i]].every(Number.isFinite)) {
+      throw new MotionInputError(file, lineOf(i), 'non-finite value');
+    }
     if (i > 0 && !(timeMs[i] > timeMs[i - 1])) throw new MotionInputError(file, lineOf(i), 'time not strictly increasing');
   }
   const timing = motionTiming(timeMs);
@@ -129,245 +162,244 @@ export function reconstructKneeAngle(recording: MotionRecording, options: KneeAn
   }
   if (timing.droppedSamples > 0) {
     warnings.push(
-      `${timing.droppedSamples} sample${timing.droppedSamples === 1 ? ' was' : 's were'} dropped (longest gap ${round(timing.longestGapMs, 0)} ms); the angle is interpolated across gaps`,
+      `the phone skipped ${timing.droppedSamples} sample${timing.droppedSamples === 1 ? '' : 's'} (longest gap ${round(timing.longestGapMs, 0)} ms); the angle is integrated across the gaps`,
     );
   }
-
-  // 1. Still periods.
-  const rateMag = new Float64Array(n);
-  const accMag = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    rateMag[i] = Math.hypot(gx[i], gy[i], gz[i]);
-    accMag[i] = Math.hypot(ax[i], ay[i], az[i]);
+  // Device axes of the rotation rate: the current W3C text ("alpha: rate of rotation around the X
+  // axis", beta around Y, gamma around Z; w3c/deviceorientation PR #43 for issue #44), as Chrome and
+  // Firefox on Android and Safari on iOS deliver it, unless the data clearly follow the older
+  // alpha-about-z order (a file from an older tool): then that order, said loudly.
+  const orderEvidence = rateAxisOrder(recording);
+  const rateOrder: RateAxisOrder = orderEvidence.order === 'legacy' ? 'legacy' : 'current';
+  if (rateOrder === 'legacy') {
+    warnings.push(
+      `the rotation-rate columns look like the older order (rate_alpha_dps about the phone's z axis, beta about x, gamma about y): read in today's order the acceleration along the knee axis would swing by ${round(orderEvidence.currentSpreadMs2, 1)} m/s² instead of ${round(orderEvidence.legacySpreadMs2, 1)} m/s²; analysed in the older order. Today's browsers deliver alpha about x, beta about y, gamma about z`,
+    );
   }
-  const still = quietMask(timeMs, rateMag, accMag, STANDARD_GRAVITY_MS2, STILL_RATE_DPS, GRAVITY_TOLERANCE_MS2, STILL_HALF_WINDOW_MS, new Uint8Array(n));
-  const runs = maskRuns(still).filter(([a, b]) => timeMs[b - 1] - timeMs[a] >= MIN_HOLD_MS);
-  if (runs.length === 0 || runs[0][0] > 0.5 * n) {
-    throw new MotionInputError(file, null, 'no still hold before the leg moved: hold the leg still, straight, for a second before letting go');
-  }
-  const hold = runs[0];
-  const last = runs[runs.length - 1];
-  const rest = runs.length > 1 && last[0] > hold[1] ? last : null;
+  const gx = rateOrder === 'legacy' ? recording.rateBetaDps : recording.rateAlphaDps;
+  const gy = rateOrder === 'legacy' ? recording.rateGammaDps : recording.rateBetaDps;
+  const gz = rateOrder === 'legacy' ? recording.rateAlphaDps : recording.rateGammaDps;
 
-  // 2. Gyro bias vector from the held start (the leg truly still); its drift is found in step 5.
-  const biasA = meanVector(gx, gy, gz, hold[0], hold[1]);
-  const tA = 0.5 * (timeMs[hold[0]] + timeMs[hold[1] - 1]);
-  const tB = rest ? 0.5 * (timeMs[rest[0]] + timeMs[rest[1] - 1]) : tA;
-  const bx = new Float64Array(n);
-  const by = new Float64Array(n);
-  const bz = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    bx[i] = gx[i] - biasA[0];
-    by[i] = gy[i] - biasA[1];
-    bz[i] = gz[i] - biasA[2];
+  // 1. The first fall.
+  const smooth = movingMean(timeMs, (i) => Math.hypot(gx[i], gy[i], gz[i]), SMOOTH_HALF_WINDOW_MS);
+  let fastest = 0;
+  for (let i = 0; i < n; i++) if (smooth[i] > fastest) fastest = smooth[i];
+  if (fastest < MIN_FALL_RATE_DPS) {
+    refuse(`no fall found: the phone never turned faster than ${round(fastest, 0)} deg/s (a released leg reaches hundreds); was the phone strapped to the shank and the leg let go?`);
+  }
+  const fallThreshold = Math.max(MIN_FALL_RATE_DPS, FALL_SHARE * fastest);
+  let fall = 0;
+  while (smooth[fall] <= fallThreshold) fall++;
+  let onset = fall;
+  while (onset > 0 && smooth[onset - 1] > ONSET_RATE_DPS) onset--;
+
+  // 2. The hold, judged on averages.
+  const holdEndMs = timeMs[onset] - HOLD_GAP_MS;
+  let holdEnd = onset;
+  while (holdEnd > 0 && timeMs[holdEnd - 1] > holdEndMs) holdEnd--;
+  let holdStart = holdEnd;
+  while (holdStart > 0 && timeMs[holdStart - 1] >= holdEndMs - HOLD_MAX_MS) holdStart--;
+  if (holdEnd - holdStart < 5 || timeMs[holdEnd - 1] - timeMs[holdStart] < HOLD_MIN_MS) {
+    refuse(`the recording starts ${round((timeMs[onset] - timeMs[0]) / 1000, 2)} s before the leg starts to fall; start recording while the leg is held, then let go after a second`);
+  }
+  const holdRateSpread = blockSpread(timeMs, gx, gy, gz, holdStart, holdEnd, HOLD_BLOCK_MS);
+  if (holdRateSpread > HOLD_RATE_SPREAD_DPS) {
+    refuse(`the leg was moving before it was let go: in the second before the fall the phone's turning rate varied by ${round(holdRateSpread, 0)} deg/s on average; hold the leg steady, then let go`);
+  }
+  const gHold = meanVector(ax, ay, az, holdStart, holdEnd);
+  const gHoldNorm = norm(gHold);
+  if (Math.abs(gHoldNorm - STANDARD_GRAVITY_MS2) > GRAVITY_TOLERANCE_MS2) {
+    refuse(`the phone measured ${round(gHoldNorm, 2)} m/s² before the fall instead of gravity's ${round(STANDARD_GRAVITY_MS2, 2)}: it was being moved or its accelerometer is off`);
   }
 
-  // 3. Knee axis from the second moment of the motion samples.
+  // 3. The final rest, judged on averages; its mean rotation rate is the bias.
+  let restStart = n;
+  while (restStart > 0 && timeMs[restStart - 1] >= timeMs[n - 1] - REST_MS) restStart--;
+  const restEnd = n;
+  if (restStart <= onset || timeMs[n - 1] - timeMs[restStart] < REST_MIN_MS || restEnd - restStart < 10) {
+    refuse('the recording ends before the leg came to rest: keep recording until the leg has hung still for two seconds');
+  }
+  const restRateSpread = blockSpread(timeMs, gx, gy, gz, restStart, restEnd, REST_BLOCK_MS);
+  const gRest = meanVector(ax, ay, az, restStart, restEnd);
+  const gRestNorm = norm(gRest);
+  if (restRateSpread > REST_RATE_SPREAD_DPS || Math.abs(gRestNorm - STANDARD_GRAVITY_MS2) > GRAVITY_TOLERANCE_MS2) {
+    refuse('the recording ends before the leg came to rest (the phone was still turning in its last 1.5 s): keep recording until the leg has hung still for two seconds');
+  }
+  const bias = meanVector(gx, gy, gz, restStart, restEnd);
+  const holdRate = meanVector(gx, gy, gz, holdStart, holdEnd);
+
+  // 4. Knee axis from the swing, oriented so that the first fall is flexion.
   const moment = new Float64Array(9);
-  let largest = -1;
-  let largestIndex = -1;
+  let largest = 0;
+  const seed = new Float64Array(3);
   let motionCount = 0;
-  for (let i = 0; i < n; i++) {
-    const m = Math.hypot(bx[i], by[i], bz[i]);
-    if (m < MOTION_RATE_DPS) continue;
+  const w = new Float64Array(3);
+  for (let i = onset; i < restStart; i++) {
+    w[0] = gx[i] - bias[0];
+    w[1] = gy[i] - bias[1];
+    w[2] = gz[i] - bias[2];
+    const magnitude = norm(w);
+    if (magnitude < MOTION_RATE_DPS) continue;
     motionCount++;
-    if (m > largest) {
-      largest = m;
-      largestIndex = i;
+    if (magnitude > largest) {
+      largest = magnitude;
+      seed.set(w);
     }
-    moment[0] += bx[i] * bx[i];
-    moment[1] += bx[i] * by[i];
-    moment[2] += bx[i] * bz[i];
-    moment[4] += by[i] * by[i];
-    moment[5] += by[i] * bz[i];
-    moment[8] += bz[i] * bz[i];
+    for (let r = 0; r < 3; r++) for (let c = 0; c < 3; c++) moment[3 * r + c] += w[r] * w[c];
   }
-  if (motionCount < 3) throw new MotionInputError(file, null, `no swing found: the rotation rate never exceeded ${MOTION_RATE_DPS} deg/s after removing the gyro bias`);
-  moment[3] = moment[1];
-  moment[6] = moment[2];
-  moment[7] = moment[5];
-  const principal = principalAxis(moment, Float64Array.of(bx[largestIndex], by[largestIndex], bz[largestIndex]));
-  const axis = principal.axis;
-  if (principal.share < 0.9) {
-    warnings.push(
-      `only ${round(100 * principal.share, 0)} % of the rotation was about one axis; the leg may have twisted or the phone slipped on its strap`,
-    );
+  if (motionCount < 3) refuse(`no swing found: the phone turned faster than ${MOTION_RATE_DPS} deg/s on fewer than three samples`);
+  const principal = principalAxis(moment, seed);
+  const k = principal.axis;
+  if (principal.share < MIN_AXIS_SHARE) {
+    refuse(`the phone did not turn about one axis (only ${round(100 * principal.share, 0)} % of the rotation was about the knee's): the strap may have slipped or the leg twisted`);
+  }
+  if (principal.share < WARN_AXIS_SHARE) {
+    warnings.push(`only ${round(100 * principal.share, 0)} % of the rotation was about one axis; the leg may have twisted or the phone moved on its strap`);
+  }
+  let fallSum = 0;
+  for (let i = onset; i <= fall; i++) fallSum += k[0] * (gx[i] - bias[0]) + k[1] * (gy[i] - bias[1]) + k[2] * (gz[i] - bias[2]);
+  if (fallSum < 0) for (let c = 0; c < 3; c++) k[c] = -k[c];
+
+  const axisTiltDeg = Math.asin(Math.min(1, Math.abs(dot(k, gHold)) / gHoldNorm)) / DEG;
+  if (axisTiltDeg > MAX_AXIS_TILT_DEG) {
+    refuse(`the knee axis was ${round(axisTiltDeg, 0)}° from level, so gravity cannot give the shank's angle: seat the person with the thigh level`);
   }
 
-  // Gravity at the hold (mean), for the plane basis and the mounting figures.
-  const g0 = meanVector(ax, ay, az, hold[0], hold[1]);
-  const g0Norm = Math.hypot(g0[0], g0[1], g0[2]);
-  const axisTiltDeg = Math.asin(Math.min(1, Math.abs(dot(axis, g0) / g0Norm))) / DEG;
-  const phoneTiltAtStartDeg = Math.asin(Math.max(-1, Math.min(1, g0[1] / g0Norm))) / DEG;
-  if (axisTiltDeg > 30) {
-    warnings.push(`the knee axis was ${round(axisTiltDeg, 0)}° from horizontal; seat the person with the thigh level so that gravity can correct the angle`);
+  // 5. The shank's line: a signed device x or y axis in the swing plane, nearest a 15° start.
+  const candidates: Array<['+x' | '-x' | '+y' | '-y', number[]]> = [
+    ['+x', [1, 0, 0]],
+    ['-x', [-1, 0, 0]],
+    ['+y', [0, 1, 0]],
+    ['-y', [0, -1, 0]],
+  ];
+  let shankAxis: KneeAngleReconstruction['shankAxis'] = '+y';
+  let shank = new Float64Array(3);
+  let bestStart = Number.NaN;
+  for (const [name, e] of candidates) {
+    const along = e[0] * k[0] + e[1] * k[1] + e[2] * k[2];
+    const s = Float64Array.of(e[0] - along * k[0], e[1] - along * k[1], e[2] - along * k[2]);
+    const length = norm(s);
+    if (length < 0.5) continue;
+    for (let c = 0; c < 3; c++) s[c] /= length;
+    const start = flexionFromGravity(gHold, k, s);
+    if (Number.isNaN(bestStart) || Math.abs(start - EXPECTED_START_DEG) < Math.abs(bestStart - EXPECTED_START_DEG)) {
+      bestStart = start;
+      shank = s;
+      shankAxis = name;
+    }
   }
-
-  // 4–6: projections, then fusion, oriented so that the hold-to-rest motion is positive.
-  let sign = 1;
-  let result = fuse(sign);
-  const netGravity = result.gravityExcursion;
-  const netGyro = result.gyroExcursion;
-  if ((rest && netGravity < 0) || (!rest && netGyro < 0)) {
-    sign = -1;
-    result = fuse(sign);
-  }
-  if (rest && Math.abs(result.gravityExcursion - result.gyroExcursion) > 5) {
-    warnings.push(
-      `gyro and gravity disagree by ${round(Math.abs(result.gravityExcursion - result.gyroExcursion), 1)}° between start and rest; gravity was used to correct the angle`,
+  if (!(bestStart >= START_RANGE_DEG[0] && bestStart <= START_RANGE_DEG[1])) {
+    refuse(
+      `the phone's long edge does not seem to lie along the shank, or the leg was not held near straight (the start reads ${round(bestStart, 0)}° of flexion, expected ${START_RANGE_DEG[0]}° to ${START_RANGE_DEG[1]}°)`,
     );
   }
-  if (!rest) warnings.push('no still rest at the end of the recording; the gyro bias was taken from the start alone');
-  const oriented = Float64Array.of(sign * axis[0], sign * axis[1], sign * axis[2]);
+  const gravityStart = bestStart;
+  const gravityRest = flexionFromGravity(gRest, k, shank);
+
+  // 6. Gyro about the axis, anchored at the start, drift removed between hold and rest.
+  const rate = new Float64Array(n);
+  for (let i = 0; i < n; i++) rate[i] = k[0] * (gx[i] - bias[0]) + k[1] * (gy[i] - bias[1]) + k[2] * (gz[i] - bias[2]);
+  const psi = new Float64Array(n);
+  integrate(timeMs, rate, psi);
+  const psiHold = mean(psi, holdStart, holdEnd);
+  const gyroExcursionDeg = mean(psi, restStart, restEnd) - psiHold;
+  const gravityExcursionDeg = wrap180(gravityRest - gravityStart);
+  const disagreement = gyroExcursionDeg - gravityExcursionDeg;
+  if (Math.abs(disagreement) > MAX_DISAGREEMENT_DEG) {
+    refuse(
+      `the phone's gyroscope and its gravity reading disagree by ${round(Math.abs(disagreement), 0)}° between the held start and the rest: the phone may have slipped on its strap or the leg moved other than about the knee`,
+    );
+  }
+  const startAngleDeg = options.startAngleDeg ?? gravityStart;
+  const tHold = 0.5 * (timeMs[holdStart] + timeMs[holdEnd - 1]);
+  const tRest = 0.5 * (timeMs[restStart] + timeMs[restEnd - 1]);
+  const angleDeg = new Float64Array(n);
+  const gyroAngleDeg = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const ramp = Math.min(1, Math.max(0, (timeMs[i] - tHold) / (tRest - tHold)));
+    gyroAngleDeg[i] = startAngleDeg + psi[i] - psiHold;
+    angleDeg[i] = gyroAngleDeg[i] - ramp * disagreement;
+  }
+
+  // 7. Shape: a fall into flexion, a plausible rest.
+  let deepest = -Infinity;
+  for (let i = onset; i < n && timeMs[i] <= timeMs[onset] + 1500; i++) deepest = Math.max(deepest, angleDeg[i]);
+  if (deepest - startAngleDeg < MIN_FIRST_FALL_DEG) {
+    refuse(`the leg did not fall into flexion: the first fast motion bent the knee by only ${round(deepest - startAngleDeg, 0)}°`);
+  }
+  const restAngle = startAngleDeg + gravityExcursionDeg;
+  if (restAngle < REST_RANGE_DEG[0] || restAngle > REST_RANGE_DEG[1] || restAngle <= startAngleDeg + MIN_FIRST_FALL_DEG) {
+    refuse(`the leg came to rest at ${round(restAngle, 0)}° of flexion, which a freely hanging leg does not (expected ${REST_RANGE_DEG[0]}° to ${REST_RANGE_DEG[1]}°, beyond the start)`);
+  }
+  if (Math.abs(disagreement) > 5) {
+    warnings.push(`gyro and gravity disagree by ${round(Math.abs(disagreement), 1)}° between start and rest; gravity was used to correct the angle`);
+  }
   const timeS = new Float64Array(n);
   for (let i = 0; i < n; i++) timeS[i] = timeMs[i] / 1000;
   return {
     timeS,
-    angleDeg: result.angle,
-    gyroAngleDeg: result.gyroAngle,
-    axis: oriented,
+    angleDeg,
+    gyroAngleDeg,
+    axis: Float64Array.from(k),
     axisShare: principal.share,
-    biasStartDps: sign * dot(axis, biasA),
-    biasEndDps: rest ? sign * dot(axis, biasA) + result.driftDps : Number.NaN,
-    hold,
-    rest,
-    phoneTiltAtStartDeg,
+    biasStartDps: dot(k, holdRate),
+    biasEndDps: dot(k, bias),
+    hold: [holdStart, holdEnd],
+    rest: [restStart, restEnd],
+    fallOnset: onset,
+    startAngleDeg,
+    shankAxis,
+    absoluteAngleBoundDeg: MOUNTING_TILT_BOUND_DEG,
     axisTiltDeg,
-    gravityExcursionDeg: rest ? result.gravityExcursion : Number.NaN,
-    gyroExcursionDeg: rest ? result.gyroExcursion : Number.NaN,
-    gravityTrustedFraction: result.trustedFraction,
+    gravityExcursionDeg,
+    gyroExcursionDeg,
+    rateOrder,
     timing,
     warnings,
   };
-
-  function fuse(s: number) {
-    const k0 = s * axis[0];
-    const k1 = s * axis[1];
-    const k2 = s * axis[2];
-    // Plane basis u, w with u × w = k: u is the hold's gravity with its axis component removed.
-    const along = k0 * g0[0] + k1 * g0[1] + k2 * g0[2];
-    let u0 = g0[0] - along * k0;
-    let u1 = g0[1] - along * k1;
-    let u2 = g0[2] - along * k2;
-    const un = Math.hypot(u0, u1, u2);
-    u0 /= un;
-    u1 /= un;
-    u2 /= un;
-    const w0 = k1 * u2 - k2 * u1;
-    const w1 = k2 * u0 - k0 * u2;
-    const w2 = k0 * u1 - k1 * u0;
-    const rate = new Float64Array(n);
-    const gravityAngle = new Float64Array(n);
-    const planeMag = new Float64Array(n);
-    const rateOff = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      rate[i] = k0 * bx[i] + k1 * by[i] + k2 * bz[i];
-      const pu = u0 * ax[i] + u1 * ay[i] + u2 * az[i];
-      const pw = w0 * ax[i] + w1 * ay[i] + w2 * az[i];
-      // ψ = atan2(pw, pu), ψ0 = 0 by construction of u; the shank angle is −ψ.
-      gravityAngle[i] = -Math.atan2(pw, pu) / DEG;
-      planeMag[i] = Math.hypot(pu, pw);
-      rateOff[i] = Math.hypot(bx[i], by[i], bz[i]);
-    }
-    const trusted = quietMask(timeMs, rateOff, accMag, STANDARD_GRAVITY_MS2, TRUST_RATE_DPS, GRAVITY_TOLERANCE_MS2, TRUST_HALF_WINDOW_MS, new Uint8Array(n));
-    let trustedCount = 0;
-    for (let i = 0; i < n; i++) {
-      // Gravity in the plane must be substantial, or its angle is noise.
-      if (planeMag[i] < 0.5 * STANDARD_GRAVITY_MS2) trusted[i] = 0;
-      trustedCount += trusted[i];
-    }
-    // 5. Bias drift: a ramp β·f(t), f = 0 at the hold's centre rising linearly to 1 at the rest's
-    // centre, chosen so that the gyro's hold-to-rest excursion equals gravity's. Comparing means over
-    // both still runs (not a rest-period gyro mean) keeps the small last oscillations, which a
-    // still-mask lets through, from passing for bias.
-    const gyroAngle = new Float64Array(n);
-    integrate(timeMs, rate, gyroAngle);
-    let gravityExcursion = Number.NaN;
-    let gyroExcursion: number;
-    let driftDps = 0;
-    if (rest) {
-      gravityExcursion = unwrappedMean(gravityAngle, rest[0], rest[1], gyroAngle) - unwrappedMean(gravityAngle, hold[0], hold[1], gyroAngle);
-      gyroExcursion = mean(gyroAngle, rest[0], rest[1]) - mean(gyroAngle, hold[0], hold[1]);
-      const ramp = new Float64Array(n);
-      const rampIntegral = new Float64Array(n);
-      for (let i = 0; i < n; i++) ramp[i] = tB > tA ? Math.min(1, Math.max(0, (timeMs[i] - tA) / (tB - tA))) : 0;
-      integrate(timeMs, ramp, rampIntegral);
-      const lever = mean(rampIntegral, rest[0], rest[1]) - mean(rampIntegral, hold[0], hold[1]);
-      if (lever > 0) {
-        driftDps = (gyroExcursion - gravityExcursion) / lever;
-        for (let i = 0; i < n; i++) {
-          rate[i] -= driftDps * ramp[i];
-          gyroAngle[i] -= driftDps * rampIntegral[i];
-        }
-      }
-    } else {
-      gyroExcursion = gyroAngle[n - 1] - mean(gyroAngle, hold[0], hold[1]);
-    }
-    const forward = new Float64Array(n);
-    const ageForward = new Float64Array(n);
-    const backward = new Float64Array(n);
-    const ageBackward = new Float64Array(n);
-    complementaryPass(timeMs, rate, gravityAngle, trusted, tau, 1, forward, ageForward);
-    complementaryPass(timeMs, rate, gravityAngle, trusted, tau, -1, backward, ageBackward);
-    const angle = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      const af = ageForward[i];
-      const ab = ageBackward[i];
-      const weightForward = af === 0 && ab === 0 ? 0.5 : !Number.isFinite(ab) ? 1 : !Number.isFinite(af) ? 0 : ab / (af + ab);
-      angle[i] = startAngle + weightForward * forward[i] + (1 - weightForward) * backward[i];
-      gyroAngle[i] += startAngle;
-    }
-    return { angle, gyroAngle, gravityExcursion, gyroExcursion, driftDps, trustedFraction: trustedCount / n };
-  }
 }
 
-/**
- * One pass of the gated complementary filter, forward (direction 1) or backward (−1):
- * predict by trapezoidal integration of `rateDps`, then, where `trusted`, move towards the gravity
- * angle by κ = dt / (τ + dt) of the wrapped difference (so ±180° never jumps). `age` receives the
- * time (s) the pass has integrated without gravity, a proxy for its drift: it grows by dt on every
- * sample and decays by (1 − κ) on trusted ones (Infinity before the first). Writes `out`.
- */
-export function complementaryPass(
-  timeMs: Float64Array,
-  rateDps: Float64Array,
-  gravityAngleDeg: Float64Array,
-  trusted: Uint8Array,
-  tauS: number,
-  direction: 1 | -1,
-  out: Float64Array,
-  age: Float64Array,
-): void {
+/** Knee flexion (deg) from a gravity reading g (points up), knee axis k and shank line s (unit, ⊥ k). */
+function flexionFromGravity(g: Float64Array, k: Float64Array, s: Float64Array): number {
+  // Downward direction d = −g; flexion θ satisfies d·s = sin θ·|d⊥|, d·(k × s) = cos θ·|d⊥|.
+  const e0 = k[1] * s[2] - k[2] * s[1];
+  const e1 = k[2] * s[0] - k[0] * s[2];
+  const e2 = k[0] * s[1] - k[1] * s[0];
+  const alongS = -(g[0] * s[0] + g[1] * s[1] + g[2] * s[2]);
+  const alongE = -(g[0] * e0 + g[1] * e1 + g[2] * e2);
+  return Math.atan2(alongS, alongE) / DEG;
+}
+
+/** Moving mean of value(i) over ±halfWindowMs (two pointers, O(n)). */
+function movingMean(timeMs: Float64Array, value: (i: number) => number, halfWindowMs: number): Float64Array {
   const n = timeMs.length;
-  if (n === 0) return;
-  const first = direction === 1 ? 0 : n - 1;
-  let estimate = trusted[first] ? gravityAngleDeg[first] : 0;
-  let sinceTrusted = trusted[first] ? 0 : Number.POSITIVE_INFINITY;
-  out[first] = estimate;
-  age[first] = sinceTrusted;
-  for (let step = 1; step < n; step++) {
-    const i = direction === 1 ? step : n - 1 - step;
-    const previous = i - direction;
-    const dtS = Math.abs(timeMs[i] - timeMs[previous]) / 1000;
-    estimate += direction * 0.5 * (rateDps[i] + rateDps[previous]) * dtS;
-    sinceTrusted += dtS;
-    if (trusted[i]) {
-      if (!Number.isFinite(sinceTrusted)) {
-        // First anchor of this pass: take gravity as it is (nothing better is known).
-        estimate = gravityAngleDeg[i];
-        sinceTrusted = 0;
-      } else {
-        const kappa = dtS / (tauS + dtS);
-        estimate += kappa * wrap180(gravityAngleDeg[i] - estimate);
-        // The drift carried in decays with the filter, so its "age" does too.
-        sinceTrusted *= 1 - kappa;
-      }
-    }
-    out[i] = estimate;
-    age[i] = sinceTrusted;
+  const values = new Float64Array(n);
+  for (let i = 0; i < n; i++) values[i] = value(i);
+  const out = new Float64Array(n);
+  let lo = 0;
+  let hi = 0;
+  let sum = 0;
+  for (let i = 0; i < n; i++) {
+    while (hi < n && timeMs[hi] <= timeMs[i] + halfWindowMs) sum += values[hi++];
+    while (timeMs[lo] < timeMs[i] - halfWindowMs) sum -= values[lo++];
+    out[i] = sum / (hi - lo);
   }
-  // A backward pass that never met a trusted sample has no anchor of its own: mark it unusable.
-  if (direction === -1 && !trusted.some((t) => t === 1)) age.fill(Number.POSITIVE_INFINITY);
+  return out;
+}
+
+/** Largest distance (deg/s) between a block mean of the rotation-rate vector and the window's mean. */
+function blockSpread(timeMs: Float64Array, x: Float64Array, y: Float64Array, z: Float64Array, from: number, to: number, blockMs: number): number {
+  const overall = meanVector(x, y, z, from, to);
+  let worst = 0;
+  let start = from;
+  while (start < to) {
+    let end = start;
+    while (end < to && timeMs[end] < timeMs[start] + blockMs) end++;
+    const block = meanVector(x, y, z, start, end);
+    worst = Math.max(worst, Math.hypot(block[0] - overall[0], block[1] - overall[1], block[2] - overall[2]));
+    start = end;
+  }
+  return worst;
 }
 
 /** Trapezoidal integral of a rate (deg/s) over time stamps (ms), from 0; Neumaier-compensated. */
@@ -394,14 +426,11 @@ function mean(values: Float64Array, from: number, to: number): number {
   return sum / (to - from);
 }
 
-/** Mean of angles over [from, to), each unwrapped near the matching `guide` value. */
-function unwrappedMean(angles: Float64Array, from: number, to: number, guide: Float64Array): number {
-  let sum = 0;
-  for (let i = from; i < to; i++) sum += guide[i] + wrap180(angles[i] - guide[i]);
-  return sum / (to - from);
+function norm(v: ArrayLike<number>): number {
+  return Math.hypot(v[0], v[1], v[2]);
 }
 
-function dot(a: Float64Array, b: Float64Array): number {
+function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
   return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 }
 
