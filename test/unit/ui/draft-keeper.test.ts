@@ -31,7 +31,7 @@ function tab(heldLocks: Set<string>, name: string) {
 }
 
 type Form = { grade: string };
-function keeperFor(store: KinnoteStore, environment: DraftEnvironment, subjectId: string) {
+function keeperFor(_store: KinnoteStore, environment: DraftEnvironment, subjectId: string) {
   return new DraftKeeper<Form>({ form: 'assessment', subjectId, environment, encode: (v) => v, decode: (c) => c as Form });
 }
 
