@@ -76,7 +76,9 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   },
   {
     version: 4,
-    stores: { ...V2_STORES, drafts: 'id, [form+subjectId]' },
+    // Only the new table: Dexie keeps every table a version does not mention, so a version merged
+    // in between (e.g. 3) keeps its own changes.
+    stores: { drafts: 'id, [form+subjectId]' },
     upgrade: upgradeToV4,
     summary: 'drafts table (unsaved forms, one per form, subject and tab); localStorage drafts moved over once',
   },
