@@ -87,3 +87,29 @@ export async function pixelsNear(page: Page, selector: string, rgb: [number, num
     { sel: selector, target: rgb, tol: tolerance },
   );
 }
+
+/** Every row of one IndexedDB table of the app's database, read in the page (e.g. "drafts"). */
+export async function tableRows<T = Record<string, unknown>>(page: Page, table: string): Promise<T[]> {
+  return page.evaluate(
+    (name) =>
+      new Promise<T[]>((resolve, reject) => {
+        const open = indexedDB.open('kinnote');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const db = open.result;
+          if (!db.objectStoreNames.contains(name)) {
+            db.close();
+            resolve([]);
+            return;
+          }
+          const request = db.transaction(name, 'readonly').objectStore(name).getAll();
+          request.onsuccess = () => {
+            db.close();
+            resolve(request.result as T[]);
+          };
+          request.onerror = () => reject(request.error);
+        };
+      }),
+    table,
+  );
+}

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import type { Browser, Page } from 'playwright-core';
-import { inkedCanvasShare, openFirstPatient, pixelsNear, setUpDevice, unlockVault } from './app-helpers';
+import { inkedCanvasShare, openFirstPatient, pixelsNear, setUpDevice, tableRows, unlockVault } from './app-helpers';
 import { launchChromium, newAppContext, phone, screenshot, tablet, waitForOfflineWorker } from './harness';
 
 let browser: Browser;
@@ -72,11 +72,9 @@ describe('therapist on a home visit', () => {
       // The draft survives a reload with the network cut; a reload locks names and notes, and the
       // notes (kept only sealed in the draft) come back once unlocked.
       // Wait until the draft holds the sealed note (sealing is asynchronous), then reload.
-      await page.waitForFunction(
-        () => Object.keys(localStorage).some((k) => k.startsWith('kinnote.draft.') && (JSON.parse(localStorage.getItem(k) ?? '{}') as { sealedNotes?: unknown }).sealedNotes != null),
-        undefined,
-        { timeout: 20_000, polling: 100 },
-      );
+      await expect
+        .poll(async () => (await tableRows<{ content: { sealedNotes?: unknown } }>(page, 'drafts')).some((d) => d.content.sealedNotes != null), { timeout: 20_000, interval: 100 })
+        .toBe(true);
       await page.reload();
       await page.getByText(/Draft restored/).waitFor();
       await expectAssessmentValues(page);

@@ -57,7 +57,7 @@ export async function syncWeeklyAdherence(store: KinnoteStore, patientId: string
         await store.adherenceEntries.create({ patientId, programmeId, periodStart: week.weekStart, sessionsPlanned, sessionsDone, reportedBy: 'patient' });
         written++;
       } else if (current.sessionsPlanned !== sessionsPlanned || current.sessionsDone !== sessionsDone) {
-        await store.adherenceEntries.update(current.id, { sessionsPlanned, sessionsDone });
+        await store.adherenceEntries.update(current.id, { sessionsPlanned, sessionsDone }, { expectedUpdatedAt: current.updatedAt });
         written++;
       }
     }
@@ -73,7 +73,7 @@ export async function selfReportOn(store: KinnoteStore, patientId: string, day: 
 /** Saves today's spasm frequency (Penn 0–4) and severity (0–10): one SelfReport per day, updated in place. */
 export async function saveSelfReport(store: KinnoteStore, patientId: string, day: string, penn: number | null, severity: number | null): Promise<SelfReport> {
   const current = await selfReportOn(store, patientId, day);
-  if (current) return (await store.selfReports.update(current.id, { spasmFrequencyPenn: penn, spasmSeverityNrs: severity })) as SelfReport;
+  if (current) return (await store.selfReports.update(current.id, { spasmFrequencyPenn: penn, spasmSeverityNrs: severity }, { expectedUpdatedAt: current.updatedAt })) as SelfReport;
   return (await store.selfReports.create({ patientId, reportedOn: day, spasmFrequencyPenn: penn, spasmSeverityNrs: severity, stiffnessNrs: null, painNrs: null })) as SelfReport;
 }
 

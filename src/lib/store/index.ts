@@ -3,7 +3,7 @@
 export { liveQuery } from 'dexie';
 export { StoreError, describeIssues, toStoreError, type StoreErrorCode, type StoreIssue } from './store-error';
 export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreSettings } from './open-store';
-export { IdentityRepository, ObservationRepository, Repository, type Input, type Patch, type WritableTable } from './repository';
+export { CHANGED_ELSEWHERE, IdentityRepository, ObservationRepository, Repository, type EditOptions, type Input, type Patch, type WritableTable, type WriteOptions } from './repository';
 export type { Actor, StoreContext } from './store-context';
 export type { AssessmentRow, EventRow, IdentityRow, Row, RowTables } from './rows';
 export { SCHEMA_VERSIONS, LATEST_SCHEMA_VERSION, declareSchema, type SchemaVersion } from './schema';
@@ -32,3 +32,15 @@ export { demoBundle, loadDemoCaseload } from './demo-caseload';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { readLocalState, writeLocalState } from './local-state';
 export { setAssessmentDeleted } from './assessment-tombstone';
+export {
+  DRAFTS_TABLE,
+  LEGACY_TAB_ID,
+  discardDraft,
+  draftId,
+  draftsFor,
+  moveLegacyDrafts,
+  takeOverDraft,
+  writeDraft,
+  type DraftRow,
+  type LegacyDraftStorage,
+} from './drafts';

@@ -100,7 +100,10 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
   if (installed / 10 > LATEST_SCHEMA_VERSION) {
     throw new StoreError('VersionConflict', `the database on this device is from a newer Kinnote (schema ${installed / 10}, this app knows ${LATEST_SCHEMA_VERSION}); update the app`);
   }
-  const db = new Dexie(name, dexieOptions);
+  // 'strict': a transaction counts as done only once it is on disk (not just handed to the OS), so
+  // a saved assessment or a kept draft survives a browser or power failure right after. Browsers
+  // without the hint ignore it. Writes here are a person's pace, so the flush costs little.
+  const db = new Dexie(name, { ...dexieOptions, chromeTransactionDurability: 'strict' });
   declareSchema(db);
   for (const layer of options.middleware ?? []) db.use(layer);
   try {

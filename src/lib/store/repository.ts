@@ -1,6 +1,7 @@
 import Dexie, { type Table } from 'dexie';
 import { validateRecord, type AuditEntry, type RecordInput, type RecordTables, type TableName } from '../domain';
 import type { Codec } from './codecs';
+import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
 import { auditSnapshot, type Row } from './rows';
 import { auditEntry, nextTimestamp, requireActor, type StoreContext } from './store-context';
 import { StoreError, toStoreError, type StoreIssue } from './store-error';
@@ -9,6 +10,21 @@ export type WritableTable = Exclude<TableName, 'audit'>;
 /** What a caller supplies to create a record: its own fields, in clear; the store stamps the rest. */
 export type Input<K extends WritableTable> = RecordInput<RecordTables[K]>;
 export type Patch<K extends WritableTable> = Partial<Input<K>>;
+
+/** The words of every refused stale write, so that the UI and tests name it the same way. */
+export const CHANGED_ELSEWHERE = 'changed in another tab or device: reload';
+
+export interface WriteOptions {
+  /** A draft (drafts.ts) to remove in the same transaction: the saved form leaves no draft behind. */
+  readonly draftId?: string | null;
+}
+export interface EditOptions extends WriteOptions {
+  /**
+   * The record's updatedAt when the caller read it. The write is refused (VersionConflict, nothing
+   * written) when the record has changed since; checked again inside the write transaction.
+   */
+  readonly expectedUpdatedAt?: string;
+}
 
 const PATIENT_SCOPED: ReadonlySet<TableName> = new Set([
   'identities',
@@ -82,9 +98,13 @@ export class Repository<K extends WritableTable> {
     return this.codec.redact(row);
   }
 
-  /** Creates one record. Throws ValidationFailed (issues name the fields), Locked, QuotaExceeded, Aborted. */
-  async create(input: Input<K>): Promise<Row<K>> {
-    const [row] = await this.createMany([input]);
+  /**
+   * Creates one record. Throws ValidationFailed (issues name the fields), Locked, QuotaExceeded,
+   * Aborted; VersionConflict when `firstForPatient` is set and the patient already has a live
+   * record of this kind (checked inside the write transaction, so two tabs cannot both create it).
+   */
+  async create(input: Input<K>, options: WriteOptions & { firstForPatient?: boolean } = {}): Promise<Row<K>> {
+    const [row] = await this.createMany([input], options);
     return row as Row<K>;
   }
 
@@ -93,12 +113,20 @@ export class Repository<K extends WritableTable> {
    * benchmark): all are validated first, and if any fails nothing is written. One audit entry per
    * record, written in the same transaction.
    */
-  async createMany(inputs: readonly Input<K>[]): Promise<Row<K>[]> {
+  async createMany(inputs: readonly Input<K>[], options: WriteOptions & { firstForPatient?: boolean } = {}): Promise<Row<K>[]> {
     const { rows, audits } = await this.prepareCreate(inputs);
     try {
-      await this.ctx.db.transaction('rw', [this.table, 'audit'], async () => {
+      await this.ctx.db.transaction('rw', writeTables(this.table, options), async () => {
+        if (options.firstForPatient) {
+          for (const patientId of new Set(rows.map((r) => (r as { patientId?: string }).patientId))) {
+            if (patientId === undefined) throw new StoreError('ValidationFailed', `${this.table} is not kept per patient`);
+            const live = (await this.dexieTable.where('patientId').equals(patientId).toArray()).filter((r) => !(r as { deleted: boolean }).deleted);
+            if (live.length > 0) throw new StoreError('VersionConflict', `${this.table}: ${CHANGED_ELSEWHERE} (patient ${patientId} already has one)`);
+          }
+        }
         await this.dexieTable.bulkAdd(rows);
         await this.ctx.db.table('audit').bulkAdd(audits);
+        await discardDraftInTransaction(this.ctx.db, options.draftId);
       });
     } catch (error) {
       throw toStoreError(error, `saving ${rows.length} ${this.table}`);
@@ -144,27 +172,28 @@ export class Repository<K extends WritableTable> {
    * record changed since the caller read it. Protected text not in the patch is kept as it is
    * (sealed) without needing the vault; identities always need it.
    */
-  async update(id: string, patch: Patch<K>, options: { expectedUpdatedAt?: string } = {}): Promise<Row<K>> {
-    return this.#change(id, 'update', (current) => ({ ...current, ...patch }), options.expectedUpdatedAt, patch);
+  async update(id: string, patch: Patch<K>, options: EditOptions = {}): Promise<Row<K>> {
+    return this.#change(id, 'update', (current) => ({ ...current, ...patch }), options, patch);
   }
 
   /** Soft-deletes: sets the tombstone, keeps the data, writes a 'delete' audit entry. */
-  async remove(id: string, options: { expectedUpdatedAt?: string } = {}): Promise<Row<K>> {
-    return this.#change(id, 'delete', (current) => ({ ...current, deleted: true }), options.expectedUpdatedAt, {});
+  async remove(id: string, options: EditOptions = {}): Promise<Row<K>> {
+    return this.#change(id, 'delete', (current) => ({ ...current, deleted: true }), options, {});
   }
 
   /** Undoes a soft delete. */
-  async restore(id: string, options: { expectedUpdatedAt?: string } = {}): Promise<Row<K>> {
-    return this.#change(id, 'restore', (current) => ({ ...current, deleted: false }), options.expectedUpdatedAt, {});
+  async restore(id: string, options: EditOptions = {}): Promise<Row<K>> {
+    return this.#change(id, 'restore', (current) => ({ ...current, deleted: false }), options, {});
   }
 
   async #change(
     id: string,
     action: 'update' | 'delete' | 'restore',
     apply: (current: RecordTables[K]) => RecordTables[K],
-    expectedUpdatedAt: string | undefined,
+    options: EditOptions,
     patch: Patch<K>,
   ): Promise<Row<K>> {
+    const expectedUpdatedAt = options.expectedUpdatedAt;
     const actor = requireActor(this.ctx);
     for (const key of ['id', 'createdAt', 'updatedAt', 'deviceId', 'clinicianId', 'deleted']) {
       if (key in patch) throw new StoreError('ValidationFailed', `${this.table} ${id}: ${key} is set by the store`, { issues: [{ record: `${this.table} ${id}`, path: key, message: 'set by the store' }] });
@@ -173,7 +202,7 @@ export class Repository<K extends WritableTable> {
     if (!current) throw new StoreError('NotFound', `${this.table} ${id} not found`);
     const currentUpdatedAt = (current as { updatedAt: string }).updatedAt;
     if (expectedUpdatedAt !== undefined && expectedUpdatedAt !== currentUpdatedAt) {
-      throw new StoreError('VersionConflict', `${this.table} ${id} changed since it was read (now ${currentUpdatedAt})`);
+      throw new StoreError('VersionConflict', `${this.table} ${id}: ${CHANGED_ELSEWHERE} (read ${expectedUpdatedAt}, now ${currentUpdatedAt})`);
     }
     const codec = this.codec;
     const touchesProtected = codec.protectedFields.some((f) => f in patch);
@@ -194,19 +223,25 @@ export class Repository<K extends WritableTable> {
     }
     const audit = auditEntry(this.ctx, at, action, this.table, id, auditSnapshot(this.table, current as never), auditSnapshot(this.table, row as never));
     try {
-      await this.ctx.db.transaction('rw', [this.table, 'audit'], async () => {
+      await this.ctx.db.transaction('rw', writeTables(this.table, options), async () => {
         const now = await this.dexieTable.get(id);
         if (!now || (now as { updatedAt: string }).updatedAt !== currentUpdatedAt) {
-          throw new StoreError('VersionConflict', `${this.table} ${id} changed while saving; reload and try again`);
+          throw new StoreError('VersionConflict', `${this.table} ${id}: ${CHANGED_ELSEWHERE} (changed while saving)`);
         }
         await this.dexieTable.put(row);
         await this.ctx.db.table('audit').add(audit);
+        await discardDraftInTransaction(this.ctx.db, options.draftId);
       });
     } catch (error) {
       throw toStoreError(error, `saving ${this.table} ${id}`);
     }
     return row;
   }
+}
+
+/** The tables a write touches; drafts only when one is removed, so writes nest in narrower transactions. */
+function writeTables(table: WritableTable, options: WriteOptions): string[] {
+  return options.draftId ? [table, 'audit', DRAFTS_TABLE] : [table, 'audit'];
 }
 
 function validationFailed(table: TableName, issues: StoreIssue[]): StoreError {

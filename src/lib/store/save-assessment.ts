@@ -1,5 +1,6 @@
 import type { KinnoteStore } from './open-store';
-import type { Input } from './repository';
+import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
+import type { Input, WriteOptions } from './repository';
 import type { Row } from './rows';
 import { toStoreError } from './store-error';
 
@@ -14,13 +15,16 @@ export type AssessmentTraceInput = Omit<Input<'traces'>, 'assessmentId'>;
  * everything is validated, stamped and audited first, and then either every record and audit entry
  * lands or none does (a full disk leaves nothing half-written). Observations get the assessment's id
  * and, through `traceIndex`, the id of their trace. Throws StoreError (ValidationFailed with issues
- * naming record and field, Locked for notes while locked, QuotaExceeded, Aborted).
+ * naming record and field, Locked for notes while locked, QuotaExceeded, Aborted). With
+ * `options.draftId`, the form's draft is removed in that same transaction, so a saved assessment
+ * never leaves a draft behind to be saved a second time after a crash.
  */
 export async function saveAssessment(
   store: KinnoteStore,
   assessment: Input<'assessments'>,
   observations: readonly AssessmentObservationInput[],
   traces: readonly AssessmentTraceInput[] = [],
+  options: WriteOptions = {},
 ): Promise<{ assessment: Row<'assessments'>; observations: Row<'observations'>[]; traces: Row<'traces'>[] }> {
   const a = await store.assessments.prepareCreate([assessment]);
   const assessmentRow = a.rows[0] as Row<'assessments'>;
@@ -35,11 +39,12 @@ export async function saveAssessment(
     })),
   );
   try {
-    await store.db.transaction('rw', ['assessments', 'traces', 'observations', 'audit'], async () => {
+    await store.db.transaction('rw', ['assessments', 'traces', 'observations', 'audit', DRAFTS_TABLE], async () => {
       await store.db.table('assessments').add(assessmentRow);
       if (t.rows.length > 0) await store.db.table('traces').bulkAdd(t.rows);
       await store.db.table('observations').bulkAdd(o.rows);
       await store.db.table('audit').bulkAdd([...a.audits, ...t.audits, ...o.audits]);
+      await discardDraftInTransaction(store.db, options.draftId);
     });
   } catch (error) {
     throw toStoreError(error, `saving the assessment with ${o.rows.length} observations`);

@@ -50,17 +50,37 @@ async function upgradeToV2(tx: Transaction): Promise<void> {
     });
 }
 
+const V2_STORES = {
+  ...V1_STORES,
+  observations: 'id, patientId, assessmentId, measureCode, updatedAt, [patientId+measureCode+takenAt]',
+  audit: 'id, recordId, table, createdAt, [table+recordId]',
+} as const;
+
+/**
+ * Version 4 (3 is assigned to another change and may be absent): a `drafts` table for unsaved form
+ * content, one row per form, subject and tab (see drafts.ts), indexed by [form+subjectId]. The
+ * upgrade leaves a marker in meta so that drafts kept in localStorage by earlier versions are moved
+ * over once, after the open (an upgrade cannot read localStorage in a worker or in Node).
+ */
+async function upgradeToV4(tx: Transaction): Promise<void> {
+  await tx.table('meta').put({ key: 'draftsFromLocalStorage', value: 'pending' });
+}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
     version: 2,
-    stores: {
-      ...V1_STORES,
-      observations: 'id, patientId, assessmentId, measureCode, updatedAt, [patientId+measureCode+takenAt]',
-      audit: 'id, recordId, table, createdAt, [table+recordId]',
-    },
+    stores: V2_STORES,
     upgrade: upgradeToV2,
     summary: 'observations.takenAt backfilled from the assessment; index [patientId+measureCode+takenAt]; audit [table+recordId]',
+  },
+  {
+    version: 4,
+    // Only the new table: Dexie keeps every table a version does not mention, so a version merged
+    // in between (e.g. 3) keeps its own changes.
+    stores: { drafts: 'id, [form+subjectId]' },
+    upgrade: upgradeToV4,
+    summary: 'drafts table (unsaved forms, one per form, subject and tab); localStorage drafts moved over once',
   },
 ];
 

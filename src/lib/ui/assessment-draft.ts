@@ -13,7 +13,7 @@ import {
 
 /**
  * What the assessment form holds while the therapist types: plain strings for number fields so that
- * a half-typed value survives a reload. Saved as a draft on every change (see draft-storage.ts).
+ * a half-typed value survives a reload. Kept as a draft on every change (see draft-keeper.ts).
  */
 export interface AssessmentDraft {
   readonly version: 1;

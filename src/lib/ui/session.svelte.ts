@@ -1,4 +1,4 @@
-import { openStore, StoreError, type Actor, type KinnoteStore, type VaultStatus } from '$lib/store';
+import { CHANGED_ELSEWHERE, moveLegacyDrafts, openStore, StoreError, type Actor, type KinnoteStore, type VaultStatus } from '$lib/store';
 import { readDeviceProfile } from '$lib/programme';
 
 /** What went wrong, for a person: the store's own message, or a plain one. */
@@ -11,11 +11,21 @@ export function describeError(error: unknown): string {
         return 'Names and notes are protected: unlock them with your passphrase first.';
       case 'WrongPassphrase':
         return 'That passphrase is not right. Nothing was changed.';
+      case 'VersionConflict':
+        return `Not saved: ${CHANGED_ELSEWHERE}. What you typed is kept until you reload.`;
       default:
         return error.message;
     }
   }
   return error instanceof Error ? error.message : String(error);
+}
+
+function localStorageOrNull(): Storage | null {
+  try {
+    return typeof localStorage === 'undefined' ? null : localStorage;
+  } catch {
+    return null;
+  }
 }
 
 /**
@@ -30,9 +40,13 @@ class Session {
   actor = $state.raw<Actor | null>(null);
   /** What this device is for: a therapist's, a patient's own phone (home programme), or not chosen yet. */
   deviceMode = $state<'therapist' | 'patient' | null>(null);
-  /** Bumped after every write made through `changed()`, so pages can re-read. */
+  /** Bumped after every write made through `changed()`, in this tab or another, so pages can re-read. */
   revision = $state(0);
+  /** Bumped when another tab of this app on this device wrote (a form may then be stale). */
+  elsewhere = $state(0);
   #opening: Promise<KinnoteStore> | null = null;
+  // Tabs tell each other about writes, so a second tab re-reads instead of showing stale data.
+  #channel: BroadcastChannel | null = null;
 
   /** Opens the store (once); resolves when ready. */
   open(): Promise<KinnoteStore> {
@@ -41,12 +55,21 @@ class Session {
     this.#opening = openStore().then(
       async (store) => {
         this.deviceMode = (await readDeviceProfile(store).catch(() => null))?.mode ?? (store.actor ? 'therapist' : null);
+        // Drafts of earlier versions lived in localStorage: moved into the database once.
+        await moveLegacyDrafts(store, localStorageOrNull()).catch(() => 0);
         this.store = store;
         this.actor = store.actor;
         this.vaultStatus = store.vault.status;
         store.vault.subscribe((status) => {
           this.vaultStatus = status;
         });
+        if (typeof BroadcastChannel !== 'undefined') {
+          this.#channel = new BroadcastChannel('kinnote-writes');
+          this.#channel.onmessage = () => {
+            this.elsewhere++;
+            this.revision++;
+          };
+        }
         if (typeof window !== 'undefined') {
           // Any interaction keeps the vault open; idleness locks it (the store's timer).
           const touch = () => store.vault.touch();
@@ -76,6 +99,7 @@ class Session {
   /** Call after a write so that pages reading `revision` reload. */
   changed(): void {
     this.revision++;
+    this.#channel?.postMessage({ kind: 'changed' });
     this.actor = this.store?.actor ?? null;
   }
 }
