@@ -50,17 +50,40 @@ async function upgradeToV2(tx: Transaction): Promise<void> {
     });
 }
 
+const V2_STORES = {
+  ...V1_STORES,
+  observations: 'id, patientId, assessmentId, measureCode, updatedAt, [patientId+measureCode+takenAt]',
+  audit: 'id, recordId, table, createdAt, [table+recordId]',
+} as const;
+
+/**
+ * Version 5: indexes nothing reads are dropped, because every index costs a write per record
+ * (measured on Chromium, DEVELOPERS.md store figures). Observations keep patientId (a patient's
+ * records, a patient's backup) and [patientId+measureCode+takenAt] (series); assessmentId,
+ * measureCode and updatedAt go. The audit log keeps createdAt (finds the batch entry of a record
+ * created in bulk) and [table+recordId] (a record's history); recordId and table go. Records are
+ * unchanged: IndexedDB drops the indexes itself, so the upgrade has nothing to rewrite.
+ */
+async function upgradeToV5(): Promise<void> {}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
     version: 2,
-    stores: {
-      ...V1_STORES,
-      observations: 'id, patientId, assessmentId, measureCode, updatedAt, [patientId+measureCode+takenAt]',
-      audit: 'id, recordId, table, createdAt, [table+recordId]',
-    },
+    stores: V2_STORES,
     upgrade: upgradeToV2,
     summary: 'observations.takenAt backfilled from the assessment; index [patientId+measureCode+takenAt]; audit [table+recordId]',
+  },
+  // Versions 3 and 4 are taken by work on other branches; the numbers are renumbered when merged.
+  {
+    version: 5,
+    stores: {
+      ...V2_STORES,
+      observations: 'id, patientId, [patientId+measureCode+takenAt]',
+      audit: 'id, createdAt, [table+recordId]',
+    },
+    upgrade: upgradeToV5,
+    summary: 'unused indexes dropped: observations assessmentId, measureCode, updatedAt; audit recordId, table',
   },
 ];
 
