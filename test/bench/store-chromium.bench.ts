@@ -24,6 +24,10 @@ export async function run(print: (line: string) => void): Promise<void> {
     type Rate = { total: number; stored: number; seconds: number; perSecond: number };
     const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: (n: number) => Promise<Rate> }).bulkInsertPrevious(n), 20_000)) as Rate;
     print(`Chromium ${browser.version()} IndexedDB bulk insert, previous path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
+    for (const perRow of [1, 50]) {
+      const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
+      print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / previous.perSecond).toFixed(2)}× previous`);
+    }
     for (const total of [20_000, 100_000]) {
       const r = (await page.evaluate(
         (n) => (globalThis as unknown as { storeChecks: { bulkInsert: (n: number) => Promise<unknown> } }).storeChecks.bulkInsert(n),

@@ -273,3 +273,42 @@ export async function fillCaseload(count: number): Promise<{ patients: number; s
   return { patients: count, seconds: (performance.now() - start) / 1000 };
 }
 (globalThis as unknown as { fillCaseload: typeof fillCaseload }).fillCaseload = fillCaseload;
+
+/**
+ * The ceiling of the storage layout, for the bench: `total` observation-shaped objects put with
+ * plain IndexedDB (no Dexie, no index, no validation, no audit), `perRow` objects per stored value.
+ * perRow 1 is today's layout (one row per observation); a larger perRow shows what packing
+ * observations into blocks would allow.
+ */
+export async function rawPutCeiling(total: number, perRow: number): Promise<{ perSecond: number }> {
+  const name = 'kinnote-browser-bench-raw';
+  await Dexie.delete(name);
+  const db: IDBDatabase = await new Promise((resolve, reject) => {
+    const request = indexedDB.open(name, 1);
+    request.onupgradeneeded = () => request.result.createObjectStore('rows', { keyPath: 'id' });
+    request.onsuccess = () => resolve(request.result);
+    request.onerror = () => reject(request.error);
+  });
+  const observation = (i: number) => ({
+    id: ids(i), ...stamps, patientId: ids(1), assessmentId: ids(2), takenAt: '2025-03-01T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors',
+    side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '1+', rank: 2 }, traceId: null,
+  });
+  const values: { id: string; items: unknown[] }[] = [];
+  for (let i = 0; i < total; i += perRow) values.push({ id: ids(i), items: Array.from({ length: Math.min(perRow, total - i) }, (_, k) => observation(i + k)) });
+  const rowsPerTransaction = Math.max(1, Math.floor(5000 / perRow));
+  const start = performance.now();
+  for (let i = 0; i < values.length; i += rowsPerTransaction) {
+    await new Promise<void>((resolve, reject) => {
+      const tx = db.transaction('rows', 'readwrite');
+      const store = tx.objectStore('rows');
+      for (const value of values.slice(i, i + rowsPerTransaction)) store.add(perRow === 1 ? value.items[0] : value);
+      tx.oncomplete = () => resolve();
+      tx.onerror = () => reject(tx.error);
+    });
+  }
+  const seconds = (performance.now() - start) / 1000;
+  db.close();
+  await Dexie.delete(name);
+  return { perSecond: total / seconds };
+}
+(globalThis as unknown as { rawPutCeiling: typeof rawPutCeiling }).rawPutCeiling = rawPutCeiling;
