@@ -3,6 +3,37 @@ import type { Plugin } from 'vite';
 import { defineConfig } from 'vitest/config';
 import { generateSW } from 'workbox-build';
 import { existsSync } from 'node:fs';
+import { budgetProblem, firstLoad, FIRST_LOAD_BUDGET_BYTES, type ChunkInfo } from './test/bundle-size/first-load-budget.ts';
+
+/**
+ * Fails the client build when the JavaScript of the first screen passes its budget (120 KB gzip)
+ * or pulls in the chart library or the QR reader (test/build/first-load-budget.ts says what counts).
+ */
+function firstLoadBudget(): Plugin {
+  let isClientBuild = false;
+  let root = process.cwd();
+  return {
+    name: 'kinnote-first-load-budget',
+    apply: 'build',
+    configResolved(config) {
+      isClientBuild = !config.build.ssr && !config.build.lib;
+      root = config.root;
+    },
+    generateBundle(_options, bundle) {
+      if (!isClientBuild) return;
+      const chunks: ChunkInfo[] = [];
+      for (const item of Object.values(bundle)) {
+        if (item.type === 'chunk') chunks.push({ fileName: item.fileName, code: item.code, imports: item.imports, moduleIds: item.moduleIds, facadeModuleId: item.facadeModuleId });
+      }
+      // Worker bundles and other nested builds have no SvelteKit entry: nothing to check there.
+      if (!chunks.some((c) => c.facadeModuleId?.replaceAll('\\', '/').endsWith('/kit/src/runtime/client/entry.js'))) return;
+      const load = firstLoad(chunks, root);
+      const problem = budgetProblem(load);
+      if (problem) this.error(problem);
+      console.log(`[first-load budget] ${(load.gzipBytes / 1024).toFixed(1)} KB gzip of ${(FIRST_LOAD_BUDGET_BYTES / 1024).toFixed(0)} KB in ${load.files.length} files; no uPlot, no jsQR`);
+    },
+  };
+}
 
 /**
  * Writes build/sw.js with Workbox once adapter-static has written build/.
@@ -46,7 +77,7 @@ function offlineWorker(): Plugin {
 }
 
 export default defineConfig({
-  plugins: [sveltekit(), offlineWorker()],
+  plugins: [sveltekit(), firstLoadBudget(), offlineWorker()],
   worker: { format: 'es' },
   // Rolldown's plugin-timing notice counts the service-worker step (after the build) as slow; it is expected.
   build: { rolldownOptions: { checks: { pluginTimings: false } } },

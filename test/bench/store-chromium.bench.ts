@@ -1,5 +1,6 @@
 // Bulk insert rate on Chromium's real IndexedDB: 100,000 observations, validated, stamped and
-// audited, in batches of 5,000 (the same repository path as the app). Needs a build (npm run build)
+// audited, in batches of 5,000 (the same repository path as the app), and the previous path
+// (schema 2 indexes, a full audit snapshot per record) in the same page for the ratio. Needs a build (npm run build)
 // and Chromium (/usr/bin/chromium or CHROME_PATH); prints what is missing otherwise.
 import { existsSync } from 'node:fs';
 import { chromium } from 'playwright-core';
@@ -21,12 +22,22 @@ export async function run(print: (line: string) => void): Promise<void> {
     await page.goto(`${server.url}/bench`);
     // Through the DevTools protocol: the page's Content-Security-Policy refuses inline <script> tags.
     await page.evaluate(`${bundle}\n;undefined`);
-    for (const total of [10_000, 100_000]) {
+    type Rate = { total: number; stored: number; seconds: number; perSecond: number };
+    const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: (n: number) => Promise<Rate> }).bulkInsertPrevious(n), 20_000)) as Rate;
+    print(`Chromium ${browser.version()} IndexedDB bulk insert, previous path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
+    for (const perRow of [1, 50]) {
+      const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
+      print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / previous.perSecond).toFixed(2)}× previous`);
+    }
+    for (const total of [20_000, 100_000]) {
       const r = (await page.evaluate(
         (n) => (globalThis as unknown as { storeChecks: { bulkInsert: (n: number) => Promise<unknown> } }).storeChecks.bulkInsert(n),
         total,
-      )) as { total: number; stored: number; seconds: number; perSecond: number };
-      print(`Chromium ${browser.version()} IndexedDB bulk insert: ${r.stored.toLocaleString('en')} observations (+ as many audit entries) in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s`);
+      )) as Rate;
+      print(
+        `Chromium IndexedDB bulk insert (repository, validated, stamped, one batch audit entry per 5,000): ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s` +
+          ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / previous.perSecond).toFixed(2)}× previous`,
+      );
     }
   } finally {
     await browser.close();

@@ -7,12 +7,62 @@
  * nothing is silently lost. Cost: O(size) plus sorting keys.
  */
 export function canonicalJson(value: unknown): string {
+  const keys = new Set<string>();
+  if (value !== undefined && collectKeys(value, keys)) {
+    // Fast path, same text: JSON.stringify with an array replacer writes the keys of every object
+    // in the array's order (ECMA-262, SerializeJSONObject uses the PropertyList), so the sorted set
+    // of all keys gives sorted keys at every depth. collectKeys has already refused everything
+    // JSON.stringify would treat differently (non-finite numbers, non-plain objects).
+    return JSON.stringify(value, [...keys].sort());
+  }
   const parts: string[] = [];
-  write(value, parts, '$');
+  try {
+    write(value, parts, null);
+  } catch (error) {
+    if (!(error instanceof TypeError)) throw error;
+    // Rerun with paths only to name where the bad value is: building a path string for every
+    // value made the checksum of a large backup several times slower.
+    write(value, [], '$');
+    throw error;
+  }
   return parts.join('');
 }
 
-function write(value: unknown, out: string[], path: string): void {
+/** Adds every object key under `value` to `keys`; false when a value is not plain JSON data. */
+function collectKeys(value: unknown, keys: Set<string>): boolean {
+  if (value === null) return true;
+  switch (typeof value) {
+    case 'string':
+    case 'boolean':
+      return true;
+    case 'number':
+      return Number.isFinite(value);
+    case 'object':
+      break;
+    default:
+      return false;
+  }
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const item = value[i] as unknown;
+      if (item !== undefined && !collectKeys(item, keys)) return false;
+    }
+    return true;
+  }
+  const proto = Object.getPrototypeOf(value) as unknown;
+  if (proto !== Object.prototype && proto !== null) return false;
+  const record = value as Record<string, unknown>;
+  for (const key of Object.keys(record)) {
+    const item = record[key];
+    if (item === undefined) continue;
+    keys.add(key);
+    if (!collectKeys(item, keys)) return false;
+  }
+  return true;
+}
+
+/** `path` is null on the fast pass (no path strings built); the error pass tracks it. */
+function write(value: unknown, out: string[], path: string | null): void {
   if (value === null) {
     out.push('null');
     return;
@@ -37,7 +87,7 @@ function write(value: unknown, out: string[], path: string): void {
     out.push('[');
     for (let i = 0; i < value.length; i++) {
       if (i > 0) out.push(',');
-      write(value[i] === undefined ? null : value[i], out, `${path}[${i}]`);
+      write(value[i] === undefined ? null : value[i], out, path === null ? null : `${path}[${i}]`);
     }
     out.push(']');
     return;
@@ -49,10 +99,11 @@ function write(value: unknown, out: string[], path: string): void {
   const record = value as Record<string, unknown>;
   const keys = Object.keys(record).filter((k) => record[k] !== undefined).sort();
   out.push('{');
-  keys.forEach((key, i) => {
+  for (let i = 0; i < keys.length; i++) {
+    const key = keys[i] as string;
     if (i > 0) out.push(',');
     out.push(JSON.stringify(key), ':');
-    write(record[key], out, `${path}.${key}`);
-  });
+    write(record[key], out, path === null ? null : `${path}.${key}`);
+  }
   out.push('}');
 }

@@ -1,5 +1,6 @@
 import Dexie, { type DBCore, type Middleware } from 'dexie';
-import { createUuidV7Generator, type AuditEntry, type RandomBytes } from '../domain';
+import { createUuidV7Generator, isTableName, type AuditEntry, type RandomBytes } from '../domain';
+import { batchContent } from './batch-audit';
 import { makeCodecs } from './codecs';
 import { DEFAULT_KDF_ITERATIONS, cryptoRandomBytes } from './crypto-box';
 import { IdentityRepository, ObservationRepository, Repository } from './repository';
@@ -177,8 +178,17 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
     selfReports: new Repository(context, 'selfReports'),
     reliabilityStudies: new Repository(context, 'reliabilityStudies'),
     audit: {
-      forRecord: async (table, recordId) =>
-        (await audit.where('[table+recordId]').equals([table, recordId]).toArray()).sort((a, b) => (a.id < b.id ? -1 : 1)),
+      forRecord: async (table, recordId) => {
+        const entries = await audit.where('[table+recordId]').equals([table, recordId]).toArray();
+        // A record created in bulk is named by a batch entry stamped with the record's createdAt.
+        const row = isTableName(table) ? ((await db.table(table).get(recordId)) as { createdAt?: string } | undefined) : undefined;
+        if (row?.createdAt) {
+          for (const e of await audit.where('createdAt').equals(row.createdAt).toArray()) {
+            if (e.table === table && batchContent(e)?.recordIds.includes(recordId)) entries.push(e);
+          }
+        }
+        return entries.sort((a, b) => (a.id < b.id ? -1 : 1));
+      },
       recent: (limit) => audit.orderBy('id').reverse().limit(limit).toArray(),
       count: () => audit.count(),
       logExport: async (note) => {

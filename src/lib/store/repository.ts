@@ -2,6 +2,7 @@ import Dexie, { type Table } from 'dexie';
 import { validateRecord, type AuditEntry, type RecordInput, type RecordTables, type TableName } from '../domain';
 import type { Codec } from './codecs';
 import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
+import { batchAuditEntry, BATCH_AUDIT_MIN_RECORDS } from './batch-audit';
 import { auditSnapshot, type Row } from './rows';
 import { auditEntry, nextTimestamp, requireActor, type StoreContext } from './store-context';
 import { StoreError, toStoreError, type StoreIssue } from './store-error';
@@ -110,8 +111,9 @@ export class Repository<K extends WritableTable> {
 
   /**
    * Creates many records in one transaction (the bulk path for imports of measurements and the
-   * benchmark): all are validated first, and if any fails nothing is written. One audit entry per
-   * record, written in the same transaction.
+   * benchmark): all are validated first, and if any fails nothing is written. The audit entries
+   * (one per record, or one batch entry for a large batch: see batch-audit.ts) are written in the
+   * same transaction.
    */
   async createMany(inputs: readonly Input<K>[], options: WriteOptions & { firstForPatient?: boolean } = {}): Promise<Row<K>[]> {
     const { rows, audits } = await this.prepareCreate(inputs);
@@ -161,6 +163,9 @@ export class Repository<K extends WritableTable> {
     if (issues.length > 0) throw validationFailed(this.table, issues);
     const rows: Row<K>[] = [];
     for (const record of records) rows.push(await this.codec.toRow(record));
+    if (rows.length >= BATCH_AUDIT_MIN_RECORDS) {
+      return { rows, audits: [await batchAuditEntry(this.ctx, at, this.table, rows as never)] };
+    }
     const audits = rows.map((row) =>
       auditEntry(this.ctx, at, 'create', this.table, (row as { id: string }).id, null, auditSnapshot(this.table, row as never)),
     );

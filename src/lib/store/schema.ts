@@ -66,6 +66,16 @@ async function upgradeToV4(tx: Transaction): Promise<void> {
   await tx.table('meta').put({ key: 'draftsFromLocalStorage', value: 'pending' });
 }
 
+/**
+ * Version 5: indexes nothing reads are dropped, because every index costs a write per record
+ * (measured on Chromium, DEVELOPERS.md store figures). Observations keep patientId (a patient's
+ * records, a patient's backup) and [patientId+measureCode+takenAt] (series); assessmentId,
+ * measureCode and updatedAt go. The audit log keeps createdAt (finds the batch entry of a record
+ * created in bulk) and [table+recordId] (a record's history); recordId and table go. Records are
+ * unchanged: IndexedDB drops the indexes itself, so the upgrade has nothing to rewrite.
+ */
+async function upgradeToV5(): Promise<void> {}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -81,6 +91,15 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { drafts: 'id, [form+subjectId]' },
     upgrade: upgradeToV4,
     summary: 'drafts table (unsaved forms, one per form, subject and tab); localStorage drafts moved over once',
+  },
+  {
+    version: 5,
+    stores: {
+      observations: 'id, patientId, [patientId+measureCode+takenAt]',
+      audit: 'id, createdAt, [table+recordId]',
+    },
+    upgrade: upgradeToV5,
+    summary: 'unused indexes dropped: observations assessmentId, measureCode, updatedAt; audit recordId, table',
   },
 ];
 

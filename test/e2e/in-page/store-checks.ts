@@ -1,8 +1,9 @@
 // Store checks that run inside Chromium, on real IndexedDB and Web Crypto. Bundled by
 // test/e2e/bundle-for-page.ts and driven by test/e2e/store.e2e.ts and the Chromium bench.
 import Dexie from 'dexie';
-import { ordinalValue } from '../../../src/lib/domain';
+import { ordinalValue, validateRecord } from '../../../src/lib/domain';
 import { declareSchema, exportBackupText, importBackup, openStore, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { auditSnapshot } from '../../../src/lib/store/rows';
 
 const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;
 const stamps = { createdAt: '2025-01-01T10:00:00.000Z', updatedAt: '2025-01-01T10:00:00.000Z', deviceId: ids(900), clinicianId: ids(901), deleted: false };
@@ -162,6 +163,59 @@ export const storeChecks = {
 (globalThis as unknown as { storeChecks: typeof storeChecks }).storeChecks = storeChecks;
 
 /**
+ * The bulk path as it was before schema 5 (for the bench's ratio, same run, same page): the
+ * version-2 indexes, and one audit entry with a full snapshot per record. Validation and stamping
+ * are the same calls the repository makes.
+ */
+export async function bulkInsertPrevious(total: number, batch = 5000): Promise<{ total: number; stored: number; seconds: number; perSecond: number }> {
+  const name = 'kinnote-browser-bench-previous';
+  await Dexie.delete(name);
+  const db = new Dexie(name);
+  declareSchema(db, 2);
+  await db.open();
+  const uuid = () => {
+    const b = crypto.getRandomValues(new Uint8Array(16));
+    b[6] = 0x70 | (b[6]! & 0x0f);
+    b[8] = 0x80 | (b[8]! & 0x3f);
+    const h = Array.from(b, (x) => x.toString(16).padStart(2, '0')).join('');
+    return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
+  };
+  const actor = { deviceId: uuid(), clinicianId: uuid() };
+  const patientId = uuid();
+  const assessmentId = uuid();
+  const grades = ['0', '1', '1+', '2', '3', '4'];
+  const start = performance.now();
+  for (let done = 0; done < total; done += batch) {
+    const at = new Date().toISOString();
+    const rows: Record<string, unknown>[] = [];
+    for (let i = done; i < Math.min(total, done + batch); i++) {
+      const candidate = {
+        patientId, assessmentId, takenAt: '2025-03-01T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null,
+        value: ordinalValue('mas', grades[i % 6] as string), traceId: null,
+        id: uuid(), createdAt: at, updatedAt: at, ...actor, deleted: false,
+      };
+      const result = validateRecord('observations', candidate);
+      if (!result.ok) throw new Error(JSON.stringify(result.issues));
+      rows.push(result.record as unknown as Record<string, unknown>);
+    }
+    const audits = rows.map((row) => ({
+      id: uuid(), createdAt: at, updatedAt: at, ...actor, deleted: false, action: 'create', table: 'observations', recordId: row.id, before: null,
+      after: auditSnapshot('observations', row as never), note: null,
+    }));
+    await db.transaction('rw', ['observations', 'audit'], async () => {
+      await db.table('observations').bulkAdd(rows);
+      await db.table('audit').bulkAdd(audits);
+    });
+  }
+  const seconds = (performance.now() - start) / 1000;
+  const stored = await db.table('observations').count();
+  db.close();
+  await Dexie.delete(name);
+  return { total, stored, seconds, perSecond: total / seconds };
+}
+(globalThis as unknown as { bulkInsertPrevious: typeof bulkInsertPrevious }).bulkInsertPrevious = bulkInsertPrevious;
+
+/**
  * Fills the app's own database (already set up on this device) with `count` invented patients, each
  * with one assessment and two Modified Ashworth grades, for the large-caseload test.
  */
@@ -219,3 +273,42 @@ export async function fillCaseload(count: number): Promise<{ patients: number; s
   return { patients: count, seconds: (performance.now() - start) / 1000 };
 }
 (globalThis as unknown as { fillCaseload: typeof fillCaseload }).fillCaseload = fillCaseload;
+
+/**
+ * The ceiling of the storage layout, for the bench: `total` observation-shaped objects put with
+ * plain IndexedDB (no Dexie, no index, no validation, no audit), `perRow` objects per stored value.
+ * perRow 1 is today's layout (one row per observation); a larger perRow shows what packing
+ * observations into blocks would allow.
+ */
+export async function rawPutCeiling(total: number, perRow: number): Promise<{ perSecond: number }> {
+  const name = 'kinnote-browser-bench-raw';
+  await Dexie.delete(name);
+  const db: IDBDatabase = await new Promise((resolve, reject) => {
+    const request = indexedDB.open(name, 1);
+    request.onupgradeneeded = () => request.result.createObjectStore('rows', { keyPath: 'id' });
+    request.onsuccess = () => resolve(request.result);
+    request.onerror = () => reject(request.error);
+  });
+  const observation = (i: number) => ({
+    id: ids(i), ...stamps, patientId: ids(1), assessmentId: ids(2), takenAt: '2025-03-01T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors',
+    side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '1+', rank: 2 }, traceId: null,
+  });
+  const values: { id: string; items: unknown[] }[] = [];
+  for (let i = 0; i < total; i += perRow) values.push({ id: ids(i), items: Array.from({ length: Math.min(perRow, total - i) }, (_, k) => observation(i + k)) });
+  const rowsPerTransaction = Math.max(1, Math.floor(5000 / perRow));
+  const start = performance.now();
+  for (let i = 0; i < values.length; i += rowsPerTransaction) {
+    await new Promise<void>((resolve, reject) => {
+      const tx = db.transaction('rows', 'readwrite');
+      const store = tx.objectStore('rows');
+      for (const value of values.slice(i, i + rowsPerTransaction)) store.add(perRow === 1 ? value.items[0] : value);
+      tx.oncomplete = () => resolve();
+      tx.onerror = () => reject(tx.error);
+    });
+  }
+  const seconds = (performance.now() - start) / 1000;
+  db.close();
+  await Dexie.delete(name);
+  return { perSecond: total / seconds };
+}
+(globalThis as unknown as { rawPutCeiling: typeof rawPutCeiling }).rawPutCeiling = rawPutCeiling;

@@ -16,6 +16,27 @@ describe('canonicalJson', () => {
       }),
     );
   });
+  it('equals a plain recursive writer with keys sorted at every depth (property; the fast path must not change a byte)', () => {
+    // Reference written here, independent of the store: sort keys by UTF-16 code units, recurse.
+    const reference = (value: unknown): string => {
+      if (Array.isArray(value)) return `[${value.map((v) => (v === undefined ? 'null' : reference(v))).join(',')}]`;
+      if (value !== null && typeof value === 'object') {
+        const record = value as Record<string, unknown>;
+        const keys = Object.keys(record).filter((k) => record[k] !== undefined).sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+        return `{${keys.map((k) => `${JSON.stringify(k)}:${reference(record[k])}`).join(',')}}`;
+      }
+      return JSON.stringify(value);
+    };
+    fc.assert(
+      fc.property(fc.jsonValue(), (value) => {
+        expect(canonicalJson(value)).toBe(reference(value));
+      }),
+      { numRuns: 500 },
+    );
+    // Same key at two depths with different siblings, and records as a store writes them.
+    const rows = [{ z: 1, id: 'b', value: { z: 2, kind: 'ordinal', id: null } }, { id: 'a', value: { rank: 0 }, a: [] }];
+    expect(canonicalJson(rows)).toBe(reference(rows));
+  });
   it('refuses values JSON cannot hold', () => {
     expect(() => canonicalJson({ x: Number.NaN })).toThrow(/\$\.x/);
     expect(() => canonicalJson({ x: new Float64Array(1) })).toThrow(TypeError);

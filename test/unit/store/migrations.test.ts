@@ -61,9 +61,9 @@ describe('schema migrations', () => {
       const { takenAt: _t, ...rest } = o;
       expect(rest).toEqual(rows.observations[i]);
     }
-    // New compound index answers range queries; old indexes still work.
+    // New compound index answers range queries; the kept patientId index still works.
     expect((await store.observations.series(ids(1), 'mas')).map((o) => o.id)).toEqual([ids(12), ids(10), ids(11)]);
-    expect(await store.db.table('observations').where('assessmentId').equals(ids(3)).count()).toBe(1);
+    expect(await store.db.table('observations').where('patientId').equals(ids(1)).count()).toBe(3);
     expect(await store.audit.forRecord('patients', ids(1))).toEqual(rows.audit);
     expect(store.actor).toEqual({ deviceId: ids(900), clinicianId: ids(901) });
     const schema = store.db.table('observations').schema;
@@ -71,6 +71,36 @@ describe('schema migrations', () => {
     // Records written after the upgrade still validate against the current schema.
     const { validateRecord } = await import('../../../src/lib/domain');
     for (const o of observations) expect(validateRecord('observations', o).ok).toBe(true);
+    store.close();
+  });
+
+  it('v2 → v5: unused indexes dropped, every record and the indexes still read intact', async () => {
+    const factory = new IDBFactory();
+    const rows = v1Rows();
+    const observations = rows.observations.map((o, i) => ({ ...o, takenAt: `2025-01-0${i + 2}T09:00:00.000Z` }));
+    const old = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    declareSchema(old, 2);
+    await old.open();
+    expect(old.verno).toBe(2);
+    await old.table('patients').add(rows.patient);
+    await old.table('assessments').bulkAdd(rows.assessments);
+    await old.table('observations').bulkAdd(observations);
+    await old.table('audit').bulkAdd(rows.audit);
+    await old.table('traces').add(rows.trace);
+    old.close();
+
+    const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
+    const names = (table: string) => new Set(store.db.backendDB().transaction(table).objectStore(table).indexNames);
+    expect(names('observations')).toEqual(new Set(['patientId', '[patientId+measureCode+takenAt]']));
+    expect(names('audit')).toEqual(new Set(['createdAt', '[table+recordId]']));
+    expect(await store.observations.list()).toEqual(observations);
+    expect(await store.assessments.list()).toEqual(rows.assessments);
+    expect(await store.patients.get(ids(1))).toEqual(rows.patient);
+    expect(Array.from((await store.traces.get(ids(60)))!.channels[0]!.samples)).toEqual([1, 2, 3]);
+    expect((await store.observations.series(ids(1), 'mas')).map((o) => o.id)).toEqual([ids(10), ids(11), ids(12)]);
+    expect((await store.observations.byPatient(ids(1))).map((o) => o.id)).toEqual([ids(10), ids(11), ids(12)]);
+    expect(await store.audit.forRecord('patients', ids(1))).toEqual(rows.audit);
     store.close();
   });
 

@@ -1,0 +1,53 @@
+import type { AuditEntry, RecordBase, TableName } from '../domain';
+import { canonicalJson } from './canonical-json';
+import { sha256Hex } from './crypto-box';
+import { auditSnapshot } from './rows';
+import { auditEntry, type StoreContext } from './store-context';
+
+/**
+ * From this many records created in one write, the audit log gets one batch entry instead of one
+ * entry per record. Interactive saves (a visit: a handful of records) keep a full snapshot per
+ * record; bulk writes (imports of measurements, a team sync) would otherwise write every record
+ * twice, which halved the write rate on Chromium (see DEVELOPERS.md, store figures).
+ */
+export const BATCH_AUDIT_MIN_RECORDS = 100;
+
+/** What a batch entry's `after` holds. */
+export interface BatchAuditContent {
+  /** Ids of the created records, in the order the digest covers them. */
+  readonly recordIds: readonly string[];
+  readonly count: number;
+  /**
+   * SHA-256 (hex) of canonicalJson of the array of the records' audit snapshots (auditSnapshot:
+   * sealed text as a marker, trace samples as counts), in `recordIds` order.
+   */
+  readonly digest: { readonly algorithm: 'SHA-256'; readonly over: 'canonical-json-of-audit-snapshots'; readonly value: string };
+}
+
+/**
+ * One audit entry for many records created together: action 'create', recordId null (so the
+ * per-record index [table+recordId] stays small), who, where and when as for any entry, and in
+ * `after` the ids and a digest of what was created.
+ *
+ * Why an auditor loses nothing: a created record is only ever changed through the repository,
+ * which audits every later change with its full `before` snapshot. The state at creation is
+ * therefore the `before` of the record's first later entry, or the current row when there is none;
+ * recomputing the digest over those states proves the reconstruction (and detects an edit that
+ * bypassed the store). Cost: one canonical serialisation of the batch and one SHA-256.
+ */
+export async function batchAuditEntry(ctx: StoreContext, at: string, table: TableName, rows: readonly RecordBase[]): Promise<AuditEntry> {
+  const recordIds = rows.map((r) => r.id);
+  // A snapshot differs from its row only where text is sealed or samples are counted; elsewhere
+  // the rows themselves give the same canonical text without copying them.
+  const plain = ctx.codecs[table].sealedFields.length === 0 && table !== 'traces';
+  const value = await sha256Hex(canonicalJson(plain ? rows : rows.map((r) => auditSnapshot(table, r))));
+  const content: BatchAuditContent = { recordIds, count: rows.length, digest: { algorithm: 'SHA-256', over: 'canonical-json-of-audit-snapshots', value } };
+  return auditEntry(ctx, at, 'create', table, null, null, content as unknown as Record<string, unknown>, `batch of ${rows.length} ${table}`);
+}
+
+/** The batch content of an entry, or null when it is no batch entry. */
+export function batchContent(entry: AuditEntry): BatchAuditContent | null {
+  if (entry.action !== 'create' || entry.recordId !== null || entry.after === null) return null;
+  const after = entry.after as Partial<BatchAuditContent>;
+  return Array.isArray(after.recordIds) && after.digest?.algorithm === 'SHA-256' ? (after as BatchAuditContent) : null;
+}
