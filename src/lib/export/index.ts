@@ -7,7 +7,7 @@ export type { CohortCondition, CohortFilters, CohortRecords, CohortSetting, Coho
 export { buildCohortIndex, type CohortIndex, type CohortSeries, type DatedEvent } from './cohort-index';
 export { countCohort, selectCohort, type Cohort, type CohortCount, type CohortPair } from './select-cohort';
 export { measureQuantities, type MeasureQuantity } from './measure-quantities';
-export { groupKey, pairChange, summariseCohort, type CohortGroupSummary, type CohortSummary, type PairChange, type SummariseOptions } from './summarise-cohort';
+export { groupKey, pairChange, pairMdc, summariseCohort, type CohortGroupSummary, type CohortSummary, type PairChange, type SummariseOptions } from './summarise-cohort';
 export {
   birthYearBand,
   prepareDisclosure,
