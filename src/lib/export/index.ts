@@ -43,4 +43,5 @@ export {
   type CohortFileKind,
   type PreparedCohortExport,
 } from './export-cohort';
-export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS } from './patient-observations-csv';
+export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS, type PatientCsvOptions } from './patient-observations-csv';
+export { localDateTime, type LocalDateTime } from './local-date-time';

@@ -55,6 +55,8 @@ export interface OutcomeSeries {
   readonly mdc: MdcProvenance | null;
   /** Why there is no MDC; null when there is one. */
   readonly mdcNote: string | null;
+  /** Each point's change from baseline judged by the same rule (null for baseline points and earlier ones). */
+  readonly judgements: readonly (ChangeVerdict | null)[];
   readonly trend: OutcomeTrend | null;
 }
 
@@ -141,28 +143,35 @@ export function outcomeSeries(observations: readonly Observation[], options: Out
     const latest = points[points.length - 1]!;
     const betterWhen = measure.improvement === 'none' ? null : measure.improvement;
 
-    // The MDC fits the comparison actually made: the baseline observation(s) and the latest.
-    const comparedIndices = baseline ? [...baseline.indices, points.length - 1] : [points.length - 1];
-    const { mdc, note: mdcNote } = chooseMdc({
-      measureCode: measure.code,
-      siteCode: first.siteCode,
-      quantity: null,
-      compared: comparedIndices.map((i) => ({
-        instrument: list[i]!.instrument,
-        assessorId: options.assessorByAssessment?.get(list[i]!.assessmentId) ?? list[i]!.clinicianId,
-      })),
-      ...(options.localMdc ? { localMdc: options.localMdc } : {}),
-    });
     const scale: MeasureScale =
       measure.kind === 'ordinal'
         ? { kind: 'ordinal', grades: measure.grades.map((g) => ({ label: g.label, rank: g.rank })) }
         : { kind: 'continuous', unit: measure.unit === 'deg' ? '°' : '', decimals: measure.kind === 'index' ? 2 : 0 };
+    // Each later point judged against the baseline; the MDC fits the comparison actually made
+    // (the baseline observation(s) and that point: their instruments and assessors).
+    const judge = (i: number): { mdc: MdcProvenance | null; mdcNote: string | null; verdict: ChangeVerdict | null } => {
+      const compared = baseline ? [...baseline.indices, i] : [i];
+      const choice = chooseMdc({
+        measureCode: measure.code,
+        siteCode: first.siteCode,
+        quantity: null,
+        compared: compared.map((k) => ({
+          instrument: list[k]!.instrument,
+          assessorId: options.assessorByAssessment?.get(list[k]!.assessmentId) ?? list[k]!.clinicianId,
+        })),
+        ...(options.localMdc ? { localMdc: options.localMdc } : {}),
+      });
+      // A baseline point itself is no change: a verdict needs a later assessment.
+      const verdict =
+        baseline && betterWhen && !baseline.indices.includes(i) && i > Math.min(...baseline.indices)
+          ? changeVerdict({ betterWhen, scale, baseline, followUp: points[i]!.value, mdc: choice.mdc })
+          : null;
+      return { mdc: choice.mdc, mdcNote: choice.note, verdict };
+    };
+    const judgements = points.map((_, i) => judge(i).verdict);
+    const { mdc, mdcNote } = judge(points.length - 1);
     const title = seriesTitle(measure, first.siteCode, first.side, first.mode);
-    // The baseline point itself is no change: a verdict needs a later assessment.
-    const verdict =
-      baseline && betterWhen && points.length > 1 && !baseline.indices.includes(points.length - 1)
-        ? changeVerdict({ measureLabel: title, betterWhen, scale, baseline, followUp: latest.value, mdc })
-        : null;
+    const verdict = judgements[points.length - 1] ?? null;
 
     let trend: OutcomeTrend | null = null;
     if (points.length >= 3 && timesDay[timesDay.length - 1]! > timesDay[0]!) {
@@ -215,6 +224,7 @@ export function outcomeSeries(observations: readonly Observation[], options: Out
       verdict,
       mdc,
       mdcNote,
+      judgements,
       trend,
     });
   }
