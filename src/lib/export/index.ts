@@ -1,5 +1,5 @@
 // Public face of src/lib/export: CSV (RFC 4180), de-identification, FHIR R4.
-export { csvCell, csvRow } from './csv-cell';
+export { csvCell, csvRow, csvUnit } from './csv-cell';
 
 // Cohort audit: selection, summary, de-identification and streamed files (long, wide, summary CSV; FHIR R4).
 export { CohortExportError } from './cohort-export-error';
@@ -35,6 +35,7 @@ export {
   COHORT_FILE_KINDS,
   CohortExportCancelled,
   prepareCohortExport,
+  cohortFileName,
   runCohortExport,
   type CohortExportHooks,
   type CohortExportOptions,

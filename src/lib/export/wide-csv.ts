@@ -1,5 +1,5 @@
 import type { MeasureQuantity } from './measure-quantities';
-import { csvRow } from './csv-cell';
+import { csvRow, csvUnit } from './csv-cell';
 import { dayColumnName, patientCells, patientHeader, type Cell } from './long-csv';
 import { measureQuantities } from './measure-quantities';
 import { disclosedDay, type DisclosurePlan } from './prepare-disclosure';
@@ -66,8 +66,8 @@ export function* wideCsvChunks(cohort: Cohort, summary: CohortSummary, plan: Dis
         s.side,
         s.mode,
         quantity.key,
-        quantity.unit,
-        quantity.changeUnit,
+        csvUnit(quantity.unit),
+        csvUnit(quantity.changeUnit),
         quantity.betterWhen,
         pair.event?.kind ?? null,
         pair.eventDay === null ? null : disclosedDay(plan, view, pair.eventDay),
