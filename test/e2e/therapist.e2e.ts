@@ -118,7 +118,7 @@ describe('therapist on a home visit', () => {
     await page.getByRole('radio', { name: 'Left' }).check();
     await page.getByRole('button', { name: 'Save to the record' }).click();
     await page.getByText('Assessment saved.').waitFor();
-    await expect(page.locator('ul.series').getByText('Left knee (leg-drop pendulum) · Pendulum relaxation index (R2)').count()).resolves.toBe(1);
+    await expect(page.locator('table.overview').getByText('Left knee (leg-drop pendulum) · Pendulum relaxation index (R2)').count()).resolves.toBe(1);
     await context.close();
   });
 
