@@ -27,13 +27,20 @@ describe('cohort audit in the browser', () => {
     await page.getByRole('heading', { name: 'Cohort audit' }).waitFor();
 
     const count = page.locator('p.count');
-    await count.getByText(/patients ·/).waitFor();
-    const everyone = Number(await count.locator('strong').textContent());
+    await count.getByText(/patients? ·/).waitFor();
+    const everyone = parseInt((await count.locator('strong').textContent()) ?? '', 10);
     expect(everyone).toBeGreaterThan(0);
     // A narrower filter gives a smaller (live) count: only the left side.
     await page.getByRole('combobox', { name: /^Side/ }).selectOption('left');
-    await expect.poll(async () => Number(await count.locator('strong').textContent())).toBeLessThanOrEqual(everyone);
+    await expect.poll(async () => parseInt((await count.locator('strong').textContent()) ?? '', 10)).toBeLessThanOrEqual(everyone);
     await page.getByRole('combobox', { name: /^Side/ }).selectOption('');
+    // A site of one measure, then another measure: the site resets; no developer error, the count stays.
+    await page.getByRole('combobox', { name: /^Site/ }).selectOption('ankle-plantarflexors');
+    await page.getByRole('combobox', { name: /^Measure/ }).selectOption('rom');
+    await expect.poll(async () => page.getByRole('combobox', { name: /^Site/ }).inputValue()).toBe('');
+    expect(await count.textContent()).not.toMatch(/not a site|filters\./);
+    await page.getByRole('combobox', { name: /^Measure/ }).selectOption('mas');
+    await count.getByText(/patients? ·/).waitFor();
     await page.getByRole('combobox', { name: /^Event/ }).selectOption('botulinum-toxin-injection');
     await page.getByRole('heading', { name: 'Change in this cohort' }).waitFor();
     const rows = page.locator('section table tbody tr');
@@ -54,6 +61,9 @@ describe('cohort audit in the browser', () => {
     const names = Object.keys(texts);
     expect(names.some((n) => n.endsWith('.json'))).toBe(true);
     expect(names.filter((n) => n.endsWith('.csv')).length).toBe(3);
+    // File names say the day and the filters: kinnote-cohort-YYYY-MM-DD-mas-botulinum-toxin-injection-long.csv
+    for (const n of names) expect(n).toMatch(/^kinnote-cohort-\d{4}-\d{2}-\d{2}-mas-botulinum-toxin-injection-(long|wide|summary|fhir)\.(csv|json)$/);
+    expect(await page.locator('ul.files').textContent()).not.toMatch(/\b1 rows\b/);
 
     // The FHIR bundle is a Bundle of Observations; the long CSV parses back.
     const fhir = JSON.parse(texts[names.find((n) => n.endsWith('.json')) as string] as string) as { resourceType: string; entry: Array<{ resource: { resourceType: string } }> };

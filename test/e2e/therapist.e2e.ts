@@ -87,12 +87,13 @@ describe('therapist on a home visit', () => {
       await page.getByText('Assessment saved.').waitFor();
       await page.reload();
       await page.getByRole('heading', { name: 'Change since baseline' }).waitFor();
-      const summary = page.locator('ul.series');
+      const summary = page.locator('table.overview');
       await expect(summary.getByText('Right elbow flexors · Modified Ashworth Scale').count()).resolves.toBe(1);
-      await expect(summary.getByText(/R2 − R1 36° \(R1 62°, R2 98°, quality 2\)/).count()).resolves.toBe(1);
+      const tardieuRow = summary.locator('tbody tr', { hasText: 'Modified Tardieu' }).first();
+      await expect(tardieuRow.getByText('36°', { exact: true }).count()).resolves.toBe(1);
       await expect(summary.getByText('118°').count()).resolves.toBeGreaterThan(0);
-      const spasmCard = summary.locator('li', { hasText: 'Spasm severity' });
-      await expect(spasmCard.getByText(/^6/).count()).resolves.toBeGreaterThan(0);
+      const spasmRow = summary.locator('tbody tr', { hasText: 'Spasm severity' });
+      await expect(spasmRow.getByText(/^6/).count()).resolves.toBeGreaterThan(0);
       await screenshot(page, `patient-${size}`);
       await context.close();
     });
@@ -115,7 +116,7 @@ describe('therapist on a home visit', () => {
     await page.getByRole('radio', { name: 'Left' }).check();
     await page.getByRole('button', { name: 'Save to the record' }).click();
     await page.getByText('Assessment saved.').waitFor();
-    await expect(page.locator('ul.series').getByText('Left knee (leg-drop pendulum) · Pendulum relaxation index (R2)').count()).resolves.toBe(1);
+    await expect(page.locator('table.overview').getByText('Left knee (leg-drop pendulum) · Pendulum relaxation index (R2)').count()).resolves.toBe(1);
     await context.close();
   });
 
@@ -137,22 +138,22 @@ describe('therapist on a home visit', () => {
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
-    const card = page.locator('ul.series > li', { hasText: 'Modified Ashworth' }).first();
-    await card.getByRole('button', { name: 'Show chart' }).click();
+    await page.locator('table.overview tbody tr', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').click();
+    const card = page.locator('tr.detail');
     await card.locator('canvas').first().waitFor();
     // uPlot draws on the next animation frame: wait until the canvas is inked.
-    await expect.poll(() => inkedCanvasShare(page, 'ul.series'), { message: 'waiting for the progress chart to be drawn', timeout: 20_000 }).toBeGreaterThan(0.005);
+    await expect.poll(() => inkedCanvasShare(page, 'tr.detail'), { message: 'waiting for the progress chart to be drawn', timeout: 20_000 }).toBeGreaterThan(0.005);
     // The band is drawn in the band colour (rgb 91,155,184 at partial alpha).
-    expect(await pixelsNear(page, 'ul.series', [91, 155, 184])).toBeGreaterThan(500);
+    expect(await pixelsNear(page, 'tr.detail', [91, 155, 184])).toBeGreaterThan(500);
     await screenshot(page, 'progress-chart-phone');
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export CSV' }).click()]);
     const text = readFileSync((await download.path()) as string, 'utf8');
     const parsed = Papa.parse<Record<string, string>>(text.replace(/^\ufeff/, ''), { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual(expect.arrayContaining(['patient_code', 'assessment_date', 'measure_code', 'site', 'side', 'value', 'unit', 'event_context']));
+    expect(parsed.meta.fields).toEqual(expect.arrayContaining(['patient_code', 'date', 'taken_at', 'measure_code', 'site', 'side', 'value', 'unit', 'grade', 'grade_rank', 'change_from_baseline', 'verdict', 'event_context']));
     expect(parsed.data.length).toBeGreaterThan(10);
-    for (const row of parsed.data) expect(row.assessment_date).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}/);
+    for (const row of parsed.data) expect(row.taken_at).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}[+-]\d{2}:\d{2}$/);
     await context.close();
   });
 
@@ -161,8 +162,8 @@ describe('therapist on a home visit', () => {
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
-    const card = page.locator('ul.series > li', { hasText: 'Modified Ashworth' }).first();
-    await card.getByRole('button', { name: 'Show chart' }).tap();
+    await page.locator('table.overview tbody tr', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').tap();
+    const card = page.locator('tr.detail');
     const plot = card.locator('.u-over');
     await plot.waitFor();
     const box = (await plot.boundingBox())!;
@@ -191,12 +192,14 @@ describe('therapist on a home visit', () => {
     await study.getByRole('button', { name: 'Use this MDC for verdicts' }).click();
     await study.getByText(/In use for verdicts since/).waitFor();
     await openFirstPatient(page, { inApp: true });
-    const card = page.locator('ul.series > li', { hasText: 'ankle dorsiflexion' }).first();
+    await page.locator('table.overview tbody tr', { hasText: 'ankle dorsiflexion' }).first().locator('button.row-open').click();
+    const card = page.locator('tr.detail');
     await card.waitFor();
     // The study page rounds to 0.1°, the patient page to 0.01°.
-    const shownMdc = /MDC([\d.]+)° \(local\)/.exec((await card.locator('dl.numbers').textContent()) ?? '')?.[1];
+    const line = (await card.locator('p.quiet').first().textContent()) ?? '';
+    const shownMdc = /MDC ([\d.]+)°: your team's reliability study/.exec(line)?.[1];
     expect(Number(shownMdc).toFixed(1)).toBe(mdcText.replace('°', ''));
-    expect(await card.locator('p.verdict').textContent()).toMatch(/local reliability study: Ankle dorsiflexion, two raters/);
+    expect(line).toMatch(/Ankle dorsiflexion, two raters/);
     await context.close();
   });
 

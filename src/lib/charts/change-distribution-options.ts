@@ -39,6 +39,16 @@ export function changeHistogram(input: ChangeDistributionInput): { centres: Floa
   return { centres, counts, width };
 }
 
+/** Whole numbers inside a range, thinned to at most about 12 ticks. */
+export function wholeSteps([lo, hi]: readonly [number, number]): number[] {
+  const first = Math.ceil(lo);
+  const last = Math.floor(hi);
+  const every = Math.max(1, Math.ceil((last - first + 1) / 12));
+  const out: number[] = [];
+  for (let v = first; v <= last; v += every) out.push(v);
+  return out;
+}
+
 export function changeDistributionOptions(input: ChangeDistributionInput, width: number, height: number): uPlot.Options {
   const bars = uPlot.paths.bars?.({ size: [0.9, 60] });
   // The x range is the bins' own (uPlot's automatic range goes astray for a single bin).
@@ -52,7 +62,13 @@ export function changeDistributionOptions(input: ChangeDistributionInput, width:
     cursor: { drag: { x: false, y: false } },
     scales: { x: { time: false, range: () => xRange }, y: { range: (_u, _min, max) => [0, Math.max(1, max) * 1.15] } },
     axes: [
-      { stroke: chartColours.axis, grid: { stroke: chartColours.grid }, values: (_u, splits) => splits.map((s) => `${+s.toFixed(2)}${input.unitLabel}`) },
+      {
+        stroke: chartColours.axis,
+        grid: { stroke: chartColours.grid },
+        // Whole-grade changes get whole-grade ticks only (a half step is no change a grade can make).
+        ...(input.integerSteps ? { splits: () => wholeSteps(xRange) } : {}),
+        values: (_u, splits) => splits.map((s) => `${+s.toFixed(2)}${input.unitLabel}`),
+      },
       { stroke: chartColours.axis, grid: { stroke: chartColours.grid }, size: 40, values: (_u, splits) => splits.map((s) => (Number.isInteger(s) ? String(s) : '')) },
     ],
     series: [{}, { label: 'Patients', stroke: chartColours.value, fill: chartColours.band, width: 1.5, ...(bars ? { paths: bars } : {}), points: { show: false } }],

@@ -2,6 +2,7 @@ import { findMeasure, type Assessment, type ClinicalEvent, type Clinician, type 
 import { dayOfDate, dayOfInstant } from './calendar-day';
 import type { CohortRecords } from './cohort-types';
 import { measureQuantities } from './measure-quantities';
+import { seriesKey } from '../stats';
 
 /**
  * One patient's observations of one measure at one site, side and (for range of motion) mode, in
@@ -68,7 +69,7 @@ export function buildCohortIndex(records: CohortRecords): CohortIndex {
       unlinkedObservations++;
       continue;
     }
-    const key = `${o.patientId}\u0000${o.measureCode}\u0000${o.siteCode}\u0000${o.side}\u0000${o.mode ?? ''}`;
+    const key = `${o.patientId}|${seriesKey(o)}`;
     const list = groups.get(key);
     if (list) list.push(o);
     else groups.set(key, [o]);

@@ -44,14 +44,5 @@ export interface CohortFilters {
   readonly clinicianIds?: readonly string[];
 }
 
-/** A local MDC (from the clinic's own reliability study) that overrides the catalogue's reference. */
-export interface LocalMdc {
-  readonly measureCode: string;
-  /** null: every site of the measure. */
-  readonly siteCode: string | null;
-  /** Quantity key (see measureQuantities); null: the measure's primary quantity. */
-  readonly quantity?: string | null;
-  /** In the quantity's unit, or grade steps for an ordinal measure. */
-  readonly value: number;
-  readonly citation: string;
-}
+/** A local MDC from the team's own reliability study: one type, the stats engine's (see chooseMdc). */
+export type { LocalMdc } from '../stats';

@@ -31,3 +31,12 @@ export function csvRow(values: ReadonlyArray<string | number | boolean | null | 
   }
   return `${line}\r\n`;
 }
+
+/**
+ * A unit as a spreadsheet reader expects it: UCUM annotations lose their braces ("{grade}" → "grade"),
+ * UCUM unity "1" reads "ratio"; other units pass unchanged. The FHIR Bundle keeps the UCUM codes.
+ */
+export function csvUnit(ucum: string): string {
+  if (ucum === '1') return 'ratio';
+  return ucum.replace(/^\{(.*)\}$/, '$1');
+}

@@ -50,6 +50,18 @@ const FILE_NAMES: Record<CohortFileKind, { name: string; mediaType: string }> = 
 };
 
 /**
+ * A file name to save under that says what is inside, e.g.
+ * "kinnote-cohort-2026-03-01-mas-elbow-flexors-left-botulinum-toxin-injection-wide.csv" (export day from
+ * `now`, then the measure, site, side and anchoring event filters that are set). The command line keeps
+ * the plain names (kinnote-cohort-wide.csv) in the folder it is given.
+ */
+export function cohortFileName(kind: CohortFileKind, filters: CohortFilters, now: string | undefined): string {
+  const parts = ['kinnote-cohort', now?.slice(0, 10), filters.measureCode, filters.siteCode, filters.side, filters.anchor?.kind];
+  const slug = parts.filter((p): p is string => typeof p === 'string' && p !== '').map((p) => p.replace(/[^A-Za-z0-9-]+/g, '-'));
+  return `${slug.join('-')}-${FILE_NAMES[kind].name.replace('kinnote-cohort-', '')}`;
+}
+
+/**
  * Selects, summarises and prepares the disclosure of a cohort, and describes its files (long,
  * wide and summary CSV, FHIR R4 Bundle). Pass an index from buildCohortIndex to reuse it, or the
  * records. Nothing is written yet: each file's `chunks()` produces its text on demand.

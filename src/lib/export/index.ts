@@ -1,5 +1,5 @@
 // Public face of src/lib/export: CSV (RFC 4180), de-identification, FHIR R4.
-export { csvCell, csvRow } from './csv-cell';
+export { csvCell, csvRow, csvUnit } from './csv-cell';
 
 // Cohort audit: selection, summary, de-identification and streamed files (long, wide, summary CSV; FHIR R4).
 export { CohortExportError } from './cohort-export-error';
@@ -7,7 +7,7 @@ export type { CohortCondition, CohortFilters, CohortRecords, CohortSetting, Coho
 export { buildCohortIndex, type CohortIndex, type CohortSeries, type DatedEvent } from './cohort-index';
 export { countCohort, selectCohort, type Cohort, type CohortCount, type CohortPair } from './select-cohort';
 export { measureQuantities, type MeasureQuantity } from './measure-quantities';
-export { groupKey, pairChange, summariseCohort, type CohortGroupSummary, type CohortSummary, type PairChange, type SummariseOptions } from './summarise-cohort';
+export { groupKey, pairChange, pairMdc, summariseCohort, type CohortGroupSummary, type CohortSummary, type PairChange, type SummariseOptions } from './summarise-cohort';
 export {
   birthYearBand,
   prepareDisclosure,
@@ -35,6 +35,7 @@ export {
   COHORT_FILE_KINDS,
   CohortExportCancelled,
   prepareCohortExport,
+  cohortFileName,
   runCohortExport,
   type CohortExportHooks,
   type CohortExportOptions,
@@ -43,4 +44,5 @@ export {
   type CohortFileKind,
   type PreparedCohortExport,
 } from './export-cohort';
-export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS } from './patient-observations-csv';
+export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS, type PatientCsvOptions } from './patient-observations-csv';
+export { localDateTime, type LocalDateTime } from './local-date-time';

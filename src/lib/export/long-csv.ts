@@ -1,5 +1,5 @@
 import type { Observation } from '../domain';
-import { csvRow } from './csv-cell';
+import { csvRow, csvUnit } from './csv-cell';
 import { disclosedDay, type DisclosurePlan, type PatientView } from './prepare-disclosure';
 import { compileFilters, isExportedObservation, type Cohort } from './select-cohort';
 import { ChunkBuilder, DEFAULT_CHUNK_CHARS, type TextChunk } from './text-chunk';
@@ -107,7 +107,7 @@ export function* longCsvChunks(cohort: Cohort, plan: DisclosurePlan, chunkChars 
         o.side,
         o.mode,
         o.instrument,
-        s.measure.unit,
+        csvUnit(s.measure.unit),
       );
       valueCells(o.value, cells);
       const chunk = builder.add(csvRow(cells), 1);

@@ -1,5 +1,5 @@
-import { errorReference, referenceMdc95, type Instrument, type Observation } from '../domain';
-import { changeVerdict, cohortChangeSummary, ORDINAL_STEP_MDC, type ChangeVerdict, type CohortChangeSummary, type MdcProvenance } from '../stats';
+import type { Observation } from '../domain';
+import { changeVerdict, chooseMdc, cohortChangeSummary, type ChangeVerdict, type CohortChangeSummary, type MdcChoice, type MdcProvenance } from '../stats';
 import { CohortExportError } from './cohort-export-error';
 import type { LocalMdc } from './cohort-types';
 import { measureQuantities, type MeasureQuantity } from './measure-quantities';
@@ -19,8 +19,10 @@ export interface CohortGroupSummary {
   readonly patients: number;
   /** Changes (follow-up − baseline) in pair order: for the distribution chart. */
   readonly changes: Float64Array;
-  /** The MDC used, with where it came from; null when none is known. */
+  /** The MDC used, with where it came from; null when none is known or when it differs between pairs. */
   readonly mdc: MdcProvenance | null;
+  /** Each pair's own MDC (chooseMdc on its baseline and follow-up): what its verdict and the count use. */
+  readonly mdcByPair: ReadonlyMap<CohortPair, MdcProvenance | null>;
   /** Why there is no MDC (catalogue reason, or no direction of improvement); null when there is one. */
   readonly mdcNote: string | null;
   /** n, median and IQR, proportion improved beyond the MDC with Wilson 95 %, Wilcoxon, SRM. */
@@ -73,27 +75,31 @@ export function pairChange(pair: CohortPair, quantity: MeasureQuantity, mdc: Mdc
   return { baseline, followUp, change, verdict };
 }
 
-function localFor(list: readonly LocalMdc[], measureCode: string, siteCode: string, quantity: MeasureQuantity, primary: boolean): LocalMdc | null {
-  let general: LocalMdc | null = null;
-  for (const m of list) {
-    if (m.measureCode !== measureCode) continue;
-    const q = m.quantity ?? null;
-    if (q === null ? !primary : q !== quantity.key) continue;
-    if (m.siteCode === siteCode) return m;
-    if (m.siteCode === null) general = m;
-  }
-  return general;
+/**
+ * The MDC of one pair and quantity: chooseMdc (the one rule shared with a patient's page) asked about
+ * this pair's baseline and follow-up observations, their instruments and assessors. Never throws.
+ */
+export function pairMdc(pair: CohortPair, quantity: MeasureQuantity, primary: boolean, localMdc: readonly LocalMdc[]): MdcChoice {
+  const s = pair.series;
+  return chooseMdc({
+    measureCode: s.measure.code,
+    siteCode: s.siteCode,
+    quantity: primary ? null : quantity.key,
+    compared: [pair.baselineIndex, pair.followUpIndex].map((i) => ({
+      instrument: (s.observations[i] as Observation).instrument,
+      assessorId: s.assessments[i]?.assessorId ?? null,
+    })),
+    localMdc,
+  });
 }
 
 /**
  * Summarises the cohort per measure, site, ROM mode and quantity with the stats engine's
  * cohortChangeSummary (Hyndman & Fan type 7 quartiles; Wilson 95 % interval, Newcombe 1998
  * method 3; Wilcoxon signed-rank, exact for n ≤ 50 without ties; SRM, Liang et al. 1990).
- * The MDC is, in order: a local value from `options.localMdc` (site-specific before measure-wide),
- * else the catalogue's published reference for the measure's primary quantity (referenceMdc95,
- * with the group's one instrument, or none when mixed, and 'same-rater' only when every pair kept
- * its assessor), else for ordinal grades one whole grade step (ORDINAL_STEP_MDC, common practice, said
- * in its citation), else none, with the catalogue's reason. Cost O(n log n) per group.
+ * Each pair's MDC comes from pairMdc, i.e. chooseMdc, the same rule as a patient's own page; the
+ * group shows it when every pair has the same, else says that it differs and counts each pair
+ * against its own. Cost O(n log n) per group.
  * Throws CohortExportError for a local MDC that is not positive and finite.
  */
 export function summariseCohort(cohort: Cohort, options: SummariseOptions = {}): CohortSummary {
@@ -120,36 +126,22 @@ export function summariseCohort(cohort: Cohort, options: SummariseOptions = {}):
   const groups: CohortGroupSummary[] = [];
   for (const [key, { pairs, quantity, primary }] of building) {
     const s = (pairs[0] as CohortPair).series;
+    const choices = pairs.map((pair) => (quantity.betterWhen === 'none' ? null : pairMdc(pair, quantity, primary, local)));
+    const mdcByPair = new Map(pairs.map((pair, i) => [pair, choices[i]?.mdc ?? null]));
+    const first = choices[0] ?? null;
+    const uniform = choices.every((c) => c?.mdc?.value === first?.mdc?.value && c?.mdc?.citation === first?.mdc?.citation);
+    const everyHasMdc = choices.every((c) => c?.mdc);
     let mdc: MdcProvenance | null = null;
-    let mdcNote: string | null = null;
-    if (quantity.betterWhen === 'none') {
-      mdcNote = 'no direction of improvement for this measure: improvement is not counted';
+    let mdcNote: string | null;
+    if (quantity.betterWhen === 'none') mdcNote = 'no direction of improvement for this measure: improvement is not counted';
+    else if (uniform) {
+      mdc = first?.mdc ?? null;
+      mdcNote = first?.note ?? null;
     } else {
-      const localValue = localFor(local, s.measure.code, s.siteCode, quantity, primary);
-      if (localValue) {
-        mdc = { value: localValue.value, source: 'local', citation: localValue.citation };
-      } else if (primary) {
-        const reference = referenceMdc95(s.measure.code, s.siteCode, { instrument: groupInstrument(pairs), raters: groupRaters(pairs) });
-        if (reference) {
-          const f = reference.figure;
-          mdc = {
-            value: reference.mdc95,
-            source: 'reference',
-            citation: `${f.source}; ${f.statistic} ${f.low === f.high ? f.high : `${f.low}–${f.high} (upper end used)`}${reference.convertedFromSem ? ' × 1.96·√2' : ''}; ${f.status}`,
-          };
-        } else if (s.measure.kind === 'ordinal') {
-          // The same convention as a patient's verdicts (outcomeSeries): one whole grade step.
-          mdc = ORDINAL_STEP_MDC;
-        }
-      }
-      if (!mdc) {
-        const reference = errorReference(s.measure.code, s.siteCode);
-        mdcNote = !primary
-          ? 'no MDC for this component: establish locally'
-          : reference?.kind === 'none'
-            ? reference.reason
-            : 'no published MDC fits this instrument and rater design: establish locally';
-      }
+      const values = choices.flatMap((c) => (c?.mdc ? [c.mdc.value] : []));
+      mdcNote = everyHasMdc
+        ? `the MDC differs with instrument and rater design (${+Math.min(...values).toFixed(2)}–${+Math.max(...values).toFixed(2)}): each patient judged by their own`
+        : 'no MDC for some patients (instrument or rater design): improvement is not counted';
     }
     const changes = new Float64Array(pairs.length);
     const patientIds = new Set<string>();
@@ -157,7 +149,8 @@ export function summariseCohort(cohort: Cohort, options: SummariseOptions = {}):
       changes[i] = pairChange(pair, quantity, null).change;
       patientIds.add(pair.series.patient.id);
     });
-    const summary = cohortChangeSummary(changes, quantity.betterWhen === 'lower' ? 'lower' : 'higher', mdc ? mdc.value : null);
+    const thresholds = everyHasMdc && quantity.betterWhen !== 'none' ? Float64Array.from(choices, (c) => c?.mdc?.value as number) : null;
+    const summary = cohortChangeSummary(changes, quantity.betterWhen === 'lower' ? 'lower' : 'higher', thresholds);
     groups.push({
       key,
       measureCode: s.measure.code,
@@ -169,29 +162,11 @@ export function summariseCohort(cohort: Cohort, options: SummariseOptions = {}):
       patients: patientIds.size,
       changes,
       mdc,
+      mdcByPair,
       mdcNote,
       summary,
     });
   }
   groups.sort((a, b) => (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
   return { groups, byKey: new Map(groups.map((g) => [g.key, g])) };
-}
-
-function groupInstrument(pairs: readonly CohortPair[]): Instrument | null {
-  let found: Instrument | null | undefined;
-  for (const p of pairs) {
-    for (const i of [p.baselineIndex, p.followUpIndex]) {
-      const instrument = p.series.observations[i]?.instrument ?? null;
-      if (found === undefined) found = instrument;
-      else if (found !== instrument) return null;
-    }
-  }
-  return found ?? null;
-}
-
-function groupRaters(pairs: readonly CohortPair[]): 'same-rater' | 'different-raters' {
-  for (const p of pairs) {
-    if (p.series.assessments[p.baselineIndex]?.assessorId !== p.series.assessments[p.followUpIndex]?.assessorId) return 'different-raters';
-  }
-  return 'same-rater';
 }

@@ -1,4 +1,4 @@
-import { csvRow } from './csv-cell';
+import { csvRow, csvUnit } from './csv-cell';
 import type { CohortSummary } from './summarise-cohort';
 import type { TextChunk } from './text-chunk';
 
@@ -51,7 +51,7 @@ export function* summaryCsvChunks(summary: CohortSummary): Generator<TextChunk> 
       g.siteCode,
       g.mode,
       g.quantity.key,
-      g.quantity.unit,
+      csvUnit(g.quantity.unit),
       g.quantity.changeUnit,
       g.quantity.betterWhen,
       g.pairs,

@@ -1,5 +1,5 @@
 import type { MeasureQuantity } from './measure-quantities';
-import { csvRow } from './csv-cell';
+import { csvRow, csvUnit } from './csv-cell';
 import { dayColumnName, patientCells, patientHeader, type Cell } from './long-csv';
 import { measureQuantities } from './measure-quantities';
 import { disclosedDay, type DisclosurePlan } from './prepare-disclosure';
@@ -41,7 +41,7 @@ const gradeLabel = (q: MeasureQuantity, rank: number): string | null => q.grades
 /**
  * The wide CSV: one row per pair (patient, measure, site, side, mode) and quantity, with baseline,
  * follow-up, change (follow-up − baseline; grade steps for ordinal quantities) and the verdict of
- * the stats engine's changeVerdict against the same MDC the summary uses for the group. Values of
+ * the stats engine's changeVerdict against the pair's own MDC (chooseMdc, as the summary counts it). Values of
  * ordinal quantities are ranks, with the grade label beside them. Streams in chunks. Cost O(pairs).
  */
 export function* wideCsvChunks(cohort: Cohort, summary: CohortSummary, plan: DisclosurePlan, chunkChars = DEFAULT_CHUNK_CHARS): Generator<TextChunk> {
@@ -56,7 +56,7 @@ export function* wideCsvChunks(cohort: Cohort, summary: CohortSummary, plan: Dis
     const sameAssessor = s.assessments[pair.baselineIndex]?.assessorId === s.assessments[pair.followUpIndex]?.assessorId;
     for (const quantity of measureQuantities(s.measure)) {
       const group = summary.byKey.get(groupKey(pair, quantity));
-      const mdc = group?.mdc ?? null;
+      const mdc = group?.mdcByPair.get(pair) ?? null;
       const change = pairChange(pair, quantity, mdc);
       cells.length = 0;
       patientCells(plan, view, cells);
@@ -66,8 +66,8 @@ export function* wideCsvChunks(cohort: Cohort, summary: CohortSummary, plan: Dis
         s.side,
         s.mode,
         quantity.key,
-        quantity.unit,
-        quantity.changeUnit,
+        csvUnit(quantity.unit),
+        csvUnit(quantity.changeUnit),
         quantity.betterWhen,
         pair.event?.kind ?? null,
         pair.eventDay === null ? null : disclosedDay(plan, view, pair.eventDay),

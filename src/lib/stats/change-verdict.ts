@@ -1,13 +1,18 @@
 import type { Baseline } from './select-baseline';
 import { StatsInputError } from './stats-input-error';
 
-/** An MDC with where it came from: the clinic's own reliability study, or a published reference. */
+/**
+ * An MDC with where it came from: the team's own reliability study ('local'), a published reference
+ * ('reference'), or the stated rule for ordinal grades ('rule'). chooseMdc is the one place that makes it.
+ */
 export interface MdcProvenance {
   /** In the measure's unit, or in grade steps for an ordinal measure. */
   readonly value: number;
-  readonly source: 'local' | 'reference';
-  /** Study name/date for 'local', the publication for 'reference'. */
+  readonly source: 'local' | 'reference' | 'rule';
+  /** Study name and adoption for 'local'; publication, statistic and evidence status for 'reference'; the rule for 'rule'. */
   readonly citation: string;
+  /** For 'reference': first author and year, for a clinician's eyes ("Armstrong et al. 1998"). */
+  readonly shortCitation?: string;
 }
 
 /** One grade of an ordinal scale: its label as shown (e.g. "1+") and its rank (0, 1, 2, …). */
@@ -23,8 +28,8 @@ export type MeasureScale =
 
 /** What the verdict needs about a measure, mapped in by the caller from the measure catalogue. */
 export interface ChangeVerdictInput {
-  /** Short name used in the sentence, e.g. "Knee extension range". */
-  readonly measureLabel: string;
+  /** Name of what changed (kept for callers' records; the sentence itself does not repeat it). */
+  readonly measureLabel?: string;
   /** Which direction is better. */
   readonly betterWhen: 'lower' | 'higher';
   readonly scale: MeasureScale;
@@ -88,6 +93,7 @@ export function changeVerdict(input: ChangeVerdictInput): ChangeVerdict {
   const worsening = betterWhen === 'lower' ? followUp - baseline.high : baseline.low - followUp;
 
   let fromText: string;
+  let atText: string;
   let changeText: string;
   let mdcText = '';
   if (scale.kind === 'ordinal') {
@@ -99,33 +105,36 @@ export function changeVerdict(input: ChangeVerdictInput): ChangeVerdict {
       baseline.low === baseline.high
         ? `from grade ${lowLabel} to grade ${followLabel}`
         : `from grades ${lowLabel} and ${highLabel} at baseline to grade ${followLabel}`;
+    atText = `at grade ${followLabel}`;
     changeText = changeFromHigh === changeFromLow ? steps(changeFromHigh) : `${steps(changeFromHigh)} to ${steps(changeFromLow)}`;
     if (mdc) mdcText = `${mdc.value} grade step${mdc.value === 1 ? '' : 's'}`;
   } else {
     const decimals = scale.decimals ?? 1;
-    const unit = scale.unit ? ` ${scale.unit}` : '';
+    // A degree sign sits on its number (20°); a word unit is spaced (20 deg).
+    const unit = scale.unit === '°' ? '°' : scale.unit ? ` ${scale.unit}` : '';
+    atText = `at ${followUp.toFixed(decimals)}${unit}`;
     fromText = `from ${baseline.low.toFixed(decimals)}${unit} to ${followUp.toFixed(decimals)}${unit}`;
     changeText = `${signed(changeFromHigh, decimals)}${unit}`;
-    if (mdc) mdcText = `${mdc.value.toFixed(decimals)}${unit}`;
+    if (mdc) mdcText = `${+mdc.value.toFixed(2)}${unit}`; // never rounded up to a whole degree
   }
   let verdict: VerdictKind;
   let text: string;
+  // One plain sentence; where the MDC comes from is a separate, quieter line (mdcSourceLine).
   if (mdc === null) {
     verdict = 'no-mdc';
-    text = `${input.measureLabel} changed ${fromText} (${changeText}); cannot say whether this exceeds measurement error: no MDC: establish locally.`;
+    text =
+      changeFromHigh === 0 && changeFromLow === 0
+        ? `Unchanged ${atText}.`
+        : `Changed ${fromText} (${changeText}); with no MDC known, whether this exceeds measurement error cannot be judged.`;
+  } else if (improvement >= mdc.value) {
+    verdict = 'improved';
+    text = `Improved ${fromText} (${changeText}), beyond measurement error (MDC ${mdcText}).`;
+  } else if (worsening >= mdc.value) {
+    verdict = 'worsened';
+    text = `Worse ${fromText} (${changeText}), beyond measurement error (MDC ${mdcText}).`;
   } else {
-    const provenance =
-      mdc.source === 'local' ? `(local reliability study: ${mdc.citation})` : `(reference value: ${mdc.citation})`;
-    if (improvement >= mdc.value) {
-      verdict = 'improved';
-      text = `${input.measureLabel} improved ${fromText} (${changeText}), at least the MDC of ${mdcText} ${provenance}.`;
-    } else if (worsening >= mdc.value) {
-      verdict = 'worsened';
-      text = `${input.measureLabel} worsened ${fromText} (${changeText}), at least the MDC of ${mdcText} ${provenance}.`;
-    } else {
-      verdict = 'no-change';
-      text = `${input.measureLabel}: no change beyond measurement error ${fromText} (${changeText}); the MDC is ${mdcText} ${provenance}.`;
-    }
+    verdict = 'no-change';
+    text = `No change beyond measurement error ${fromText} (${changeText}; MDC ${mdcText}).`;
   }
   return {
     verdict,

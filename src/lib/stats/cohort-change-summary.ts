@@ -30,24 +30,34 @@ export interface CohortChangeSummary {
  * and interquartile range (type 7 quantiles), the proportion improved by at least the MDC in the
  * better direction with its Wilson 95 % interval, the Wilcoxon signed-rank test and the
  * standardised response mean. The median of ordinal changes is in grade steps and may be a half
- * step; it is a summary of changes, never a grade. `mdc` null leaves improvedBeyondMdc null.
+ * step; it is a summary of changes, never a grade. `mdc` null leaves improvedBeyondMdc null; an
+ * array gives each change its own MDC (when patients' comparisons differ in instrument or raters).
  * NaN changes are skipped; with none left the statistics are NaN. Cost O(n log n).
  * Throws StatsInputError for an MDC ≤ 0 or infinite changes.
  */
 export function cohortChangeSummary(
   changes: ArrayLike<number>,
   betterWhen: 'lower' | 'higher',
-  mdc: number | null,
+  mdc: number | ArrayLike<number> | null,
 ): CohortChangeSummary {
-  if (mdc !== null && (!(mdc > 0) || !Number.isFinite(mdc))) {
-    throw new StatsInputError(`cohortChangeSummary: MDC ${mdc} must be positive and finite`);
+  const mdcOf = (i: number): number => (typeof mdc === 'number' ? mdc : ((mdc as ArrayLike<number>)[i] as number));
+  if (mdc !== null) {
+    if (typeof mdc !== 'number' && mdc.length !== changes.length) {
+      throw new StatsInputError(`cohortChangeSummary: ${mdc.length} MDCs for ${changes.length} changes`);
+    }
+    for (let i = 0; i < (typeof mdc === 'number' ? 1 : mdc.length); i++) {
+      const m = mdcOf(i);
+      if (!(m > 0) || !Number.isFinite(m)) throw new StatsInputError(`cohortChangeSummary: MDC ${m} must be positive and finite`);
+    }
   }
   const present: number[] = [];
+  const presentMdc: number[] = [];
   for (let i = 0; i < changes.length; i++) {
     const value = changes[i] as number;
     if (Number.isNaN(value)) continue;
     if (!Number.isFinite(value)) throw new StatsInputError(`cohortChangeSummary: change ${i} is ${value}`);
     present.push(value);
+    if (mdc !== null) presentMdc.push(mdcOf(i));
   }
   const sorted = Float64Array.from(present).sort();
   const n = sorted.length;
@@ -56,7 +66,9 @@ export function cohortChangeSummary(
   let improvedBeyondMdc: CohortChangeSummary['improvedBeyondMdc'] = null;
   if (mdc !== null) {
     let count = 0;
-    for (const change of present) if ((betterWhen === 'lower' ? -change : change) >= mdc) count++;
+    present.forEach((change, i) => {
+      if ((betterWhen === 'lower' ? -change : change) >= (presentMdc[i] as number)) count++;
+    });
     improvedBeyondMdc = { count, proportion: n > 0 ? count / n : Number.NaN, wilson95: wilsonInterval(count, n) };
   }
   return {

@@ -52,7 +52,10 @@ export { standardisedResponseMean } from './standardised-response-mean';
 export { cohortChangeSummary, type CohortChangeSummary } from './cohort-change-summary';
 
 // Series of one patient, ready for the patient page and its charts
-export { outcomeSeries, seriesTitle, ORDINAL_STEP_MDC, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
+export { chooseMdc, comparisonDesign, mdcSourceLine, ORDINAL_STEP_MDC, type ComparedObservation, type LocalMdc, type MdcChoice, type MdcQuestion } from './choose-mdc';
+export { seriesKey } from './series-key';
+export { adoptedLocalMdc, type AdoptableStudy } from './adopted-local-mdc';
+export { outcomeSeries, seriesTitle, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
 
 // Small numeric helpers shared with callers that work on typed arrays
 export { compensatedSum } from './compensated-sum';

@@ -1,5 +1,7 @@
-import { MEASURE_CATALOGUE, findMeasure, findSite, referenceMdc95, type Measure, type Observation } from '../domain';
+import { MEASURE_CATALOGUE, findMeasure, findSite, type Measure, type Observation } from '../domain';
 import { changeVerdict, type ChangeVerdict, type MdcProvenance, type MeasureScale } from './change-verdict';
+import { chooseMdc, type LocalMdc } from './choose-mdc';
+import { seriesKey } from './series-key';
 import { mannKendall, type MannKendall } from './mann-kendall';
 import { olsTrend } from './ols-trend';
 import { selectBaseline, type Baseline, type BaselineRule } from './select-baseline';
@@ -51,24 +53,23 @@ export interface OutcomeSeries {
   readonly latest: OutcomePoint;
   readonly verdict: ChangeVerdict | null;
   readonly mdc: MdcProvenance | null;
+  /** Why there is no MDC; null when there is one. */
+  readonly mdcNote: string | null;
+  /** Each point's change from baseline judged by the same rule (null for baseline points and earlier ones). */
+  readonly judgements: readonly (ChangeVerdict | null)[];
   readonly trend: OutcomeTrend | null;
 }
 
 export interface OutcomeOptions {
   readonly baselineRule: { readonly kind: 'first' } | { readonly kind: 'meanOfFirstTwo' } | { readonly kind: 'lastBeforeEvent'; readonly eventMs: number };
-  /** MDCs the clinic adopted from its own reliability studies, by `measureCode|siteCode` or `measureCode`. */
-  readonly localMdc?: ReadonlyMap<string, MdcProvenance>;
+  /** MDCs the team adopted from its own reliability studies (see chooseMdc). */
+  readonly localMdc?: readonly LocalMdc[];
+  /**
+   * The examining clinician of each assessment (Assessment.assessorId) by assessment id, for the rater
+   * design of a comparison; without it an observation's own clinicianId stands in.
+   */
+  readonly assessorByAssessment?: ReadonlyMap<string, string>;
 }
-
-/**
- * An ordinal scale has no published MDC; a change of one whole grade step is the threshold in common
- * use (common practice, no source), and verdicts say so in their citation.
- */
-export const ORDINAL_STEP_MDC: MdcProvenance = {
-  value: 1,
-  source: 'reference',
-  citation: 'common practice: one whole grade step; no published MDC exists for an ordinal scale',
-};
 
 function pointValue(measure: Measure, obs: Observation): { value: number; text: string } {
   const v = obs.value;
@@ -101,16 +102,15 @@ export function seriesTitle(measure: Measure, siteCode: string, side: Observatio
 
 /**
  * Groups a patient's observations into series (measure, site, side, ROM mode), and for each gives
- * the baseline (by `baselineRule`), the latest value, the change verdict against the MDC (a local one
- * adopted by the clinic first, else the catalogue's reference, else one grade step for ordinal
- * scales) and a trend (least squares per 30 days; Theil–Sen with Mann–Kendall for ordinal grades).
+ * the baseline (by `baselineRule`), the latest value, the change verdict against the MDC chosen by
+ * chooseMdc (the one rule, shared with the cohort and every export) and a trend (least squares per 30 days; Theil–Sen with Mann–Kendall for ordinal grades).
  * Tombstoned observations are left out. Series are ordered by measure catalogue order, then title.
  */
 export function outcomeSeries(observations: readonly Observation[], options: OutcomeOptions): OutcomeSeries[] {
   const groups = new Map<string, Observation[]>();
   for (const obs of observations) {
     if (obs.deleted || !findMeasure(obs.measureCode)) continue;
-    const key = `${obs.measureCode}|${obs.siteCode}|${obs.side}|${obs.mode ?? ''}`;
+    const key = seriesKey(obs);
     const list = groups.get(key);
     if (list) list.push(obs);
     else groups.set(key, [obs]);
@@ -143,36 +143,35 @@ export function outcomeSeries(observations: readonly Observation[], options: Out
     const latest = points[points.length - 1]!;
     const betterWhen = measure.improvement === 'none' ? null : measure.improvement;
 
-    const sameRater = points.every((p) => p.clinicianId === points[0]!.clinicianId);
-    const local =
-      options.localMdc?.get(`${measure.code}|${first.siteCode}`) ?? options.localMdc?.get(measure.code) ?? null;
-    let mdc: MdcProvenance | null = local;
-    if (!mdc) {
-      const reference = referenceMdc95(measure.code, first.siteCode, {
-        instrument: first.instrument,
-        raters: sameRater ? 'same-rater' : 'different-raters',
-      });
-      if (reference) {
-        const f = reference.figure;
-        mdc = {
-          value: reference.mdc95,
-          source: 'reference',
-          citation: `${f.source}; ${f.status}${reference.convertedFromSem ? '; MDC95 = 2.77 × SEM' : ''}`,
-        };
-      } else if (ordinal) {
-        mdc = ORDINAL_STEP_MDC;
-      }
-    }
     const scale: MeasureScale =
       measure.kind === 'ordinal'
         ? { kind: 'ordinal', grades: measure.grades.map((g) => ({ label: g.label, rank: g.rank })) }
         : { kind: 'continuous', unit: measure.unit === 'deg' ? '°' : '', decimals: measure.kind === 'index' ? 2 : 0 };
+    // Each later point judged against the baseline; the MDC fits the comparison actually made
+    // (the baseline observation(s) and that point: their instruments and assessors).
+    const judge = (i: number): { mdc: MdcProvenance | null; mdcNote: string | null; verdict: ChangeVerdict | null } => {
+      const compared = baseline ? [...baseline.indices, i] : [i];
+      const choice = chooseMdc({
+        measureCode: measure.code,
+        siteCode: first.siteCode,
+        quantity: null,
+        compared: compared.map((k) => ({
+          instrument: list[k]!.instrument,
+          assessorId: options.assessorByAssessment?.get(list[k]!.assessmentId) ?? list[k]!.clinicianId,
+        })),
+        ...(options.localMdc ? { localMdc: options.localMdc } : {}),
+      });
+      // A baseline point itself is no change: a verdict needs a later assessment.
+      const verdict =
+        baseline && betterWhen && !baseline.indices.includes(i) && i > Math.min(...baseline.indices)
+          ? changeVerdict({ betterWhen, scale, baseline, followUp: points[i]!.value, mdc: choice.mdc })
+          : null;
+      return { mdc: choice.mdc, mdcNote: choice.note, verdict };
+    };
+    const judgements = points.map((_, i) => judge(i).verdict);
+    const { mdc, mdcNote } = judge(points.length - 1);
     const title = seriesTitle(measure, first.siteCode, first.side, first.mode);
-    // The baseline point itself is no change: a verdict needs a later assessment.
-    const verdict =
-      baseline && betterWhen && points.length > 1 && !baseline.indices.includes(points.length - 1)
-        ? changeVerdict({ measureLabel: title, betterWhen, scale, baseline, followUp: latest.value, mdc })
-        : null;
+    const verdict = judgements[points.length - 1] ?? null;
 
     let trend: OutcomeTrend | null = null;
     if (points.length >= 3 && timesDay[timesDay.length - 1]! > timesDay[0]!) {
@@ -224,6 +223,8 @@ export function outcomeSeries(observations: readonly Observation[], options: Out
       latest,
       verdict,
       mdc,
+      mdcNote,
+      judgements,
       trend,
     });
   }

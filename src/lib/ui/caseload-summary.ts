@@ -1,5 +1,5 @@
 import type { Assessment, Observation, Patient } from '$lib/domain';
-import { outcomeSeries } from '$lib/stats';
+import { outcomeSeries, type LocalMdc } from '$lib/stats';
 
 /** One caseload row. */
 export interface CaseloadRow {
@@ -27,9 +27,12 @@ export function caseloadRows(
   assessments: readonly Assessment[],
   observations: readonly Observation[],
   reviewIntervalDays = DEFAULT_REVIEW_INTERVAL_DAYS,
+  localMdc: readonly LocalMdc[] = [],
 ): CaseloadRow[] {
   const last = new Map<string, number>();
+  const assessorByAssessment = new Map<string, string>();
   for (const a of assessments) {
+    assessorByAssessment.set(a.id, a.assessorId);
     if (a.deleted) continue;
     const t = Date.parse(a.performedAt);
     if (t > (last.get(a.patientId) ?? -Infinity)) last.set(a.patientId, t);
@@ -44,7 +47,8 @@ export function caseloadRows(
   return patients
     .filter((p) => !p.deleted)
     .map((patient) => {
-      const series = outcomeSeries(byPatient.get(patient.id) ?? [], { baselineRule: { kind: 'first' } });
+      // The same rule and inputs as the patient's own page (first assessment as baseline).
+      const series = outcomeSeries(byPatient.get(patient.id) ?? [], { baselineRule: { kind: 'first' }, localMdc, assessorByAssessment });
       const changed = series.filter((s) => s.verdict?.verdict === 'improved' || s.verdict?.verdict === 'worsened');
       const lastMs = last.get(patient.id) ?? null;
       return {

@@ -46,7 +46,11 @@ describe('summariseCohort', () => {
     expect(summary.groups.map((g) => g.key).sort()).toEqual([...expected.keys()].sort());
     for (const g of summary.groups) {
       const changes = expected.get(g.key)!;
-      const direct = cohortChangeSummary(changes, g.quantity.betterWhen === 'lower' ? 'lower' : 'higher', g.mdc?.value ?? null);
+      // Each pair is counted against its own MDC (they differ when instruments or raters do).
+      const perPair = [...g.mdcByPair.values()];
+      const thresholds = g.quantity.betterWhen !== 'none' && perPair.every((m) => m) ? perPair.map((m) => m!.value) : null;
+      if (g.mdc) expect(thresholds?.every((t) => t === g.mdc!.value)).toBe(true);
+      const direct = cohortChangeSummary(changes, g.quantity.betterWhen === 'lower' ? 'lower' : 'higher', thresholds);
       expect(g.summary).toEqual(direct);
       expect(g.pairs).toBe(changes.length);
     }

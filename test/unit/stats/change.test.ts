@@ -40,12 +40,12 @@ describe('changeVerdict', () => {
     expect(improved.change).toBe(6);
     expect(improved.mdcUsed).toBe(local);
     expect(improved.text).toBe(
-      'Knee extension range improved from 20.0 deg to 26.0 deg (+6.0 deg), at least the MDC of 6.0 deg (local reliability study: clinic study, March).',
+      'Improved from 20.0 deg to 26.0 deg (+6.0 deg), beyond measurement error (MDC 6 deg).',
     );
     expect(changeVerdict({ ...base, followUp: 25.9 }).verdict).toBe('no-change');
     expect(changeVerdict({ ...base, followUp: 14.1 }).verdict).toBe('no-change');
     expect(changeVerdict({ ...base, followUp: 14 }).verdict).toBe('worsened');
-    expect(changeVerdict({ ...base, followUp: 25 }).text).toMatch(/no change beyond measurement error/);
+    expect(changeVerdict({ ...base, followUp: 25 }).text).toMatch(/no change beyond measurement error/i);
   });
 
   it('lower is better (Modified Ashworth): a fall of one grade with a reference MDC of 1 grade', () => {
@@ -53,7 +53,7 @@ describe('changeVerdict', () => {
     expect(verdict.verdict).toBe('improved');
     expect(verdict.change).toBe(-1);
     expect(verdict.text).toBe(
-      'Elbow flexor tone improved from grade 1+ to grade 1 (-1 grade step), at least the MDC of 1 grade step (reference value: invented reference 2020).',
+      'Improved from grade 1+ to grade 1 (-1 grade step), beyond measurement error (MDC 1 grade step).',
     );
     const worse = changeVerdict({ measureLabel: 'Elbow flexor tone', betterWhen: 'lower', scale: ashworth, baseline: { low: 2, high: 2 }, followUp: 3, mdc: reference });
     expect(worse.verdict).toBe('worsened');
@@ -77,7 +77,10 @@ describe('changeVerdict', () => {
     const verdict = changeVerdict({ measureLabel: 'Hip abduction range', betterWhen: 'higher', scale: degrees, baseline: { low: 30, high: 30 }, followUp: 60, mdc: null });
     expect(verdict.verdict).toBe('no-mdc');
     expect(verdict.mdcUsed).toBeNull();
-    expect(verdict.text).toContain('no MDC: establish locally');
+    expect(verdict.text).toContain('cannot be judged');
+    // No change at all is said plainly, not as "cannot say".
+    const same = changeVerdict({ measureLabel: 'Spasm frequency', betterWhen: 'lower', scale: { kind: 'continuous', unit: '', decimals: 0 }, baseline: { low: 2, high: 2 }, followUp: 2, mdc: null });
+    expect(same.text).toBe('Unchanged at 2.');
   });
 
   it('refuses ranks outside the scale, a non-positive MDC, non-finite values', () => {

@@ -103,10 +103,11 @@ describe('outcomeSeries', () => {
         obs('rom', 'elbow-flexion', 'left', '2026-01-01T09:00:00.000Z', { kind: 'angle', angleDeg: 100 }, { mode: 'passive', instrument: 'universal-goniometer' }),
         obs('rom', 'elbow-flexion', 'left', '2026-03-01T09:00:00.000Z', { kind: 'angle', angleDeg: 104 }, { mode: 'passive', instrument: 'universal-goniometer' }),
       ],
-      { baselineRule: { kind: 'first' }, localMdc: new Map([['rom|elbow-flexion', { value: 3.5, source: 'local', citation: 'team study 2026' }]]) },
+      { baselineRule: { kind: 'first' }, localMdc: [{ measureCode: 'rom', siteCode: 'elbow-flexion', value: 3.5, citation: 'team study 2026' }] },
     )[0]!;
     expect(series.verdict?.verdict).toBe('improved');
-    expect(series.verdict?.text).toContain('local reliability study: team study 2026');
+    expect(series.mdc).toEqual({ value: 3.5, source: 'local', citation: 'team study 2026' });
+    expect(series.verdict?.text).toBe('Improved from 100° to 104° (+4°), beyond measurement error (MDC 3.5°).');
   });
 
   it('Tardieu series chart the spasticity angle R2 − R1, where lower is better; no MDC means "establish locally"', () => {
@@ -121,7 +122,7 @@ describe('outcomeSeries', () => {
     expect(s.points.map((p) => p.value)).toEqual([40, 20]);
     expect(s.betterWhen).toBe('lower');
     expect(s.verdict?.verdict).toBe('no-mdc');
-    expect(s.verdict?.text).toContain('establish locally');
+    expect(s.mdcNote).toContain('establish locally');
   });
 
   it('baseline "last before event" picks the assessment before an injection', () => {
