@@ -63,7 +63,7 @@ async function dumpDatabase(page: Page): Promise<Record<string, unknown[]>> {
   );
 }
 
-async function writeProgramme(page: Page, patientPath: string, exercises: { name: string; hold: string; reps: string; times: string; per: 'day' | 'week'; caution?: string }[]): Promise<void> {
+async function writeProgramme(page: Page, patientPath: string, exercises: { name: string; hold: string; reps: string; timesPerDay?: string; daysPerWeek?: string; note?: string }[]): Promise<void> {
   await page.goto(`${patientPath}/programme`);
   await page.getByRole('heading', { name: /Home programme for/ }).waitFor();
   await page.getByLabel('Title').fill('Stretches at home');
@@ -81,9 +81,9 @@ async function writeProgramme(page: Page, patientPath: string, exercises: { name
     await box.getByLabel('What to do, in your words').fill(e.name);
     await box.getByLabel('Hold (seconds)').fill(e.hold);
     await box.getByLabel('Repetitions').fill(e.reps);
-    await box.getByLabel('How often').fill(e.times);
-    await box.getByLabel('times a').selectOption(e.per);
-    if (e.caution) await box.getByLabel('Caution (optional)').fill(e.caution);
+    if (e.timesPerDay) await box.getByLabel('Times a day').fill(e.timesPerDay);
+    if (e.daysPerWeek) await box.getByLabel('Days a week').fill(e.daysPerWeek);
+    if (e.note) await box.getByLabel('Note (optional)').fill(e.note);
   }
   await page.getByRole('button', { name: 'Save the programme' }).click();
   await page.locator('form.plan [role="alert"], form.plan [role="status"]').first().waitFor();
@@ -108,8 +108,8 @@ describe('home programme hand-off, offline, between two devices', () => {
     const otherId = second.split('/').pop()!;
 
     await writeProgramme(t, first, [
-      { name: 'Calf stretch against a wall, back heel down', hold: '30', reps: '3', times: '2', per: 'day', caution: 'stop if the knee hurts' },
-      { name: 'Lie on your front for ten minutes', hold: '600', reps: '1', times: '3', per: 'week' },
+      { name: 'Calf stretch against a wall, back heel down', hold: '30', reps: '3', timesPerDay: '2', note: 'stop if the knee hurts' },
+      { name: 'Lie on your front for ten minutes', hold: '600', reps: '1', daysPerWeek: '3' },
     ]);
     const patientCode = (await t.locator('h1 .code').textContent())!.trim();
     await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
@@ -129,7 +129,7 @@ describe('home programme hand-off, offline, between two devices', () => {
     });
 
     // A programme for another patient, to offer to the phone later.
-    await writeProgramme(t, second, [{ name: 'Shoulder rolls', hold: '', reps: '10', times: '1', per: 'day' }]);
+    await writeProgramme(t, second, [{ name: 'Shoulder rolls', hold: '', reps: '10', timesPerDay: '1' }]);
     await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
     const foreignCode = (await t.getByTestId('handover-code').textContent())!.trim();
     const foreignProgramme = await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'foreign-programme.json');
@@ -172,7 +172,7 @@ describe('home programme hand-off, offline, between two devices', () => {
     // Today: first exercise twice a day (done, partly), second three a week (skipped: pain).
     await p.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Today' }).click();
     await p.getByRole('heading', { name: 'Today' }).waitFor();
-    await p.getByText('Take care: stop if the knee hurts').waitFor();
+    await p.getByText('stop if the knee hurts', { exact: true }).waitFor();
     await p.getByRole('group', { name: 'Time 1 of 2 today' }).getByRole('radio', { name: '✓ Done' }).check();
     await p.getByText('Saved.').waitFor();
     await p.getByRole('group', { name: 'Time 2 of 2 today' }).getByRole('radio', { name: '◐ Partly' }).check();

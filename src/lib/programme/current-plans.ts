@@ -1,3 +1,4 @@
+import type { HomeProgramme } from '../domain';
 import { addDays } from './calendar';
 import type { ExercisePlan } from './exercise-plan';
 import { programmeToPlan } from './programme-record';
@@ -7,7 +8,7 @@ interface ProgrammeLike {
   readonly createdAt: string;
   readonly deleted: boolean;
   readonly title: string;
-  readonly items: readonly { readonly name: string; readonly dosage: string }[];
+  readonly items: HomeProgramme['items'];
   readonly startsOn: string;
   readonly endsOn: string | null;
 }
@@ -22,14 +23,13 @@ export interface FollowedPlan {
  * The plans a patient follows, oldest first. A programme handed over later replaces an earlier one
  * from the later one's start date: the earlier one then ends the day before (or never runs, when
  * the later one starts first). Order is creation order (ids and createdAt are time-ordered).
- * Tombstoned programmes and programmes with unreadable dosages are left out.
+ * Tombstoned programmes are left out.
  */
 export function followedPlans(programmes: readonly ProgrammeLike[]): FollowedPlan[] {
   const live = programmes.filter((p) => !p.deleted).sort((a, b) => (a.createdAt < b.createdAt ? -1 : a.createdAt > b.createdAt ? 1 : a.id < b.id ? -1 : 1));
   const out: FollowedPlan[] = [];
   live.forEach((p, i) => {
-    const { plan, unreadable } = programmeToPlan(p);
-    if (unreadable.length > 0) return;
+    const plan = programmeToPlan(p);
     const next = live[i + 1];
     let endsOn = plan.endsOn;
     if (next) {

@@ -1,4 +1,5 @@
 import type { Dexie, Transaction } from 'dexie';
+import { doseFromLegacyLine, type ExerciseDose } from '../domain';
 
 /**
  * Every schema version the app has shipped, oldest first. A version is never edited once released:
@@ -50,6 +51,22 @@ async function upgradeToV2(tx: Transaction): Promise<void> {
     });
 }
 
+/**
+ * Version 6: home-programme items gain a structured `dose`. A dosage line that Kinnote itself wrote
+ * before ("hold 30 s · 3 repetitions · 2 times a day") is read into the dose; any other text
+ * ("3 × 30 s each side") gets no dose. In both cases the old text stays in `dosage`, untouched,
+ * until the therapist saves a structured dose: no dosage is invented by the upgrade. No index
+ * changes. (Version numbers 3–5 and 7 belong to other branches; the integrator renumbers.)
+ */
+async function upgradeToV6(tx: Transaction): Promise<void> {
+  await tx
+    .table('homeProgrammes')
+    .toCollection()
+    .modify((p: { items: { name: string; dosage: string; dose?: ExerciseDose | null }[] }) => {
+      p.items = p.items.map((item) => ({ ...item, dose: item.dose ?? doseFromLegacyLine(item.dosage) }));
+    });
+}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -61,6 +78,16 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     },
     upgrade: upgradeToV2,
     summary: 'observations.takenAt backfilled from the assessment; index [patientId+measureCode+takenAt]; audit [table+recordId]',
+  },
+  {
+    version: 6,
+    stores: {
+      ...V1_STORES,
+      observations: 'id, patientId, assessmentId, measureCode, updatedAt, [patientId+measureCode+takenAt]',
+      audit: 'id, recordId, table, createdAt, [table+recordId]',
+    },
+    upgrade: upgradeToV6,
+    summary: 'homeProgrammes.items[].dose: structured dose read from Kinnote-written dosage lines, free text kept as written',
   },
 ];
 

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { openStore, type KinnoteStore } from '../../../src/lib/store';
-import type { HomeProgramme, Patient } from '../../../src/lib/domain';
+import { EMPTY_DOSE, type HomeProgramme, type Patient } from '../../../src/lib/domain';
 import {
   ProgrammeTransferError,
   acceptProgrammePackage,
@@ -35,8 +35,10 @@ const plan: ExercisePlan = {
   startsOn: '2025-03-03',
   endsOn: null,
   exercises: [
-    { name: 'Calf stretch against a wall', holdSeconds: 30, repetitions: 3, sets: 1, times: 1, per: 'day', caution: 'stop if it hurts' },
-    { name: 'Lie on your front', holdSeconds: 600, repetitions: null, sets: null, times: 3, per: 'week', caution: '' },
+    { name: 'Calf stretch against a wall', dose: { ...EMPTY_DOSE, holdSeconds: 30, repetitions: 3, sets: 1, timesPerDay: 1, note: 'stop if it hurts' }, dosageText: '' },
+    { name: 'Lie on your front', dose: { ...EMPTY_DOSE, durationMinutes: 10, daysPerWeek: 3 }, dosageText: '' },
+    // Kept as the therapist wrote it: handed over and shown as written, never counted as planned.
+    { name: 'Resting splint', dose: null, dosageText: 'nightly as tolerated' },
   ],
 };
 
@@ -93,7 +95,7 @@ describe('programme package', () => {
       sealing,
     );
     await expect(openProgrammePackage(mixed, CODE)).rejects.toMatchObject({ code: 'ForeignPatient' });
-    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 2 }), CODE, sealing);
+    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 3 }), CODE, sealing);
     await expect(openProgrammePackage(future, CODE)).rejects.toMatchObject({ code: 'Unsupported' });
     t.store.close();
   });
