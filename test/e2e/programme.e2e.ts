@@ -141,7 +141,12 @@ describe('home programme hand-off, offline, between two devices', () => {
     await waitForOfflineWorker(p);
     await phoneContext.setOffline(true);
     await p.reload();
-    await p.getByRole('button', { name: 'This is my own phone: I follow a home programme' }).click();
+    // The first screen of a new phone: no therapist menu, no passphrase form.
+    expect(await p.getByRole('navigation', { name: 'Main' }).getByRole('link').count()).toBe(0);
+    expect(await p.getByLabel(/Passphrase/).count()).toBe(0);
+    await p.getByRole('button', { name: 'Receive my programme' }).click();
+    await p.getByRole('heading', { name: 'Get my programme' }).waitFor();
+    await p.goto('/home-programme');
     await p.getByText('No programme on this phone yet').waitFor();
     expect(await p.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()).toEqual(['Today', 'My week', 'How I feel', 'Send report', 'Reminders']);
     // Therapist pages are not reachable on the patient's phone, even by address.

@@ -23,9 +23,11 @@ export interface FollowedPlan {
  * The plans a patient follows, oldest first. A programme handed over later replaces an earlier one
  * from the later one's start date: the earlier one then ends the day before (or never runs, when
  * the later one starts first). Order is creation order (ids and createdAt are time-ordered).
- * Tombstoned programmes are left out.
+ * Tombstoned programmes are left out. With `receivedOn` (the day the phone got its first
+ * programme) no plan starts before it: the patient could not tick days before the phone had the
+ * programme, so those days are neither shown nor counted as missed.
  */
-export function followedPlans(programmes: readonly ProgrammeLike[]): FollowedPlan[] {
+export function followedPlans(programmes: readonly ProgrammeLike[], receivedOn: string | null = null): FollowedPlan[] {
   const live = programmes.filter((p) => !p.deleted).sort((a, b) => (a.createdAt < b.createdAt ? -1 : a.createdAt > b.createdAt ? 1 : a.id < b.id ? -1 : 1));
   const out: FollowedPlan[] = [];
   live.forEach((p, i) => {
@@ -36,7 +38,9 @@ export function followedPlans(programmes: readonly ProgrammeLike[]): FollowedPla
       const dayBefore = addDays(next.startsOn, -1);
       if (endsOn === null || dayBefore < endsOn) endsOn = dayBefore;
     }
-    out.push({ programmeId: p.id, plan: { ...plan, endsOn } });
+    const startsOn = receivedOn !== null && receivedOn > plan.startsOn ? receivedOn : plan.startsOn;
+    if (endsOn !== null && endsOn < startsOn) return;
+    out.push({ programmeId: p.id, plan: { ...plan, startsOn, endsOn } });
   });
   return out;
 }

@@ -38,5 +38,5 @@ export {
 } from './programme-package';
 export { HOME_REPORT_FORMAT, HOME_REPORT_VERSION, createHomeReport, openHomeReport, type HomeReport } from './home-report';
 export { acceptProgrammePackage, choosePatientMode, readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './patient-device';
-export { gatherHomeReport, loadFollowedPlans, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
+export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
 export { importHomeReport, type HomeReportImport } from './import-home-report';

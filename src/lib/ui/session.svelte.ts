@@ -77,6 +77,8 @@ class Session {
   changed(): void {
     this.revision++;
     this.actor = this.store?.actor ?? null;
+    // A device just set up for a therapist (it has a user now and no patient profile).
+    if (this.deviceMode === null && this.actor) this.deviceMode = 'therapist';
   }
 }
 

@@ -169,4 +169,14 @@ describe('followed plans', () => {
       ['p2', '2025-03-24', null],
     ]);
   });
+
+  it('starts no plan before the day the phone received it, so earlier weeks are never counted as missed', () => {
+    const plans = followedPlans([programme('p1', '2025-03-01T00:00:00.000Z', '2025-01-06', null)], '2025-03-12');
+    expect(plans.map((p) => [p.plan.startsOn, p.plan.endsOn])).toEqual([['2025-03-12', null]]);
+    // Hand-worked: only the week of 10 March exists; Wed 12 – Sun 16 is 5 days once a day = 5 planned.
+    const weeks = weeklyAdherence(plans[0]!.plan, 'p1', [], '2025-03-16');
+    expect(weeks.map((w) => [w.weekStart, w.planned])).toEqual([['2025-03-10', 5]]);
+    // A programme that ended before the phone got it is not followed at all.
+    expect(followedPlans([programme('p0', '2025-02-01T00:00:00.000Z', '2025-02-01', '2025-02-28')], '2025-03-12')).toEqual([]);
+  });
 });

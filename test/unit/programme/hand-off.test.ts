@@ -107,7 +107,7 @@ describe('round trip therapist → phone → therapist', () => {
     const phone = await patientPhone();
     const pkgText = await createProgrammePackage({ patient: t.patient, programme: t.programme, issuedAt: '2025-03-01T10:00:00.000Z' }, CODE, sealing);
     const pkg = await openProgrammePackage(pkgText, CODE, null);
-    const accepted = await acceptProgrammePackage(phone, pkg, { now: () => Date.UTC(2025, 2, 3, 8), platform: 'test' });
+    const accepted = await acceptProgrammePackage(phone, pkg, { now: () => Date.UTC(2025, 2, 3, 8), platform: 'test', today: '2025-03-03' });
     expect(accepted.merge.counts.homeProgrammes.inserted).toBe(1);
     const profile = await readDeviceProfile(phone);
     expect(profile).toMatchObject({ mode: 'patient', patientId: t.patient.id, patientCode: 'K7QM-3XHD', currentProgrammeId: t.programme.id });
@@ -170,7 +170,7 @@ describe('round trip therapist → phone → therapist', () => {
     const foreignText = await createProgrammePackage({ patient: t.other, programme: otherProgramme!, issuedAt: '2025-03-01T10:00:00.000Z' }, CODE, sealing);
     await expect(openProgrammePackage(foreignText, CODE, t.patient.id)).rejects.toMatchObject({ code: 'ForeignPatient' });
     const foreignPkg = await openProgrammePackage(foreignText, CODE, null);
-    await expect(acceptProgrammePackage(phone, foreignPkg, { now: () => 0, platform: null })).rejects.toMatchObject({ code: 'ForeignPatient' });
+    await expect(acceptProgrammePackage(phone, foreignPkg, { now: () => 0, platform: null, today: '2025-03-03' })).rejects.toMatchObject({ code: 'ForeignPatient' });
     expect((await phone.homeProgrammes.list()).map((p) => p.patientId)).toEqual([t.patient.id]);
     t.store.close();
     phone.close();
