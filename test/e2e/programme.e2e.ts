@@ -79,11 +79,15 @@ async function writeProgramme(page: Page, patientPath: string, exercises: { name
     if (i > 0) await page.getByRole('button', { name: 'Add an exercise' }).click();
     const box = page.getByRole('group', { name: `Exercise ${i + 1}` });
     await box.getByLabel('What to do, in your words').fill(e.name);
+    // Every field set (an exercise kept from the demo programme keeps its values otherwise).
     await box.getByLabel('Hold (seconds)').fill(e.hold);
     await box.getByLabel('Repetitions').fill(e.reps);
-    if (e.timesPerDay) await box.getByLabel('Times a day').fill(e.timesPerDay);
-    if (e.daysPerWeek) await box.getByLabel('Days a week').fill(e.daysPerWeek);
-    if (e.note) await box.getByLabel('Note (optional)').fill(e.note);
+    await box.getByLabel('Sets').fill('');
+    await box.getByLabel('Minutes each time').fill('');
+    await box.getByLabel('Overnight').setChecked(false);
+    await box.getByLabel('Times a day').fill(e.timesPerDay ?? '');
+    await box.getByLabel('Days a week').fill(e.daysPerWeek ?? '');
+    await box.getByLabel('Note (optional)').fill(e.note ?? '');
   }
   await page.getByRole('button', { name: 'Save the programme' }).click();
   await page.locator('form.plan [role="alert"], form.plan [role="status"]').first().waitFor();
