@@ -40,3 +40,4 @@ export { HOME_REPORT_FORMAT, HOME_REPORT_VERSION, createHomeReport, openHomeRepo
 export { acceptProgrammePackage, choosePatientMode, readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './patient-device';
 export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
 export { importHomeReport, type HomeReportImport } from './import-home-report';
+export { summariseReport, type ReportSummary } from './report-summary';
