@@ -272,11 +272,26 @@ describe('home programme hand-off, offline, between two devices', () => {
     await t.goto(first);
     const summary = t.locator('section', { has: t.getByRole('heading', { name: 'Home programme adherence per week' }) });
     await summary.getByText('50 % (1 of 2)').waitFor();
+    await t.getByTestId('home-log-timeline').waitFor();
     await screenshot(t, 'programme-therapist-patient-page');
     await t.goto(`${first}/programme`);
     await t.getByRole('heading', { name: /Home programme for/ }).waitFor();
     expect(await seriousAxeViolations(t)).toEqual([]);
     await screenshot(t, 'programme-therapist');
+
+    // Leaving patient mode on the phone (still offline): it says what goes, and asks first.
+    await p.goto('/home-programme');
+    await p.getByRole('link', { name: 'Stop using this phone for my programme' }).click();
+    const list = p.getByTestId('to-remove');
+    await list.getByText('"Stretches at home"').waitFor();
+    await list.getByText(/your spasm ratings: 1/).waitFor();
+    const remove = p.getByRole('button', { name: 'Remove and leave patient mode' });
+    expect(await remove.isDisabled()).toBe(true);
+    await lookAt(p, 'leave');
+    await p.getByLabel(/I understand/).check();
+    await remove.click();
+    await p.getByRole('button', { name: 'Receive my programme' }).waitFor({ timeout: 20_000 });
+    expect(await p.getByRole('navigation', { name: 'Main' }).getByRole('link').count()).toBe(0);
 
     await phoneContext.close();
     await therapistContext.close();
