@@ -205,6 +205,9 @@ describe('home programme hand-off, offline, between two devices', () => {
 
     await p.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Reminders' }).click();
     await p.getByRole('heading', { name: 'Reminders' }).waitFor();
+    // Exact about what a web app cannot do: no reminder when closed or asleep.
+    await p.getByTestId('reminder-limits').getByText(/remind you when Kinnote is closed, when the phone is asleep/).waitFor();
+    expect(await p.getByText(/in the background/).count()).toBe(0);
     await lookAt(p, 'reminders');
 
     await p.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Send report' }).click();

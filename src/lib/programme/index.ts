@@ -41,3 +41,4 @@ export { acceptProgrammePackage, choosePatientMode, readDeviceProfile, writeDevi
 export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
 export { importHomeReport, type HomeReportImport } from './import-home-report';
 export { summariseReport, type ReportSummary } from './report-summary';
+export { dueReminderTime } from './due-reminder';
