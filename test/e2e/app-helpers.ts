@@ -6,6 +6,8 @@ export const TEST_PASSPHRASE = 'correct horse battery staple';
 /** Sets up the device on the first screen; with `demo`, also loads the invented demo caseload. */
 export async function setUpDevice(page: Page, options: { demo: boolean } = { demo: true }): Promise<void> {
   await page.goto('/');
+  // The first screen asks who the device is for; the passphrase form is only on the therapist's side.
+  await page.getByRole('button', { name: 'Set up for a therapist' }).click();
   await page.getByLabel('Your name').fill('Robin Testwell');
   await page.getByLabel('Name of this device').fill('Browser test tablet');
   await page.getByLabel('Passphrase for names and notes').fill(TEST_PASSPHRASE);

@@ -1,9 +1,11 @@
 import {
+  EMPTY_DOSE,
   TABLE_NAMES,
   formatUuidV7,
   patientCode,
   type Assessment,
   type ClinicalEvent,
+  type ExerciseDose,
   type EventKind,
   type Instrument,
   type Observation,
@@ -34,6 +36,9 @@ export interface DemoScenario {
 export const DEMO_DEFAULT_END_DATE = '2025-06-30';
 
 const DAY_MS = 86_400_000;
+/** The demo home programme: calf stretch and sit-to-stand on 5 days a week, a resting splint each night (5 + 5 + 7). */
+const DEMO_DOSE: ExerciseDose = EMPTY_DOSE;
+const DEMO_SESSIONS_PER_WEEK = 17;
 const MAS_LABELS = ['0', '1', '1+', '2', '3', '4'] as const;
 
 interface RomPlan {
@@ -339,19 +344,21 @@ export function generateDemoScenario(options: DemoOptions): DemoScenario {
       tables.homeProgrammes.push({
         id: programmeId, ...stamps(programmeMs, deviceId, clinicianId), patientId, title: 'Daily stretching and positioning (demo)',
         items: [
-          { name: 'Calf stretch against a wall', dosage: '3 × 30 s each side' },
-          { name: 'Sit-to-stand practice', dosage: '2 sets of 8' },
-          { name: 'Resting splint overnight', dosage: 'nightly as tolerated' },
+          { name: 'Calf stretch against a wall', dosage: '', dose: { ...DEMO_DOSE, holdSeconds: 30, repetitions: 3, daysPerWeek: 5, note: 'each side' } },
+          { name: 'Sit-to-stand practice', dosage: '', dose: { ...DEMO_DOSE, repetitions: 8, sets: 2, daysPerWeek: 5 } },
+          { name: 'Resting splint', dosage: '', dose: { ...DEMO_DOSE, overnight: true, note: 'as tolerated' } },
         ],
-        sessionsPerWeek: 5, startsOn: day(programmeMs), endsOn: null,
+        sessionsPerWeek: DEMO_SESSIONS_PER_WEEK, startsOn: day(programmeMs), endsOn: null,
       });
       const keenness = rng.uniform(0.5, 0.95);
       for (let w = programmeMs; w + 7 * DAY_MS <= endMs; w += 7 * DAY_MS) {
         const reportMs = w + 7 * DAY_MS - 3_600_000;
         let done = 0;
         for (let s = 0; s < 5; s++) if (rng.chance(keenness)) done++;
+        // Five draws as before (the seeded scenario stays the same), scaled to the week's planned sessions.
         tables.adherenceEntries.push({
-          id: idAt(reportMs), ...stamps(reportMs, deviceId, clinicianId), patientId, programmeId, periodStart: day(w), sessionsPlanned: 5, sessionsDone: done,
+          id: idAt(reportMs), ...stamps(reportMs, deviceId, clinicianId), patientId, programmeId, periodStart: day(w), sessionsPlanned: DEMO_SESSIONS_PER_WEEK,
+          sessionsDone: Math.round((done * DEMO_SESSIONS_PER_WEEK) / 5),
           reportedBy: rng.chance(0.7) ? 'patient' : 'carer',
         });
         if (rng.chance(0.6)) {

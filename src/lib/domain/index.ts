@@ -30,7 +30,8 @@ export {
   type RomMode,
 } from './observation';
 export { TRACE_KINDS, TraceSchema, type Trace } from './trace';
-export { HomeProgrammeSchema, type HomeProgramme } from './home-programme';
+export { HomeProgrammeItemSchema, HomeProgrammeSchema, type HomeProgramme, type HomeProgrammeItem } from './home-programme';
+export { EMPTY_DOSE, ExerciseDoseSchema, MAX_DOSE_NOTE_LENGTH, MAX_TIMES_PER_DAY, doseFromLegacyLine, type ExerciseDose } from './exercise-dose';
 export { AdherenceEntrySchema, type AdherenceEntry } from './adherence-entry';
 export { SelfReportSchema, type SelfReport } from './self-report';
 export { RELIABILITY_DESIGNS, ReliabilityStudySchema, type ReliabilityStudy } from './reliability-study';

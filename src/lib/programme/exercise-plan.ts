@@ -1,38 +1,26 @@
 import * as v from 'valibot';
-import { IsoDateSchema } from '../domain';
+import { ExerciseDoseSchema, IsoDateSchema, MAX_TIMES_PER_DAY, type ExerciseDose } from '../domain';
 
-export const FREQUENCY_PERIODS = ['day', 'week'] as const;
-export type FrequencyPeriod = (typeof FREQUENCY_PERIODS)[number];
-
-/** Most times a day an exercise can be asked for; per week, at most once a day (7). */
-export const MAX_TIMES_PER_DAY = 6;
-export const MAX_TIMES_PER_WEEK = 7;
 /** HomeProgramme.sessionsPerWeek allows at most 50 (domain schema), so a full week may plan no more. */
 export const MAX_SESSIONS_PER_WEEK = 50;
 export const MAX_EXERCISES = 12;
-export const MAX_CAUTION_LENGTH = 100;
-
-const count = (max: number) => v.nullable(v.pipe(v.number(), v.integer('must be a whole number'), v.minValue(1, 'must be at least 1'), v.maxValue(max, `must be at most ${max}`)));
-const oneLine = (max: number) =>
-  v.pipe(v.string(), v.trim(), v.maxLength(max, `must be at most ${max} characters`), v.regex(/^[^\n\r·]*$/, 'must be one line without "·"'));
+export { MAX_TIMES_PER_DAY };
 
 /**
- * One exercise or position as the therapist writes it: what to do (their own words), hold time,
- * repetitions, sets, how often, and a caution. Null means "not specified" for that exercise.
+ * One exercise, position or orthosis as the therapist writes it: what to do (their own words),
+ * the structured dose, and the dosage text as written before doses were structured (kept and
+ * shown while `dose` is null; empty otherwise). One of the two must say something: a dosage is
+ * never made up for an exercise.
  */
 export const ExerciseSchema = v.pipe(
   v.strictObject({
     name: v.pipe(v.string(), v.trim(), v.minLength(1, 'must not be empty'), v.maxLength(200, 'must be at most 200 characters')),
-    holdSeconds: count(600),
-    repetitions: count(100),
-    sets: count(20),
-    times: v.pipe(v.number(), v.integer('must be a whole number'), v.minValue(1, 'must be at least 1')),
-    per: v.picklist(FREQUENCY_PERIODS),
-    caution: oneLine(MAX_CAUTION_LENGTH),
+    dose: v.nullable(ExerciseDoseSchema),
+    dosageText: v.pipe(v.string(), v.trim(), v.maxLength(200, 'must be at most 200 characters')),
   }),
   v.forward(
-    v.check((e) => e.times <= (e.per === 'day' ? MAX_TIMES_PER_DAY : MAX_TIMES_PER_WEEK), `must be at most ${MAX_TIMES_PER_DAY} a day or ${MAX_TIMES_PER_WEEK} a week`),
-    ['times'],
+    v.check((e) => e.dose !== null || e.dosageText !== '', 'needs a dosage: repetitions, hold, how often, a wearing time or a note'),
+    ['dose'],
   ),
 );
 export type Exercise = v.InferOutput<typeof ExerciseSchema>;
@@ -56,14 +44,43 @@ export const ExercisePlanSchema = v.pipe(
 );
 export type ExercisePlan = v.InferOutput<typeof ExercisePlanSchema>;
 
+/** How often an exercise is planned: times on each day it is done, and days a week (7 = every day). */
+export interface DoseSchedule {
+  readonly timesPerDay: number;
+  readonly daysPerWeek: number;
+}
+
+/**
+ * How often a dose asks for the exercise, or null when it does not say (free-text dosage, or a
+ * dose without times a day, days a week or "overnight"). Only what was prescribed is read:
+ * days a week alone means once on each of those days; times a day alone means every day;
+ * overnight means each night unless days a week says otherwise. Unscheduled exercises can be
+ * ticked but never count as planned.
+ */
+export function doseSchedule(dose: ExerciseDose | null): DoseSchedule | null {
+  if (dose === null) return null;
+  const timesPerDay = dose.timesPerDay ?? (dose.daysPerWeek !== null || dose.overnight ? 1 : null);
+  if (timesPerDay === null) return null;
+  return { timesPerDay, daysPerWeek: dose.daysPerWeek ?? 7 };
+}
+
+/** Tick buttons a day for an exercise: one per planned time, one for an unscheduled exercise. */
+export function ticksPerDay(exercise: Pick<Exercise, 'dose'>): number {
+  return doseSchedule(exercise.dose)?.timesPerDay ?? 1;
+}
+
 /**
  * Planned exercise sessions in a full week. A "session" here is one exercise done once as
  * prescribed (all its sets and repetitions): an exercise twice a day is 14 sessions a week, one
- * three times a week is 3 (a definition of this app, common practice for counting adherence).
+ * on three days a week is 3 (a definition of this app, common practice for counting adherence).
+ * Unscheduled exercises count 0.
  */
-export function sessionsInFullWeek(exercises: readonly Pick<Exercise, 'times' | 'per'>[]): number {
+export function sessionsInFullWeek(exercises: readonly Pick<Exercise, 'dose'>[]): number {
   let total = 0;
-  for (const e of exercises) total += e.per === 'day' ? e.times * 7 : e.times;
+  for (const e of exercises) {
+    const s = doseSchedule(e.dose);
+    if (s) total += s.timesPerDay * s.daysPerWeek;
+  }
   return total;
 }
 

@@ -1,6 +1,6 @@
 import * as v from 'valibot';
-import { IdSchema, IsoDateSchema, IsoDateTimeSchema } from '../domain';
-import { MAX_EXERCISES, MAX_TIMES_PER_DAY } from './exercise-plan';
+import { IdSchema, IsoDateSchema, IsoDateTimeSchema, MAX_TIMES_PER_DAY } from '../domain';
+import { MAX_EXERCISES } from './exercise-plan';
 
 export const TICK_STATUSES = ['done', 'partly', 'skipped'] as const;
 export type TickStatus = (typeof TICK_STATUSES)[number];

@@ -1,6 +1,7 @@
 import { readLocalState, writeLocalState, type KinnoteStore } from '../store';
 import type { AdherenceEntry, HomeProgramme, SelfReport } from '../domain';
 import { followedPlans } from './current-plans';
+import { readDeviceProfile } from './patient-device';
 import { readHomeLog, withTick, withoutTick, type ExerciseTick, type HomeLog } from './home-log';
 import type { HomeReport } from './home-report';
 import { weeklyAdherence } from './weekly-adherence';
@@ -16,7 +17,18 @@ export async function loadHomeLog(store: KinnoteStore): Promise<{ log: HomeLog; 
 
 /** The patient's programmes on this phone, as followed (see followedPlans). */
 export async function loadFollowedPlans(store: KinnoteStore, patientId: string) {
-  return followedPlans((await store.homeProgrammes.byPatient(patientId)) as HomeProgramme[]);
+  const profile = await readDeviceProfile(store);
+  const receivedOn = profile?.mode === 'patient' ? profile.receivedOn : null;
+  return followedPlans((await store.homeProgrammes.byPatient(patientId)) as HomeProgramme[], receivedOn);
+}
+
+/** What a patient's phone holds, for the screen that asks before removing it. */
+export async function patientPhoneContents(store: KinnoteStore, patientId: string | null): Promise<{ programmes: string[]; ticks: number; daysTicked: number; ratings: number }> {
+  const { log } = await loadHomeLog(store);
+  const programmes = patientId ? ((await store.homeProgrammes.byPatient(patientId)) as HomeProgramme[]).map((p) => p.title) : [];
+  const ratings = patientId ? ((await store.selfReports.byPatient(patientId)) as SelfReport[]).length : 0;
+  const days = new Set(log.ticks.filter((t) => t.status !== 'skipped').map((t) => t.day));
+  return { programmes, ticks: log.ticks.length, daysTicked: days.size, ratings };
 }
 
 /**

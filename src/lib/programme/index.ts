@@ -7,21 +7,20 @@ export { addDays, dayNumber, localDayOf, weekStartOf } from './calendar';
 export {
   ExercisePlanSchema,
   ExerciseSchema,
-  FREQUENCY_PERIODS,
-  MAX_CAUTION_LENGTH,
   MAX_EXERCISES,
   MAX_SESSIONS_PER_WEEK,
   MAX_TIMES_PER_DAY,
-  MAX_TIMES_PER_WEEK,
   checkExercisePlan,
+  doseSchedule,
   sessionsInFullWeek,
+  ticksPerDay,
+  type DoseSchedule,
   type Exercise,
   type ExercisePlan,
-  type FrequencyPeriod,
   type PlanIssue,
 } from './exercise-plan';
-export { formatDosage, parseDosage } from './dosage-text';
-export { planToProgrammeInput, programmeToPlan } from './programme-record';
+export { dosePartEnglish, doseParts, durationWords, formatDoseEnglish, type DosePart } from './dose-parts';
+export { freeTextExercises, planToProgrammeInput, programmeToPlan } from './programme-record';
 export { activeDaysInWeek, planRunsOn, plannedSessionsInWeek, plannedSessionsOfExercise, weeksOfPlan } from './planned-sessions';
 export { EMPTY_HOME_LOG, TICK_STATUSES, findTick, readHomeLog, withTick, withoutTick, type ExerciseTick, type HomeLog, type TickStatus } from './home-log';
 export { adherenceByWeek, weeklyAdherence, type RecordedWeek, type WeekAdherence } from './weekly-adherence';
@@ -39,5 +38,7 @@ export {
 } from './programme-package';
 export { HOME_REPORT_FORMAT, HOME_REPORT_VERSION, createHomeReport, openHomeReport, type HomeReport } from './home-report';
 export { acceptProgrammePackage, choosePatientMode, readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './patient-device';
-export { gatherHomeReport, loadFollowedPlans, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
+export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
 export { importHomeReport, type HomeReportImport } from './import-home-report';
+export { summariseReport, type ReportSummary } from './report-summary';
+export { dueReminderTime } from './due-reminder';

@@ -18,6 +18,8 @@ export type DeviceProfile =
       readonly patientCode: string | null;
       readonly deviceId: string | null;
       readonly currentProgrammeId: string | null;
+      /** The phone's own calendar day when it accepted its first programme; weeks before it are not counted. */
+      readonly receivedOn: string | null;
     };
 
 const ProfileSchema = v.variant('mode', [
@@ -28,6 +30,8 @@ const ProfileSchema = v.variant('mode', [
     patientCode: v.nullable(v.string()),
     deviceId: v.nullable(v.string()),
     currentProgrammeId: v.nullable(v.string()),
+    // Absent in profiles saved before it existed.
+    receivedOn: v.optional(v.nullable(v.string()), null),
   }),
 ]);
 
@@ -50,7 +54,7 @@ export async function choosePatientMode(store: KinnoteStore): Promise<DeviceProf
   if (store.actor !== null || (await store.patients.list({ includeDeleted: true })).length > 0) {
     throw new StoreError('ValidationFailed', 'this device is already set up for a therapist; a patient\'s phone needs a device of its own');
   }
-  const profile: DeviceProfile = { mode: 'patient', patientId: null, patientCode: null, deviceId: null, currentProgrammeId: null };
+  const profile: DeviceProfile = { mode: 'patient', patientId: null, patientCode: null, deviceId: null, currentProgrammeId: null, receivedOn: null };
   await writeDeviceProfile(store, profile);
   return profile;
 }
@@ -65,7 +69,7 @@ export async function choosePatientMode(store: KinnoteStore): Promise<DeviceProf
 export async function acceptProgrammePackage(
   store: KinnoteStore,
   pkg: OpenedProgrammePackage,
-  options: { now: () => number; platform: string | null },
+  options: { now: () => number; platform: string | null; /** The phone's local calendar day now. */ today: string },
 ): Promise<{ merge: MergeReport; profile: DeviceProfile }> {
   const profile = await readDeviceProfile(store);
   if (profile?.mode !== 'patient') throw new StoreError('ValidationFailed', 'this device is not a patient\'s phone');
@@ -103,7 +107,14 @@ export async function acceptProgrammePackage(
   );
   // The phone never holds the patient's record: the package vouches for the patient it names.
   const merge = await importBackup(store, bundle, { knownPatientIds: [pkg.patient.id] });
-  const next: DeviceProfile = { mode: 'patient', patientId: pkg.patient.id, patientCode: pkg.patient.code, deviceId, currentProgrammeId: pkg.programme.id };
+  const next: DeviceProfile = {
+    mode: 'patient',
+    patientId: pkg.patient.id,
+    patientCode: pkg.patient.code,
+    deviceId,
+    currentProgrammeId: pkg.programme.id,
+    receivedOn: profile.receivedOn ?? options.today,
+  };
   await writeDeviceProfile(store, next);
   return { merge, profile: next };
 }

@@ -1,5 +1,5 @@
 import { addDays, dayNumber, weekStartOf } from './calendar';
-import type { Exercise, ExercisePlan } from './exercise-plan';
+import { doseSchedule, type Exercise, type ExercisePlan } from './exercise-plan';
 
 /** Days of the week starting `weekStart` (a Monday) on which the plan runs, up to `throughDay` inclusive. */
 export function activeDaysInWeek(plan: Pick<ExercisePlan, 'startsOn' | 'endsOn'>, weekStart: string, throughDay: string): number {
@@ -11,15 +11,18 @@ export function activeDaysInWeek(plan: Pick<ExercisePlan, 'startsOn' | 'endsOn'>
 
 /**
  * Planned sessions of one exercise in one week, counting only days on which the plan runs up to
- * `throughDay` (so a week in progress is judged on the days so far). An exercise n times a day is
- * n per active day. One n times a week is n in a full week and pro rata in a part week,
- * round(n × activeDays / 7) with halves rounded up (common practice; no source): 3 a week over
- * 4 days plans 2, over 1 day plans 0.
+ * `throughDay` (so a week in progress is judged on the days so far). An exercise every day, n
+ * times a day, is n per active day. One on d < 7 days a week, n times on each, is n × d in a
+ * full week and pro rata in a part week, round(n × d × activeDays / 7) with halves rounded up
+ * (common practice; no source): 3 days a week over 4 days plans 2, over 1 day plans 0. An
+ * exercise whose dose does not say how often plans 0 (its ticks are counted apart).
  */
-export function plannedSessionsOfExercise(exercise: Pick<Exercise, 'times' | 'per'>, activeDays: number): number {
-  if (activeDays <= 0) return 0;
-  if (exercise.per === 'day') return exercise.times * activeDays;
-  return activeDays >= 7 ? exercise.times : Math.floor((exercise.times * activeDays) / 7 + 0.5);
+export function plannedSessionsOfExercise(exercise: Pick<Exercise, 'dose'>, activeDays: number): number {
+  const schedule = doseSchedule(exercise.dose);
+  if (activeDays <= 0 || schedule === null) return 0;
+  const { timesPerDay, daysPerWeek } = schedule;
+  if (daysPerWeek >= 7) return timesPerDay * activeDays;
+  return activeDays >= 7 ? timesPerDay * daysPerWeek : Math.floor((timesPerDay * daysPerWeek * activeDays) / 7 + 0.5);
 }
 
 /** Planned sessions of every exercise in the week (index-aligned with plan.exercises), and their sum. */

@@ -8,7 +8,10 @@ import { ProgrammeTransferError } from './programme-transfer-error';
 import { openTransfer, sealTransfer, type SealOptions } from './sealed-transfer';
 
 export const PROGRAMME_PACKAGE_FORMAT = 'kinnote-home-programme' as const;
-export const PROGRAMME_PACKAGE_VERSION = 1;
+export const PROGRAMME_PACKAGE_VERSION = 2;
+/** Version 1 (before structured doses) is still read: its items have no dose and keep their text. */
+const READABLE_VERSIONS: readonly number[] = [1, 2];
+const VersionSchema = v.union([v.literal(1), v.literal(2)]);
 
 const PatientCodeSchema = v.pipe(v.string(), v.regex(/^[2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4}$/, 'must be a pseudonymous code like K7QM-3XHD'));
 
@@ -20,7 +23,7 @@ const PatientCodeSchema = v.pipe(v.string(), v.regex(/^[2-9A-HJKMNP-TV-Z]{4}-[2-
  */
 const PackageSchema = v.strictObject({
   format: v.literal(PROGRAMME_PACKAGE_FORMAT),
-  formatVersion: v.literal(PROGRAMME_PACKAGE_VERSION),
+  formatVersion: VersionSchema,
   issuedAt: IsoDateTimeSchema,
   patient: v.strictObject({ id: IdSchema, code: PatientCodeSchema }),
   programme: HomeProgrammeSchema,
@@ -41,8 +44,7 @@ export interface OpenedProgrammePackage extends ProgrammePackage {
 
 /**
  * Builds and encrypts a programme package under `code`. Throws ProgrammeTransferError Invalid when
- * the programme is not this patient's, not a valid record, or has an exercise whose dosage this
- * app cannot follow (rewrite it in the form first).
+ * the programme is not this patient's or not a valid record. Free-text dosages travel as written.
  */
 export async function createProgrammePackage(
   input: { patient: { id: string; code: string }; programme: HomeProgramme; issuedAt: string },
@@ -80,7 +82,7 @@ function checkPackage(parsed: unknown): OpenedProgrammePackage {
     throw new ProgrammeTransferError('NotThisKind', format === 'kinnote-home-report' ? 'This is a report from a patient\'s phone, not a programme. Import it on the patient\'s page instead.' : 'This is not a Kinnote programme file.');
   }
   const version = (parsed as { formatVersion?: unknown }).formatVersion;
-  if (version !== PROGRAMME_PACKAGE_VERSION) {
+  if (typeof version !== 'number' || !READABLE_VERSIONS.includes(version)) {
     throw new ProgrammeTransferError('Unsupported', `This programme file is version ${JSON.stringify(version)}; this app reads version ${PROGRAMME_PACKAGE_VERSION}. Update the app.`);
   }
   const result = v.safeParse(PackageSchema, parsed);
@@ -92,11 +94,7 @@ function checkPackage(parsed: unknown): OpenedProgrammePackage {
   if (pkg.programme.patientId !== pkg.patient.id) {
     throw new ProgrammeTransferError('ForeignPatient', 'This programme file mixes two people (its programme is not for the patient it names). It was refused; nothing was saved.');
   }
-  const { plan, unreadable } = programmeToPlan(pkg.programme);
-  if (unreadable.length > 0) {
-    throw new ProgrammeTransferError('Invalid', `Exercise ${unreadable[0]! + 1} has a dosage this app cannot follow; rewrite it in the programme form first.`);
-  }
-  const checked = checkExercisePlan(plan);
+  const checked = checkExercisePlan(programmeToPlan(pkg.programme));
   if (!checked.ok) throw new ProgrammeTransferError('Invalid', `The programme breaks a rule at ${checked.issues[0]!.path}: ${checked.issues[0]!.message}.`);
   return { ...pkg, plan: checked.plan };
 }

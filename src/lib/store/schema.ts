@@ -1,4 +1,5 @@
 import type { Dexie, Transaction } from 'dexie';
+import { doseFromLegacyLine, type ExerciseDose } from '../domain';
 
 /**
  * Every schema version the app has shipped, oldest first. A version is never edited once released:
@@ -76,6 +77,22 @@ async function upgradeToV4(tx: Transaction): Promise<void> {
  */
 async function upgradeToV5(): Promise<void> {}
 
+/**
+ * Version 6: home-programme items gain a structured `dose`. A dosage line that Kinnote itself wrote
+ * before ("hold 30 s · 3 repetitions · 2 times a day") is read into the dose; any other text
+ * ("3 × 30 s each side") gets no dose. In both cases the old text stays in `dosage`, untouched,
+ * until the therapist saves a structured dose: no dosage is invented by the upgrade. No index
+ * changes.
+ */
+async function upgradeToV6(tx: Transaction): Promise<void> {
+  await tx
+    .table('homeProgrammes')
+    .toCollection()
+    .modify((p: { items: { name: string; dosage: string; dose?: ExerciseDose | null }[] }) => {
+      p.items = p.items.map((item) => ({ ...item, dose: item.dose ?? doseFromLegacyLine(item.dosage) }));
+    });
+}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -100,6 +117,13 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     },
     upgrade: upgradeToV5,
     summary: 'unused indexes dropped: observations assessmentId, measureCode, updatedAt; audit recordId, table',
+  },
+  {
+    version: 6,
+    // No index changes: only the table whose records the upgrade rewrites is named.
+    stores: { homeProgrammes: V1_STORES.homeProgrammes },
+    upgrade: upgradeToV6,
+    summary: 'homeProgrammes.items[].dose: structured dose read from Kinnote-written dosage lines, free text kept as written',
   },
 ];
 

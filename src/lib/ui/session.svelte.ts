@@ -101,6 +101,8 @@ class Session {
     this.revision++;
     this.#channel?.postMessage({ kind: 'changed' });
     this.actor = this.store?.actor ?? null;
+    // A device just set up for a therapist (it has a user now and no patient profile).
+    if (this.deviceMode === null && this.actor) this.deviceMode = 'therapist';
   }
 }
 

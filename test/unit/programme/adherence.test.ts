@@ -4,12 +4,12 @@ import {
   activeDaysInWeek,
   adherenceByWeek,
   followedPlans,
-  formatDosage,
   plannedSessionsOfExercise,
   weeklyAdherence,
   type ExercisePlan,
   type ExerciseTick,
 } from '../../../src/lib/programme';
+import { EMPTY_DOSE } from '../../../src/lib/domain';
 
 const P = '0190f1a2-0000-7000-8000-0000000000aa';
 const at = '2025-03-20T10:00:00.000Z';
@@ -29,8 +29,10 @@ const plan: ExercisePlan = {
   startsOn: '2025-03-05',
   endsOn: null,
   exercises: [
-    { name: 'A', holdSeconds: 30, repetitions: 3, sets: 1, times: 2, per: 'day', caution: '' },
-    { name: 'B', holdSeconds: null, repetitions: 10, sets: 2, times: 3, per: 'week', caution: '' },
+    { name: 'A', dose: { ...EMPTY_DOSE, holdSeconds: 30, repetitions: 3, sets: 1, timesPerDay: 2 }, dosageText: '' },
+    { name: 'B', dose: { ...EMPTY_DOSE, repetitions: 10, sets: 2, daysPerWeek: 3 }, dosageText: '' },
+    // "2 sets of 8" with no frequency: can be ticked, never planned.
+    { name: 'C', dose: null, dosageText: '2 sets of 8' },
   ],
 };
 
@@ -42,17 +44,20 @@ describe('planned sessions (hand-worked, common practice: pro rata for part week
     expect(activeDaysInWeek(plan, '2025-02-24', '2025-03-30')).toBe(0);
   });
   const fixtures = [
-    { input: { times: 2, per: 'day' as const, days: 5 }, expected: 10, source: 'hand-worked: 2 × 5' },
-    { input: { times: 3, per: 'week' as const, days: 7 }, expected: 3, source: 'full week' },
-    { input: { times: 3, per: 'week' as const, days: 5 }, expected: 2, source: 'hand-worked: round(15/7 = 2.14)' },
-    { input: { times: 3, per: 'week' as const, days: 3 }, expected: 1, source: 'hand-worked: round(9/7 = 1.29)' },
-    { input: { times: 3, per: 'week' as const, days: 1 }, expected: 0, source: 'hand-worked: round(3/7 = 0.43)' },
-    { input: { times: 7, per: 'week' as const, days: 1 }, expected: 1, source: 'hand-worked: 7/7 = 1' },
-    { input: { times: 1, per: 'week' as const, days: 4 }, expected: 1, source: 'hand-worked: round(4/7 = 0.57)' },
-    { input: { times: 2, per: 'day' as const, days: 0 }, expected: 0, source: 'no active day' },
+    { input: { timesPerDay: 2, daysPerWeek: null, days: 5 }, expected: 10, source: 'hand-worked: 2 × 5' },
+    { input: { timesPerDay: null, daysPerWeek: 3, days: 7 }, expected: 3, source: 'full week' },
+    { input: { timesPerDay: null, daysPerWeek: 3, days: 5 }, expected: 2, source: 'hand-worked: round(15/7 = 2.14)' },
+    { input: { timesPerDay: null, daysPerWeek: 3, days: 3 }, expected: 1, source: 'hand-worked: round(9/7 = 1.29)' },
+    { input: { timesPerDay: null, daysPerWeek: 3, days: 1 }, expected: 0, source: 'hand-worked: round(3/7 = 0.43)' },
+    { input: { timesPerDay: 2, daysPerWeek: 3, days: 7 }, expected: 6, source: 'hand-worked: 2 × 3' },
+    { input: { timesPerDay: 2, daysPerWeek: 3, days: 4 }, expected: 3, source: 'hand-worked: round(24/7 = 3.43)' },
+    { input: { timesPerDay: null, daysPerWeek: 1, days: 4 }, expected: 1, source: 'hand-worked: round(4/7 = 0.57)' },
+    { input: { timesPerDay: 2, daysPerWeek: null, days: 0 }, expected: 0, source: 'no active day' },
+    { input: { timesPerDay: null, daysPerWeek: null, days: 7 }, expected: 0, source: 'how often not prescribed' },
   ];
-  it.each(fixtures)('$input.times a $input.per over $input.days days plans $expected ($source)', ({ input, expected }) => {
-    expect(plannedSessionsOfExercise(input, input.days)).toBe(expected);
+  it.each(fixtures)('$input.timesPerDay a day on $input.daysPerWeek days over $input.days days plans $expected ($source)', ({ input, expected }) => {
+    const dose = { ...EMPTY_DOSE, repetitions: 5, timesPerDay: input.timesPerDay, daysPerWeek: input.daysPerWeek };
+    expect(plannedSessionsOfExercise({ dose }, input.days)).toBe(expected);
   });
 });
 
@@ -67,6 +72,8 @@ describe('weekly adherence from ticks (hand-worked)', () => {
     // Week of 10 March: A done every time (14), B skipped 3 times.
     for (let d = 10; d <= 16; d++) ticks.push(tick(0, `2025-03-${d}`, 1, 'done'), tick(0, `2025-03-${d}`, 2, 'done'));
     ticks.push(tick(1, '2025-03-10', 1, 'skipped'), tick(1, '2025-03-12', 1, 'skipped'), tick(1, '2025-03-14', 1, 'skipped'));
+    // C has no frequency: its ticks neither plan nor count as done.
+    ticks.push(tick(2, '2025-03-06', 1, 'done'), tick(2, '2025-03-11', 1, 'done'));
     // Another programme's tick and a tick before the start are ignored.
     ticks.push({ ...tick(0, '2025-03-11', 1, 'done'), programmeId: '0190f1a2-0000-7000-8000-0000000000bb' }, tick(0, '2025-03-04', 1, 'done'));
 
@@ -148,17 +155,28 @@ describe('followed plans', () => {
     title: id,
     startsOn,
     endsOn,
-    items: [{ name: 'A', dosage: formatDosage({ holdSeconds: null, repetitions: null, sets: null, times: 1, per: 'day', caution: '' }) }],
+    items: [{ name: 'A', dosage: '', dose: { ...EMPTY_DOSE, timesPerDay: 1 } }],
   });
-  it('ends an earlier programme the day before a later one starts; skips unreadable ones', () => {
+  it('ends an earlier programme the day before a later one starts; free-text ones are followed too', () => {
     const plans = followedPlans([
       programme('p2', '2025-03-20T00:00:00.000Z', '2025-03-24', null),
       programme('p1', '2025-03-01T00:00:00.000Z', '2025-03-05', null),
-      { ...programme('p0', '2025-02-01T00:00:00.000Z', '2025-02-01', null), items: [{ name: 'x', dosage: 'as tolerated' }] },
+      { ...programme('p0', '2025-02-01T00:00:00.000Z', '2025-02-01', null), items: [{ name: 'x', dosage: 'as tolerated', dose: null }] },
     ]);
     expect(plans.map((p) => [p.programmeId, p.plan.startsOn, p.plan.endsOn])).toEqual([
+      ['p0', '2025-02-01', '2025-03-04'],
       ['p1', '2025-03-05', '2025-03-23'],
       ['p2', '2025-03-24', null],
     ]);
+  });
+
+  it('starts no plan before the day the phone received it, so earlier weeks are never counted as missed', () => {
+    const plans = followedPlans([programme('p1', '2025-03-01T00:00:00.000Z', '2025-01-06', null)], '2025-03-12');
+    expect(plans.map((p) => [p.plan.startsOn, p.plan.endsOn])).toEqual([['2025-03-12', null]]);
+    // Hand-worked: only the week of 10 March exists; Wed 12 – Sun 16 is 5 days once a day = 5 planned.
+    const weeks = weeklyAdherence(plans[0]!.plan, 'p1', [], '2025-03-16');
+    expect(weeks.map((w) => [w.weekStart, w.planned])).toEqual([['2025-03-10', 5]]);
+    // A programme that ended before the phone got it is not followed at all.
+    expect(followedPlans([programme('p0', '2025-02-01T00:00:00.000Z', '2025-02-01', '2025-02-28')], '2025-03-12')).toEqual([]);
   });
 });

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { openStore, type KinnoteStore } from '../../../src/lib/store';
-import type { HomeProgramme, Patient } from '../../../src/lib/domain';
+import { EMPTY_DOSE, type HomeProgramme, type Patient } from '../../../src/lib/domain';
 import {
   ProgrammeTransferError,
   acceptProgrammePackage,
@@ -35,8 +35,10 @@ const plan: ExercisePlan = {
   startsOn: '2025-03-03',
   endsOn: null,
   exercises: [
-    { name: 'Calf stretch against a wall', holdSeconds: 30, repetitions: 3, sets: 1, times: 1, per: 'day', caution: 'stop if it hurts' },
-    { name: 'Lie on your front', holdSeconds: 600, repetitions: null, sets: null, times: 3, per: 'week', caution: '' },
+    { name: 'Calf stretch against a wall', dose: { ...EMPTY_DOSE, holdSeconds: 30, repetitions: 3, sets: 1, timesPerDay: 1, note: 'stop if it hurts' }, dosageText: '' },
+    { name: 'Lie on your front', dose: { ...EMPTY_DOSE, durationMinutes: 10, daysPerWeek: 3 }, dosageText: '' },
+    // Kept as the therapist wrote it: handed over and shown as written, never counted as planned.
+    { name: 'Resting splint', dose: null, dosageText: 'nightly as tolerated' },
   ],
 };
 
@@ -93,7 +95,7 @@ describe('programme package', () => {
       sealing,
     );
     await expect(openProgrammePackage(mixed, CODE)).rejects.toMatchObject({ code: 'ForeignPatient' });
-    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 2 }), CODE, sealing);
+    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 3 }), CODE, sealing);
     await expect(openProgrammePackage(future, CODE)).rejects.toMatchObject({ code: 'Unsupported' });
     t.store.close();
   });
@@ -105,7 +107,7 @@ describe('round trip therapist → phone → therapist', () => {
     const phone = await patientPhone();
     const pkgText = await createProgrammePackage({ patient: t.patient, programme: t.programme, issuedAt: '2025-03-01T10:00:00.000Z' }, CODE, sealing);
     const pkg = await openProgrammePackage(pkgText, CODE, null);
-    const accepted = await acceptProgrammePackage(phone, pkg, { now: () => Date.UTC(2025, 2, 3, 8), platform: 'test' });
+    const accepted = await acceptProgrammePackage(phone, pkg, { now: () => Date.UTC(2025, 2, 3, 8), platform: 'test', today: '2025-03-03' });
     expect(accepted.merge.counts.homeProgrammes.inserted).toBe(1);
     const profile = await readDeviceProfile(phone);
     expect(profile).toMatchObject({ mode: 'patient', patientId: t.patient.id, patientCode: 'K7QM-3XHD', currentProgrammeId: t.programme.id });
@@ -170,7 +172,7 @@ describe('round trip therapist → phone → therapist', () => {
     const foreignText = await createProgrammePackage({ patient: t.other, programme: otherProgramme!, issuedAt: '2025-03-01T10:00:00.000Z' }, CODE, sealing);
     await expect(openProgrammePackage(foreignText, CODE, t.patient.id)).rejects.toMatchObject({ code: 'ForeignPatient' });
     const foreignPkg = await openProgrammePackage(foreignText, CODE, null);
-    await expect(acceptProgrammePackage(phone, foreignPkg, { now: () => 0, platform: null })).rejects.toMatchObject({ code: 'ForeignPatient' });
+    await expect(acceptProgrammePackage(phone, foreignPkg, { now: () => 0, platform: null, today: '2025-03-03' })).rejects.toMatchObject({ code: 'ForeignPatient' });
     expect((await phone.homeProgrammes.list()).map((p) => p.patientId)).toEqual([t.patient.id]);
     t.store.close();
     phone.close();

@@ -104,6 +104,42 @@ describe('schema migrations', () => {
     store.close();
   });
 
+  it('v2 → v6: home-programme items gain a dose; Kinnote-written lines are read, free text is kept and never guessed', async () => {
+    const factory = new IDBFactory();
+    const old = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    declareSchema(old, 2);
+    await old.open();
+    const freeText = [
+      { name: 'Calf stretch against a wall', dosage: '3 × 30 s each side' },
+      { name: 'Sit-to-stand practice', dosage: '2 sets of 8' },
+      { name: 'Resting splint overnight', dosage: 'nightly as tolerated' },
+      // Looks like a Kinnote line but breaks the dose rules (7 a day): stays free text.
+      { name: 'Too often', dosage: '7 times a day' },
+    ];
+    const written = [
+      { name: 'A', dosage: 'hold 30 s · 3 repetitions · 2 sets · 2 times a day · caution: stop if the knee hurts' },
+      { name: 'B', dosage: '10 repetitions · 3 times a week' },
+    ];
+    const programme = { id: ids(70), ...stamps, patientId: ids(1), title: 'Home', items: [...freeText, ...written], sessionsPerWeek: 5, startsOn: '2025-01-01', endsOn: null };
+    await old.table('homeProgrammes').add(programme);
+    old.close();
+
+    const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    const after = await store.homeProgrammes.get(ids(70));
+    // Every old text is kept exactly.
+    expect(after!.items.map((i) => i.dosage)).toEqual([...freeText, ...written].map((i) => i.dosage));
+    expect(after!.items.map((i) => i.name)).toEqual([...freeText, ...written].map((i) => i.name));
+    // Free text gets no dose (hand-worked: none of these is a line Kinnote wrote).
+    expect(after!.items.slice(0, 4).map((i) => i.dose)).toEqual([null, null, null, null]);
+    // Kinnote-written lines read back field by field (hand-worked from the text above).
+    expect(after!.items[4]!.dose).toEqual({ holdSeconds: 30, repetitions: 3, sets: 2, durationMinutes: null, overnight: false, timesPerDay: 2, daysPerWeek: 7, note: 'caution: stop if the knee hurts' });
+    expect(after!.items[5]!.dose).toEqual({ holdSeconds: null, repetitions: 10, sets: null, durationMinutes: null, overnight: false, timesPerDay: 1, daysPerWeek: 3, note: '' });
+    expect(after!.sessionsPerWeek).toBe(5);
+    const { validateRecord } = await import('../../../src/lib/domain');
+    expect(validateRecord('homeProgrammes', after).ok).toBe(true);
+    store.close();
+  });
+
   it('refuses a database newer than the app as VersionConflict', async () => {
     const factory = new IDBFactory();
     const future = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });

@@ -42,3 +42,12 @@ export async function loadPatientHome(store: KinnoteStore): Promise<PatientHome>
 export function plansOn(plans: readonly FollowedPlan[], day: string): FollowedPlan[] {
   return plans.filter((p) => planRunsOn(p.plan, day));
 }
+
+/**
+ * Leaves patient mode: deletes this device's whole database (programme, ticks, ratings, reminder
+ * times, device profile) and reloads on the first screen. A patient's phone holds nothing else.
+ */
+export async function removeEverythingFromThisPhone(store: KinnoteStore): Promise<void> {
+  await store.db.delete();
+  location.replace('/');
+}

@@ -50,9 +50,10 @@ export async function showReminder(body = 'Time for your home exercises.'): Prom
 let timers: ReturnType<typeof setTimeout>[] = [];
 
 /**
- * Sets timers for today's remaining reminder times and again each day after. Browsers only run
- * them while Kinnote is open or in the background; there is no way for a web page to wake a
- * closed app without a server, which this app does not use (the page says so).
+ * Sets timers for today's remaining reminder times and again each day after. They fire only while
+ * this page is alive: browsers stop or throttle timers of pages in the background, and nothing
+ * runs once the app is closed (a web page cannot wake itself, and Kinnote has no push server). The
+ * reminders screen says exactly this; the Today screen shows a due reminder when it is open.
  */
 export function scheduleReminders(settings: ReminderSettings, nowMs: () => number = () => Date.now()): void {
   for (const t of timers) clearTimeout(t);
