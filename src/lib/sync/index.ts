@@ -1,0 +1,3 @@
+// Public face of src/lib/sync: the team-server protocol shared by the app, the CLI and the server.
+export { CODE_AUTH_LENGTH, CODE_KEY_LENGTH, formatEnrolmentCode, newEnrolmentCode, parseEnrolmentCode, type EnrolmentCode } from './enrolment-code';
+export { SealedSchema, WIRE_SEALED_FIELDS, checkWireRecord, wireAad, type WireRecord } from './wire-record';
