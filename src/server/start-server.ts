@@ -42,6 +42,11 @@ export async function startTeamServer(
   return {
     url: `http://${options.host}:${port}`,
     service,
-    close: () => new Promise<void>((resolve) => server!.close(() => resolve())),
+    close: () =>
+      new Promise<void>((resolve) => {
+        server!.close(() => resolve());
+        // Idle keep-alive connections would hold close() open for their timeout.
+        (server as { closeIdleConnections?: () => void }).closeIdleConnections?.();
+      }),
   };
 }

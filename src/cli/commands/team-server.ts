@@ -2,7 +2,7 @@ import { resolve } from 'node:path';
 import { openTeamDatabase, startTeamServer } from '../../server';
 import { parseOptions, RefusedInput, type CliCommand } from '../command';
 
-const USAGE = `kinnote team-server [--port 8787] [--host 127.0.0.1] [--data DIR]
+const USAGE = `kinnote team-server [--port 8787] [--host 127.0.0.1] [--data DIR] [--enrol-limit 10]
 kinnote team-server init --name "TEAM NAME" [--data DIR]
 
 Starts the optional team server: an HTTP JSON API that keeps a team's devices in step. Storage is
@@ -16,7 +16,7 @@ export const teamServerCommand: CliCommand = {
   summary: 'run the team server (PGlite in a folder, or PostgreSQL via DATABASE_URL); init creates a team',
   usage: USAGE,
   async run(args, io) {
-    const { positional, values } = parseOptions(args, ['port', 'host', 'data', 'name']);
+    const { positional, values } = parseOptions(args, ['port', 'host', 'data', 'name', 'enrol-limit']);
     const location = { databaseUrl: io.env.DATABASE_URL || undefined, dataDir: resolve(io.cwd, values.get('data') ?? 'kinnote-team-data') };
     if (positional[0] === 'init') {
       const name = values.get('name');
@@ -34,8 +34,10 @@ export const teamServerCommand: CliCommand = {
     if (positional.length > 0) throw new RefusedInput(`unknown argument "${positional[0]}"; see kinnote team-server --help`);
     const portText = values.get('port') ?? '8787';
     if (!/^\d{1,5}$/.test(portText) || Number(portText) > 65535) throw new RefusedInput(`--port must be 0 to 65535, not "${portText}"`);
+    const limitText = values.get('enrol-limit') ?? '10';
+    if (!/^\d{1,6}$/.test(limitText) || Number(limitText) < 1) throw new RefusedInput(`--enrol-limit must be a whole number ≥ 1, not "${limitText}"`);
     const db = await openTeamDatabase(location);
-    const server = await startTeamServer(db, { port: Number(portText), host: values.get('host') ?? '127.0.0.1' });
+    const server = await startTeamServer(db, { port: Number(portText), host: values.get('host') ?? '127.0.0.1', enrolLimit: Number(limitText) });
     io.stderr(`team server on ${server.url} (${db.kind === 'pglite' ? `PGlite in ${location.dataDir}` : 'PostgreSQL from DATABASE_URL'})`);
     io.stdout(JSON.stringify({ url: server.url, store: db.kind }));
     await new Promise<void>((done) => {
