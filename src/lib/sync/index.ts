@@ -4,3 +4,4 @@ export { SealedSchema, WIRE_SEALED_FIELDS, checkWireRecord, wireAad, type WireRe
 export { TEAM_KEY_BYTES, WRAP_ITERATIONS, importTeamKey, newTeamKey, openWithTeamKey, sealWithTeamKey, unwrapTeamKey, wrapTeamKey, type TeamKey } from './team-key';
 export { fromWire, toWire } from './wire-codec';
 export { TeamSyncError, issueEnrolmentCode, joinTeam, leaveTeam, readTeamLink, syncNow, type SyncDeps, type SyncReport, type TeamLink, type TeamRole } from './team-sync';
+export { pullTeamSnapshot } from './team-snapshot';

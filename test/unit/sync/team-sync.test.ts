@@ -101,3 +101,51 @@ describe('devices in step through the team server (PGlite, in process)', () => {
     expect(listed.some((c) => c.recordId === assessment.id)).toBe(true);
   });
 });
+
+describe('kinnote cohort --server', () => {
+  it('reads the whole team from the server with a device token, and writes no name or note', { timeout: 400_000 }, async () => {
+    const { mkdtempSync, readdirSync, readFileSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const { join } = await import('node:path');
+    const { runCli } = await import('../../../src/cli/main');
+    const { loadDemoCaseload } = await import('../../../src/lib/store');
+    const { startTeamServer } = await import('../../../src/server');
+    const db = await openPglite(undefined);
+    await migrate(db);
+    const server = await startTeamServer(db, { port: 0, host: '127.0.0.1' });
+    try {
+      const realDeps = { fetch: globalThis.fetch, randomBytes: rb };
+      const team = await server.service.createTeam('Cohort team');
+      const a = await freshStore();
+      await joinTeam(a, { serverUrl: server.url, code: team.code, label: 'tablet A' }, realDeps);
+      await loadDemoCaseload(a, { seed: 3, patientCount: 3 });
+      await syncNow(a, realDeps);
+      const auditorCode = await issueEnrolmentCode(a, 'auditor', 600_000, realDeps);
+      const enrolled = await service_enrol(server.url, auditorCode.code);
+      const out = mkdtempSync(join(tmpdir(), 'kinnote-cohort-server-'));
+      let stderr = '';
+      const run = (env: Record<string, string>) => runCli(['cohort', '--server', server.url, '--out', out], { stdout: () => undefined, stderr: (t) => (stderr += t), env, cwd: out });
+      expect(await run({})).toBe(1);
+      expect(stderr).toMatch(/KINNOTE_TOKEN/);
+      expect(await run({ KINNOTE_TOKEN: enrolled })).toBe(0);
+      const written = readdirSync(out).map((f) => readFileSync(join(out, f), 'utf8')).join('\n');
+      const identities = (await a.identities.list()).length;
+      expect(identities).toBeGreaterThan(0);
+      const long = readFileSync(join(out, 'kinnote-cohort-long.csv'), 'utf8').trim().split('\n');
+      expect(long.length - 1).toBe((await a.observations.list()).length);
+      for (const row of await a.identities.list()) {
+        const person = await a.context.codecs.identities.fromRow(row);
+        expect(written).not.toContain(person.familyName);
+      }
+    } finally {
+      await server.close();
+      await db.close();
+    }
+  });
+});
+
+async function service_enrol(url: string, code: string): Promise<string> {
+  const auth = parseEnrolmentCode(code).auth;
+  const res = await fetch(`${url}/v1/enrol`, { method: 'POST', body: JSON.stringify({ auth, label: 'cohort laptop' }) });
+  return ((await res.json()) as { token: string }).token;
+}
