@@ -5,7 +5,7 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
   let h: Harness;
   beforeAll(async () => {
     h = harness(await openBackend(kind), { enrolLimit: 5 });
-  });
+  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
   afterAll(async () => {
     await h.db.close();
   });

@@ -56,7 +56,7 @@ describe('devices in step through the team server (PGlite, in process)', () => {
         return app.request(String(url).replace('http://team.test', ''), init);
       }) as typeof fetch,
     };
-  });
+  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
   afterAll(async () => {
     await db.close();
   });
