@@ -18,6 +18,7 @@ import {
   type LocalMdc,
 } from '../../lib/export';
 import { readBackup, StoreError } from '../../lib/store';
+import { pullTeamSnapshot } from '../../lib/sync';
 import { optionDate, optionWholeNumber, parseOptions, RefusedInput, type CliCommand, type CliIo } from '../command';
 import { refuseFolder, StreamedOutputFile } from '../output-file';
 
@@ -39,6 +40,7 @@ const VALUE_FLAGS = [
   'max-shift-days',
   'local-mdc',
   'files',
+  'server',
 ] as const;
 
 const list = (text: string | undefined): string[] => (text ?? '').split(',').map((s) => s.trim()).filter((s) => s !== '');
@@ -119,6 +121,7 @@ export const cohortCommand: CliCommand = {
   summary: 'de-identified cohort audit from a backup: long, wide and summary CSV and a FHIR R4 bundle',
   usage: [
     'kinnote cohort BACKUP.json --out DIR [filters] [--dates days|shifted] [--identified]',
+    'kinnote cohort --server URL --out DIR [filters]   (the team server; device token in KINNOTE_TOKEN)',
     '',
     'Selects a cohort from a backup bundle and writes kinnote-cohort-long.csv (one row per observation),',
     'kinnote-cohort-wide.csv (baseline, follow-up, change, verdict per patient, measure, site and side),',
@@ -143,8 +146,11 @@ export const cohortCommand: CliCommand = {
   ].join('\n'),
   async run(args, io) {
     const { positional, values, switches } = parseOptions(args, VALUE_FLAGS, ['identified']);
-    if (positional.length !== 1) throw new RefusedInput('expected exactly one BACKUP.json argument');
-    const file = positional[0] as string;
+    const server = values.get('server');
+    if (server !== undefined ? positional.length !== 0 : positional.length !== 1) {
+      throw new RefusedInput(server !== undefined ? 'give --server URL or a BACKUP.json, not both' : 'expected exactly one BACKUP.json argument');
+    }
+    const file = server ?? (positional[0] as string);
     const outDir = values.get('out');
     if (!outDir) throw new RefusedInput('--out DIR is required');
     const filters = filtersFrom(values);
@@ -157,21 +163,30 @@ export const cohortCommand: CliCommand = {
     }
     const localMdc = localMdcs(values.get('local-mdc'));
 
-    let text: string;
-    try {
-      text = await readFile(resolve(io.cwd, file), 'utf8');
-    } catch (error) {
-      throw new RefusedInput(`${file}: cannot read the file (${(error as NodeJS.ErrnoException).code ?? String(error)})`);
-    }
-    const passphrase = await passphraseFor(text, io);
     let tables;
+    let passphrase: string | undefined;
     try {
-      tables = (await readBackup(text, passphrase === undefined ? {} : { passphrase })).tables;
+      if (server !== undefined) {
+        // The team's records with a device token: no identities, no notes (as an auditor sees them).
+        const token = io.env.KINNOTE_TOKEN;
+        if (!token) throw new RefusedInput('--server needs a device token in KINNOTE_TOKEN');
+        tables = (await pullTeamSnapshot(server, token, { fetch: globalThis.fetch, now: Date.now })).tables;
+      } else {
+        let text: string;
+        try {
+          text = await readFile(resolve(io.cwd, file), 'utf8');
+        } catch (error) {
+          throw new RefusedInput(`${file}: cannot read the file (${(error as NodeJS.ErrnoException).code ?? String(error)})`);
+        }
+        passphrase = await passphraseFor(text, io);
+        tables = (await readBackup(text, passphrase === undefined ? {} : { passphrase })).tables;
+      }
     } catch (error) {
       if (error instanceof StoreError) {
         const hint = error.code === 'WrongPassphrase' && passphrase === undefined ? ' (set KINNOTE_PASSPHRASE)' : '';
         throw new RefusedInput(`${file}: ${error.message}${hint}`);
       }
+      if ((error as Error).name === 'TeamSyncError') throw new RefusedInput(`${file}: ${(error as Error).message}`);
       throw error;
     }
 

@@ -1,0 +1,28 @@
+// Team server under load on 127.0.0.1: 50 simulated devices pushing and pulling 2,000 observations
+// each at once, then the same with 10 SIGKILLs of the server during the pushes. PGlite always;
+// PostgreSQL when TEAM_SERVER_TEST_DATABASE_URL is set (e.g. after `source .ci/throwaway-postgres.sh;
+// start_throwaway_postgres`). Sizes: KINNOTE_BENCH_DEVICES / KINNOTE_BENCH_RECORDS to shrink them.
+import { runLoad, type LoadResult } from '../server-load/load-run';
+
+const devices = Number(process.env.KINNOTE_BENCH_DEVICES ?? 50);
+const records = Number(process.env.KINNOTE_BENCH_RECORDS ?? 2000);
+
+function line(label: string, r: LoadResult): string {
+  const same = new Set(r.checksums).size === 1;
+  return [
+    `${label} on ${r.store}: ${r.pushed} pushed, ${r.distinctOnServer} on the server`,
+    `${Math.round(r.pushRecordsPerSecond)} records/s`,
+    `p95 push ${r.pushP95Ms.toFixed(0)} ms, p95 pull ${r.pullP95Ms.toFixed(0)} ms`,
+    `${r.kills} kills, ${r.partialBatches} partial batches, ${r.retries} retried requests`,
+    `checksums ${same ? 'all equal' : 'DIFFER'} (${r.checksums.length} copies)`,
+  ].join('; ');
+}
+
+export async function run(print: (line: string) => void): Promise<void> {
+  const stores: (string | undefined)[] = [undefined];
+  if (process.env.TEAM_SERVER_TEST_DATABASE_URL) stores.push(process.env.TEAM_SERVER_TEST_DATABASE_URL);
+  for (const databaseUrl of stores) {
+    print(line(`${devices} devices × ${records}`, await runLoad({ devices, recordsPerDevice: records, batchSize: 200, kills: 0, databaseUrl })));
+    print(line(`${devices} devices × ${records} with SIGKILLs`, await runLoad({ devices, recordsPerDevice: records, batchSize: 200, kills: 10, databaseUrl })));
+  }
+}

@@ -1,0 +1,226 @@
+// Load and fault runs against a real team-server process on 127.0.0.1 (used by `npm run bench`
+// with the full sizes and by test/unit/server/load.test.ts with small ones). Simulated devices are
+// plain HTTP clients with their own record maps: they share none of the app's sync code.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { canonicalJson } from '../../src/lib/store';
+import { DEMO, randomAuth, simulatedObservations } from '../unit/server/team-fixture';
+
+const ROOT = resolve(import.meta.dirname, '../..');
+
+export interface LoadOptions {
+  readonly devices: number;
+  readonly recordsPerDevice: number;
+  readonly batchSize: number;
+  /** SIGKILL the server this many times during the pushes (0: none). */
+  readonly kills: number;
+  /** PostgreSQL connection string, or undefined for PGlite in a temporary folder. */
+  readonly databaseUrl?: string | undefined;
+}
+
+export interface LoadResult {
+  readonly store: 'pglite' | 'postgres';
+  readonly pushed: number;
+  readonly distinctOnServer: number;
+  readonly checksums: readonly string[];
+  readonly pushRecordsPerSecond: number;
+  readonly pushP95Ms: number;
+  readonly pullP95Ms: number;
+  readonly kills: number;
+  /** Batches found partly written after a kill (must be 0). */
+  readonly partialBatches: number;
+  readonly retries: number;
+}
+
+class ServerProcess {
+  url = '';
+  private child: ChildProcess | undefined;
+  constructor(private readonly args: string[], private readonly env: NodeJS.ProcessEnv) {}
+  async start(): Promise<void> {
+    const child = spawn(process.execPath, [join(ROOT, 'node_modules/tsx/dist/cli.mjs'), join(ROOT, 'src/cli/main.ts'), 'team-server', ...this.args], {
+      env: this.env,
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    this.child = child;
+    let err = '';
+    child.stderr!.on('data', (d) => (err += String(d)));
+    this.url = await new Promise<string>((ok, fail) => {
+      let out = '';
+      child.stdout!.on('data', (d) => {
+        out += String(d);
+        const m = /"url":"([^"]+)"/.exec(out);
+        if (m) ok(m[1]!);
+      });
+      child.once('exit', (code) => fail(new Error(`team-server exited (${code}) before listening: ${err}`)));
+    });
+  }
+  kill(): Promise<void> {
+    const child = this.child!;
+    return new Promise((ok) => {
+      child.once('exit', () => ok());
+      child.kill('SIGKILL');
+    });
+  }
+  async stop(): Promise<void> {
+    if (this.child && this.child.exitCode === null) {
+      await new Promise<void>((ok) => {
+        this.child!.once('exit', () => ok());
+        this.child!.kill('SIGTERM');
+      });
+    }
+  }
+}
+
+async function runCli(args: string[], env: NodeJS.ProcessEnv): Promise<string> {
+  const child = spawn(process.execPath, [join(ROOT, 'node_modules/tsx/dist/cli.mjs'), join(ROOT, 'src/cli/main.ts'), ...args], { env, stdio: ['ignore', 'pipe', 'pipe'] });
+  let out = '';
+  let err = '';
+  child.stdout.on('data', (d) => (out += String(d)));
+  child.stderr.on('data', (d) => (err += String(d)));
+  const code = await new Promise<number | null>((ok) => child.once('exit', ok));
+  if (code !== 0) throw new Error(`kinnote ${args.join(' ')} failed: ${err}`);
+  return out;
+}
+
+const p95 = (list: number[]) => {
+  const sorted = [...list].sort((a, b) => a - b);
+  return sorted.length === 0 ? NaN : sorted[Math.min(sorted.length - 1, Math.ceil(0.95 * sorted.length) - 1)]!;
+};
+
+export async function runLoad(options: LoadOptions): Promise<LoadResult> {
+  const dataDir = mkdtempSync(join(tmpdir(), 'kinnote-team-load-'));
+  const env = { ...process.env, DATABASE_URL: options.databaseUrl ?? '' };
+  const common = ['--data', dataDir];
+  const init = JSON.parse(await runCli(['team-server', 'init', '--name', `Load team ${Date.now()}`, ...common], env)) as { code: string };
+  const server = new ServerProcess(['--port', '0', '--enrol-limit', '100000', ...common], env);
+  await server.start();
+  let alive = true;
+  let restarting: Promise<void> = Promise.resolve();
+  // Every request retries on a connection error (the server was killed) once the restart is done.
+  let retries = 0;
+  const request = async (method: string, path: string, token: string | null, body?: unknown): Promise<Record<string, unknown>> => {
+    for (;;) {
+      await restarting;
+      try {
+        const res = await fetch(server.url + path, {
+          method,
+          headers: { 'content-type': 'application/json', ...(token ? { authorization: `Bearer ${token}` } : {}) },
+          ...(body === undefined ? {} : { body: JSON.stringify(body) }),
+        });
+        const json = (await res.json()) as Record<string, unknown>;
+        if (res.status !== 200) throw new Error(`${method} ${path}: ${res.status} ${JSON.stringify(json).slice(0, 300)}`);
+        return json;
+      } catch (error) {
+        if ((error as Error).message.startsWith(`${method} ${path}:`)) throw error;
+        retries++;
+        await new Promise((ok) => setTimeout(ok, 20));
+      }
+    }
+  };
+  try {
+    const admin = (await request('POST', '/v1/enrol', null, { auth: init.code.replace(/-/g, '').slice(0, 10), label: 'admin' })).token as string;
+    const devices: { token: string; batches: Record<string, unknown>[][]; local: Map<string, string> }[] = [];
+    for (let i = 0; i < options.devices; i++) {
+      const auth = randomAuth();
+      await request('POST', '/v1/codes', admin, { auth, role: 'clinician', ttlMs: 3_600_000, keyEnvelope: '{"v":1}' });
+      const token = (await request('POST', '/v1/enrol', null, { auth, label: `device ${i}` })).token as string;
+      const obs = simulatedObservations(options.recordsPerDevice, 1000 + i, DEMO.devices[0]!.id);
+      const batches: Record<string, unknown>[][] = [];
+      for (let k = 0; k < obs.length; k += options.batchSize) batches.push(obs.slice(k, k + options.batchSize) as unknown as Record<string, unknown>[]);
+      devices.push({ token, batches, local: new Map(obs.map((o) => [o.id, canonicalJson(o)])) });
+    }
+    const pushMs: number[] = [];
+    const pullMs: number[] = [];
+    const inFlight = new Set<Record<string, unknown>[]>();
+    let partialBatches = 0;
+    let kills = 0;
+    const totalBatches = devices.reduce((n, d) => n + d.batches.length, 0);
+    let sentBatches = 0;
+
+    const pullAll = async (d: { token: string; local: Map<string, string> }, cursor: number): Promise<number> => {
+      for (;;) {
+        const t0 = performance.now();
+        const page = await request('GET', `/v1/pull?cursor=${cursor}&limit=1000`, d.token);
+        pullMs.push(performance.now() - t0);
+        for (const r of page.records as { record: { id: string } }[]) d.local.set(r.record.id, canonicalJson(r.record));
+        cursor = page.cursor as number;
+        if (!page.more) return cursor;
+      }
+    };
+
+    const killer = (async () => {
+      for (let k = 0; k < options.kills; k++) {
+        const target = Math.floor(((k + 1) * totalBatches) / (options.kills + 2));
+        while (sentBatches < target) await new Promise((ok) => setTimeout(ok, 5));
+        const snapshot = [...inFlight];
+        let release!: () => void;
+        restarting = new Promise((ok) => (release = ok));
+        alive = false;
+        await server.kill();
+        kills++;
+        await server.start();
+        alive = true;
+        release();
+        // No partial batch: every batch that was in flight at the kill is on the server whole or not at all.
+        const present = new Set<string>();
+        await pullAll({ token: admin, local: new Map() }, 0).catch(() => 0);
+        const all = await request('GET', `/v1/pull?cursor=0&limit=2000`, admin);
+        let cursor = all.cursor as number;
+        for (const r of all.records as { record: { id: string } }[]) present.add(r.record.id);
+        let more = all.more as boolean;
+        while (more) {
+          const page = await request('GET', `/v1/pull?cursor=${cursor}&limit=2000`, admin);
+          for (const r of page.records as { record: { id: string } }[]) present.add(r.record.id);
+          cursor = page.cursor as number;
+          more = page.more as boolean;
+        }
+        for (const batch of snapshot) {
+          const n = batch.filter((r) => present.has(r.id as string)).length;
+          if (n !== 0 && n !== batch.length) partialBatches++;
+        }
+      }
+    })();
+
+    const started = performance.now();
+    await Promise.all(
+      devices.map(async (d) => {
+        let cursor = 0;
+        for (const batch of d.batches) {
+          inFlight.add(batch);
+          sentBatches++;
+          const t0 = performance.now();
+          await request('POST', '/v1/push', d.token, { records: batch.map((record) => ({ table: 'observations', record })) });
+          if (alive) pushMs.push(performance.now() - t0);
+          inFlight.delete(batch);
+          cursor = await pullAll(d, cursor);
+        }
+      }),
+    );
+    const pushSeconds = (performance.now() - started) / 1000;
+    await killer;
+    // Everyone pulls what arrived after their last pull.
+    await Promise.all(devices.map((d) => pullAll(d, 0)));
+    const checksums = devices.map((d) => createHash('sha256').update([...d.local.values()].sort().join('\n')).digest('hex'));
+    const serverView = { token: admin, local: new Map<string, string>() };
+    await pullAll(serverView, 0);
+    const pushed = devices.reduce((n, d) => n + d.batches.reduce((m, b) => m + b.length, 0), 0);
+    return {
+      store: options.databaseUrl ? 'postgres' : 'pglite',
+      pushed,
+      distinctOnServer: serverView.local.size,
+      checksums: [...checksums, createHash('sha256').update([...serverView.local.values()].sort().join('\n')).digest('hex')],
+      pushRecordsPerSecond: pushed / pushSeconds,
+      pushP95Ms: p95(pushMs),
+      pullP95Ms: p95(pullMs),
+      kills,
+      partialBatches,
+      retries,
+    };
+  } finally {
+    await server.stop();
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+}

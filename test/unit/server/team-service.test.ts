@@ -1,0 +1,162 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { BACKENDS, DEMO, enrolDevice, harness, openBackend, randomAuth, simulatedObservations, teamWithAdmin, type Harness } from './team-fixture';
+
+describe.each(BACKENDS)('team server API on %s', (kind) => {
+  let h: Harness;
+  beforeAll(async () => {
+    h = harness(await openBackend(kind), { enrolLimit: 5 });
+  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
+  afterAll(async () => {
+    await h.db.close();
+  });
+
+  it('an init code works once; a wrong or spent code is refused; enrolment is rate limited per address', async () => {
+    const team = await h.service.createTeam('Rate team');
+    const auth = team.code.replace(/-/g, '').slice(0, 10);
+    const first = await h.call('POST', '/v1/enrol', null, { auth, label: 'first admin' }, '10.9.0.1');
+    expect(first.status).toBe(200);
+    expect(first.json.role).toBe('admin');
+    expect((await h.call('POST', '/v1/enrol', null, { auth, label: 'again' }, '10.9.0.1')).status).toBe(401);
+    for (let i = 0; i < 3; i++) expect((await h.call('POST', '/v1/enrol', null, { auth: randomAuth(), label: 'guess' }, '10.9.0.1')).status).toBe(401);
+    // The sixth attempt from this address within the window is refused before the code is looked at.
+    expect((await h.call('POST', '/v1/enrol', null, { auth: randomAuth(), label: 'guess' }, '10.9.0.1')).status).toBe(429);
+    expect((await h.call('POST', '/v1/enrol', null, { auth: randomAuth(), label: 'guess' }, '10.9.0.2')).status).toBe(401);
+  });
+
+  it('the server keeps only a hash of a device token; a revoked device is refused; admins only issue and revoke', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Token team');
+    const clinician = await enrolDevice(h, adminToken, 'clinician');
+    const rows = await h.db.query<{ token_hash: string }>('SELECT token_hash FROM devices');
+    expect(rows.some((r) => r.token_hash.includes(clinician.token))).toBe(false);
+    expect((await h.call('GET', '/v1/me', clinician.token)).json.role).toBe('clinician');
+    expect((await h.call('POST', '/v1/codes', clinician.token, { auth: randomAuth(), role: 'admin', ttlMs: 60_000, keyEnvelope: '{}' })).status).toBe(403);
+    expect((await h.call('POST', '/v1/codes', adminToken, { auth: randomAuth(), role: 'auditor', ttlMs: 60_000, keyEnvelope: '{"v":1}' })).status).toBe(400);
+    expect((await h.call('POST', `/v1/devices/${clinician.deviceId}/revoke`, adminToken)).status).toBe(200);
+    const refused = await h.call('GET', '/v1/pull?cursor=0', clinician.token);
+    expect(refused.status).toBe(401);
+    expect(refused.json.error).toMatch(/revoked/);
+    expect((await h.call('GET', '/v1/pull?cursor=0', null)).status).toBe(401);
+  });
+
+  it('an expired code is refused', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Expiry team');
+    const auth = randomAuth();
+    expect((await h.call('POST', '/v1/codes', adminToken, { auth, role: 'clinician', ttlMs: 60_000, keyEnvelope: '{"v":1}' })).status).toBe(200);
+    await h.db.query("UPDATE enrolment_codes SET expires_at = now() - interval '1 second' WHERE used_at IS NULL");
+    expect((await h.call('POST', '/v1/enrol', null, { auth, label: 'late' }, '10.8.0.1')).status).toBe(401);
+  });
+
+  it('a push is validated whole with the domain schemas: clear names and bad values are refused, nothing written', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Validation team');
+    const good = simulatedObservations(3, 1, DEMO.devices[0]!.id).map((record) => ({ table: 'observations', record }));
+    const identity = DEMO.identities[0]!;
+    const clearName = await h.call('POST', '/v1/push', adminToken, { records: [...good, { table: 'identities', record: { ...identity, sealed: { iv: 'AAAAAAAAAAAAAAAA', ct: 'AAAA' } } }] });
+    expect(clearName.status).toBe(400);
+    expect(clearName.json.error).toMatch(/records\[3\] \(identities .*familyName: must not travel in clear/);
+    const badAngle = { ...good[0]!.record, value: { kind: 'angle', angleDeg: 'wide' } };
+    const bad = await h.call('POST', '/v1/push', adminToken, { records: [good[1], { table: 'observations', record: badAngle }] });
+    expect(bad.status).toBe(400);
+    expect(bad.json.error).toMatch(/records\[1\].*value/);
+    const pulled = await h.call('GET', '/v1/pull?cursor=0', adminToken);
+    expect(pulled.json.records).toEqual([]);
+  });
+
+  it('pushes are idempotent and merge like backups: newer wins, ties by content, tombstones travel, each conflict recorded once', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Merge team');
+    const b = await enrolDevice(h, adminToken, 'clinician');
+    const [one, two] = simulatedObservations(2, 2, DEMO.devices[0]!.id);
+    const batch = { records: [{ table: 'observations', record: one }, { table: 'observations', record: two }] };
+    const first = await h.call('POST', '/v1/push', adminToken, batch);
+    expect(first.json).toMatchObject({ inserted: 2, unchanged: 0 });
+    const again = await h.call('POST', '/v1/push', b.token, batch);
+    expect(again.json).toMatchObject({ inserted: 0, replaced: 0, unchanged: 2, seq: first.json.seq });
+
+    const later = (iso: string, ms: number) => new Date(Date.parse(iso) + ms).toISOString();
+    const newer = { ...one!, updatedAt: later(one!.updatedAt, 60_000), value: { kind: 'angle', angleDeg: -11 } };
+    const older = { ...one!, updatedAt: later(one!.updatedAt, 30_000), value: { kind: 'angle', angleDeg: -99 } };
+    const tomb = { ...two!, updatedAt: later(two!.updatedAt, 1000), deleted: true };
+    expect((await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: newer }, { table: 'observations', record: tomb }] })).json).toMatchObject({ replaced: 2 });
+    const stale = await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: older }] });
+    expect(stale.json).toMatchObject({ keptStored: 1, conflicts: [{ recordId: one!.id, winner: 'stored', reason: 'newer' }] });
+    await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: older }] });
+
+    const pulled = (await h.call('GET', '/v1/pull?cursor=0', adminToken)).json.records as { record: { id: string; deleted: boolean; value: unknown } }[];
+    expect(pulled.find((r) => r.record.id === one!.id)!.record.value).toEqual({ kind: 'angle', angleDeg: -11 });
+    expect(pulled.find((r) => r.record.id === two!.id)!.record.deleted).toBe(true);
+    const conflicts = (await h.call('GET', '/v1/conflicts', b.token)).json.conflicts as { recordId: string; winner: string }[];
+    // two replacements (newer incoming) and one stale copy kept out, the repeated stale push not again
+    expect(conflicts.map((c) => `${c.recordId === one!.id ? 'one' : 'two'}:${c.winner}`).sort()).toEqual(['one:incoming', 'one:stored', 'two:incoming']);
+
+    // Tie: same updatedAt, different content: the larger canonical text wins whichever arrives first.
+    const tieA = { ...one!, updatedAt: later(one!.updatedAt, 90_000), value: { kind: 'angle', angleDeg: -20 } };
+    const tieB = { ...tieA, value: { kind: 'angle', angleDeg: -30 } };
+    await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: tieB }] });
+    await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: tieA }] });
+    const final = (await h.call('GET', '/v1/pull?cursor=0', adminToken)).json.records as { record: { id: string; value: unknown } }[];
+    expect(final.find((r) => r.record.id === one!.id)!.record.value).toEqual({ kind: 'angle', angleDeg: -30 });
+  });
+
+  it('teams are apart, and an auditor device gets no identities and no notes and may not push', async () => {
+    const a = await teamWithAdmin(h, 'Team one');
+    const other = await teamWithAdmin(h, 'Team two');
+    const auditor = await enrolDevice(h, a.adminToken, 'auditor');
+    const assessment = DEMO.assessments.find((x) => x.notes !== null)!;
+    const identity = DEMO.identities[0]!;
+    const { notes: _n, ...assessmentRest } = assessment;
+    const { familyName: _f, givenName: _g, dateOfBirth: _d, contact: _c, ...identityRest } = identity;
+    const sealed = { iv: 'AAAAAAAAAAAAAAAA', ct: 'c2VhbGVkIHRleHQ=' };
+    const pushed = await h.call('POST', '/v1/push', a.adminToken, {
+      records: [
+        { table: 'identities', record: { ...identityRest, sealed } },
+        { table: 'assessments', record: { ...assessmentRest, notesSealed: sealed } },
+      ],
+    });
+    expect(pushed.status).toBe(200);
+    const full = (await h.call('GET', '/v1/pull?cursor=0', a.adminToken)).json.records as { table: string; record: Record<string, unknown> }[];
+    expect(full.map((r) => r.table).sort()).toEqual(['assessments', 'identities']);
+    const seen = (await h.call('GET', '/v1/pull?cursor=0', auditor.token)).json.records as { table: string; record: Record<string, unknown> }[];
+    expect(seen.map((r) => r.table)).toEqual(['assessments']);
+    expect(seen[0]!.record.notesSealed).toBeNull();
+    expect((await h.call('POST', '/v1/push', auditor.token, { records: [] })).status).toBe(403);
+    expect((await h.call('GET', '/v1/pull?cursor=0', other.adminToken)).json.records).toEqual([]);
+    expect((await h.call('POST', `/v1/devices/${auditor.deviceId}/revoke`, other.adminToken)).status).toBe(404);
+  });
+
+  it('concurrent pushers: a puller paging by change number never skips a change, and ends with every record once', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Busy team');
+    const pushers = await Promise.all(Array.from({ length: 6 }, () => enrolDevice(h, adminToken, 'clinician')));
+    const perPusher = 120;
+    const batches = pushers.map((p, i) => {
+      const obs = simulatedObservations(perPusher, 100 + i, DEMO.devices[0]!.id);
+      return { token: p.token, batches: Array.from({ length: perPusher / 10 }, (_, k) => obs.slice(k * 10, k * 10 + 10)) };
+    });
+    const seen = new Map<string, number>();
+    let cursor = 0;
+    let done = false;
+    const puller = (async () => {
+      for (;;) {
+        const finished = done;
+        const page = await h.call('GET', `/v1/pull?cursor=${cursor}&limit=7`, adminToken);
+        for (const r of page.json.records as { seq: number; record: { id: string } }[]) {
+          expect(r.seq).toBeGreaterThan(cursor);
+          seen.set(r.record.id, (seen.get(r.record.id) ?? 0) + 1);
+        }
+        cursor = page.json.cursor as number;
+        if (finished && page.json.more === false) return;
+      }
+    })();
+    await Promise.all(
+      batches.map(async ({ token, batches: list }) => {
+        for (const records of list) {
+          const res = await h.call('POST', '/v1/push', token, { records: records.map((record) => ({ table: 'observations', record })) });
+          expect(res.status).toBe(200);
+        }
+      }),
+    );
+    done = true;
+    await puller;
+    // Each record was written once, so an incremental puller must have seen each exactly once.
+    expect(seen.size).toBe(pushers.length * perPusher);
+    expect([...seen.values()].every((n) => n === 1)).toBe(true);
+  });
+});

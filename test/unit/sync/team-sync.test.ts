@@ -1,0 +1,151 @@
+import { randomBytes } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp, openPglite, migrate, TeamService, type SqlClient } from '../../../src/server';
+import { issueEnrolmentCode, joinTeam, readTeamLink, syncNow, parseEnrolmentCode, unwrapTeamKey, wrapTeamKey, newTeamKey, toWire, fromWire } from '../../../src/lib/sync';
+import { freshStore, seedPatient, steppingClock } from '../store/store-helpers';
+
+const rb = (n: number) => new Uint8Array(randomBytes(n));
+type Store = Awaited<ReturnType<typeof freshStore>>;
+/** The assessment's notes in clear (undefined when the record is absent). */
+async function notesOf(store: Store, id: string): Promise<string | null | undefined> {
+  const row = await store.assessments.get(id);
+  return row ? (await store.context.codecs.assessments.fromRow(row)).notes : undefined;
+}
+
+describe('team key hand-off and wire sealing', () => {
+  it('the team key opens only with the full code; a sealed identity carries no clear text and opens only with the key', async () => {
+    const key = await newTeamKey(rb);
+    const code = parseEnrolmentCode('ABCDE-FGHJK-MNPQ-RSTV-WXYZ-0123');
+    const envelope = await wrapTeamKey(key, code, rb, 1000);
+    expect(Buffer.from((await unwrapTeamKey(envelope, code)).raw)).toEqual(Buffer.from(key.raw));
+    await expect(unwrapTeamKey(envelope, { ...code, key: 'ABCDEFGHJKMNPQR0' })).rejects.toThrow(/does not open/);
+    await expect(unwrapTeamKey(envelope, { ...code, auth: 'ZZZZZZZZZZ' })).rejects.toThrow(/does not open/);
+    const identity = {
+      id: '01941f29-8780-746f-8a6e-98ff128ca047',
+      createdAt: '2025-01-01T00:00:00.000Z',
+      updatedAt: '2025-01-01T00:00:00.000Z',
+      deviceId: '01941f29-8780-746f-8a6e-98ff128ca048',
+      clinicianId: '01941f29-8780-746f-8a6e-98ff128ca049',
+      deleted: false,
+      patientId: '01941f29-8780-746f-8a6e-98ff128ca04a',
+      familyName: 'Quillfeather',
+      givenName: 'Orla',
+      dateOfBirth: '1961-04-09',
+      contact: '+00 000 0000',
+    };
+    const wire = await toWire('identities', identity, key, rb);
+    expect(JSON.stringify(wire)).not.toMatch(/Quillfeather|Orla|1961-04-09|000 0000/);
+    expect(await fromWire('identities', wire, key)).toEqual(identity);
+    await expect(fromWire('identities', wire, await newTeamKey(rb))).rejects.toThrow(/does not open/);
+    await expect(fromWire('identities', wire, null)).rejects.toThrow(/no team key/);
+  });
+});
+
+describe('devices in step through the team server (PGlite, in process)', () => {
+  let db: SqlClient;
+  let service: TeamService;
+  let deps: { fetch: typeof fetch; randomBytes: typeof rb };
+  beforeAll(async () => {
+    db = await openPglite(undefined);
+    await migrate(db);
+    service = new TeamService(db);
+    const app = createApp(service, { enrolLimit: 100 });
+    deps = {
+      randomBytes: rb,
+      fetch: (async (url: string, init?: RequestInit) => {
+        return app.request(String(url).replace('http://team.test', ''), init);
+      }) as typeof fetch,
+    };
+  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
+  afterAll(async () => {
+    await db.close();
+  });
+
+  it('A records, B sees it with names and notes; the auditor sees measurements without identities or notes; a conflict is settled alike and listed', async () => {
+    const team = await service.createTeam('Riverside team');
+    const a = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9)) });
+    await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+    const clinicianCode = await issueEnrolmentCode(a, 'clinician', 600_000, deps);
+    const auditorCode = await issueEnrolmentCode(a, 'auditor', 600_000, deps);
+    const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 10)) });
+    await joinTeam(b, { serverUrl: 'http://team.test', code: clinicianCode.code, label: 'tablet B' }, deps);
+    const auditor = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 11)) });
+    await joinTeam(auditor, { serverUrl: 'http://team.test', code: auditorCode.code, label: 'audit laptop' }, deps);
+
+    const { patient, assessment } = await seedPatient(a);
+    await a.identities.create({ patientId: patient.id, familyName: 'Quillfeather', givenName: 'Orla', dateOfBirth: '1961-04-09', contact: null });
+    expect((await syncNow(a, deps)).pushed).toBeGreaterThan(0);
+    await syncNow(b, deps);
+    expect(await notesOf(b, assessment.id)).toBe('Invented note: stiffer in the cold');
+    const identityB = await b.identities.forPatient(patient.id);
+    expect(identityB?.familyName).toBe('Quillfeather');
+
+    await syncNow(auditor, deps);
+    expect(await auditor.db.table('identities').count()).toBe(0);
+    expect((await auditor.assessments.get(assessment.id))?.notesSealed).toBeNull();
+    expect(await auditor.db.table('observations').count()).toBe(1);
+
+    // The server's tables hold no name, birth date or note in clear.
+    const dump = (await db.query<{ body: string }>('SELECT body FROM records')).map((r) => r.body).join('\n');
+    expect(dump).not.toMatch(/Quillfeather|Orla|1961-04-09|stiffer in the cold/);
+
+    // Both edit the same assessment; B's edit is later, so it wins everywhere and the conflict is listed.
+    await a.assessments.update(assessment.id, { notes: 'A: edited offline' });
+    await b.assessments.update(assessment.id, { notes: 'B: edited offline, later' });
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    await syncNow(a, deps);
+    expect(await notesOf(a, assessment.id)).toBe('B: edited offline, later');
+    expect(await notesOf(b, assessment.id)).toBe('B: edited offline, later');
+    const listed = [...(await readTeamLink(a))!.conflicts, ...(await readTeamLink(b))!.conflicts];
+    expect(listed.some((c) => c.recordId === assessment.id)).toBe(true);
+  });
+});
+
+describe('kinnote cohort --server', () => {
+  it('reads the whole team from the server with a device token, and writes no name or note', { timeout: 400_000 }, async () => {
+    const { mkdtempSync, readdirSync, readFileSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const { join } = await import('node:path');
+    const { runCli } = await import('../../../src/cli/main');
+    const { loadDemoCaseload } = await import('../../../src/lib/store');
+    const { startTeamServer } = await import('../../../src/server');
+    const db = await openPglite(undefined);
+    await migrate(db);
+    const server = await startTeamServer(db, { port: 0, host: '127.0.0.1' });
+    try {
+      const realDeps = { fetch: globalThis.fetch, randomBytes: rb };
+      const team = await server.service.createTeam('Cohort team');
+      const a = await freshStore();
+      await joinTeam(a, { serverUrl: server.url, code: team.code, label: 'tablet A' }, realDeps);
+      await loadDemoCaseload(a, { seed: 3, patientCount: 3 });
+      await syncNow(a, realDeps);
+      const auditorCode = await issueEnrolmentCode(a, 'auditor', 600_000, realDeps);
+      const enrolled = await service_enrol(server.url, auditorCode.code);
+      const out = mkdtempSync(join(tmpdir(), 'kinnote-cohort-server-'));
+      let stderr = '';
+      const run = (env: Record<string, string>) => runCli(['cohort', '--server', server.url, '--out', out], { stdout: () => undefined, stderr: (t) => (stderr += t), env, cwd: out });
+      expect(await run({})).toBe(1);
+      expect(stderr).toMatch(/KINNOTE_TOKEN/);
+      expect(await run({ KINNOTE_TOKEN: enrolled })).toBe(0);
+      const written = readdirSync(out).map((f) => readFileSync(join(out, f), 'utf8')).join('\n');
+      const identities = (await a.identities.list()).length;
+      expect(identities).toBeGreaterThan(0);
+      const long = readFileSync(join(out, 'kinnote-cohort-long.csv'), 'utf8').trim().split('\n');
+      expect(long.length - 1).toBe((await a.observations.list()).length);
+      for (const row of await a.identities.list()) {
+        const person = await a.context.codecs.identities.fromRow(row);
+        expect(written).not.toContain(person.familyName);
+      }
+    } finally {
+      await server.close();
+      await db.close();
+    }
+  });
+});
+
+async function service_enrol(url: string, code: string): Promise<string> {
+  const auth = parseEnrolmentCode(code).auth;
+  const res = await fetch(`${url}/v1/enrol`, { method: 'POST', body: JSON.stringify({ auth, label: 'cohort laptop' }) });
+  return ((await res.json()) as { token: string }).token;
+}
