@@ -16,6 +16,7 @@ import { anovaMeanSquares, completeSubjects, intraclassCorrelations, MissingCell
 import { canonicalJson, exportBackup, importBackup, openStore, sha256Hex, StoreError, type KinnoteStore } from '../../src/lib/store';
 import { acceptProgrammePackage, choosePatientMode, createProgrammePackage, importHomeReport, openProgrammePackage, planToProgrammeInput, ProgrammeTransferError, type ExercisePlan } from '../../src/lib/programme';
 import { sealTransfer } from '../../src/lib/programme/sealed-transfer';
+import { EMPTY_DOSE } from '../../src/lib/domain';
 import { ordinalValue } from '../../src/lib/domain';
 
 export interface FuzzCounts {
@@ -139,7 +140,7 @@ const plan: ExercisePlan = {
   title: 'Fuzz programme',
   startsOn: '2025-03-01',
   endsOn: null,
-  exercises: [{ name: 'Calf stretch', holdSeconds: 30, repetitions: 5, sets: 1, times: 2, per: 'day', caution: '' }],
+  exercises: [{ name: 'Calf stretch', dose: { ...EMPTY_DOSE, holdSeconds: 30, repetitions: 5, sets: 1, timesPerDay: 2 }, dosageText: '' }],
 };
 
 /** Runs every importer `cases` times from `seed`; returns the counts per importer. */
@@ -210,7 +211,7 @@ export async function fuzzImporters(cases: number, seed: number): Promise<Record
       const before = await fingerprint(phone);
       try {
         const opened = await openProgrammePackage(text, CODE);
-        await acceptProgrammePackage(phone, opened, { now: () => Date.UTC(2025, 2, 3, 8), platform: 'fuzz' });
+        await acceptProgrammePackage(phone, opened, { now: () => Date.UTC(2025, 2, 3, 8), platform: 'fuzz', today: '2025-03-03' });
         counts.accepted++;
       } catch (error) {
         record(counts, error, error instanceof ProgrammeTransferError || error instanceof StoreError, `programme case ${i}`);

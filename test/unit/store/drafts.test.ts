@@ -3,6 +3,7 @@ import Dexie from 'dexie';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { ordinalValue } from '../../../src/lib/domain';
 import { planToProgrammeInput } from '../../../src/lib/programme';
+import { EMPTY_DOSE } from '../../../src/lib/domain';
 import {
   CHANGED_ELSEWHERE,
   LEGACY_TAB_ID,
@@ -54,7 +55,7 @@ const plan = {
   title: 'Invented stretching plan',
   startsOn: '2025-03-01',
   endsOn: null,
-  exercises: [{ name: 'Calf stretch at the wall', holdSeconds: 30, repetitions: 3, sets: 1, times: 2, per: 'day' as const, caution: '' }],
+  exercises: [{ name: 'Calf stretch at the wall', dose: { ...EMPTY_DOSE, holdSeconds: 30, repetitions: 3, sets: 1, timesPerDay: 2 }, dosageText: '' }],
 };
 
 describe('drafts in IndexedDB', () => {
