@@ -218,7 +218,8 @@ export class TeamService {
 
   /**
    * Changes after `cursor` in change-number order, at most `limit`. An auditor's device never
-   * receives identities, and notes arrive as null: only pseudonymous codes and measurements.
+   * receives identities or their audit entries, and notes arrive as null: only pseudonymous codes
+   * and measurements. The cursor moves past what was left out.
    */
   async pull(device: Device, cursor: number, limit: number): Promise<{ records: PulledRecord[]; cursor: number; more: boolean }> {
     if (!Number.isSafeInteger(cursor) || cursor < 0) throw new TeamServerError(400, 'cursor: must be a whole number ≥ 0');
@@ -229,12 +230,16 @@ export class TeamService {
       [device.teamId, cursor, limit + 1],
     );
     const more = rows.length > limit;
-    const page = rows.slice(0, limit).map((r) => {
-      let record = JSON.parse(r.body) as WireRecord;
-      if (auditor && 'notesSealed' in record) record = { ...record, notesSealed: null };
-      return { seq: Number(r.seq), table: r.tbl, record };
-    });
-    return { records: page, cursor: page.length > 0 ? page[page.length - 1]!.seq : cursor, more };
+    const scanned = rows.slice(0, limit);
+    const page = scanned
+      .map((r) => {
+        let record = JSON.parse(r.body) as WireRecord;
+        if (auditor && 'notesSealed' in record) record = { ...record, notesSealed: null };
+        return { seq: Number(r.seq), table: r.tbl, record };
+      })
+      // Nor the audit entries of identities: they name records an auditor never holds.
+      .filter((r) => !(auditor && r.table === 'audit' && r.record.table === 'identities'));
+    return { records: page, cursor: scanned.length > 0 ? Number(scanned[scanned.length - 1]!.seq) : cursor, more };
   }
 
   /** Conflicts recorded for the team after `since` (their own numbering), oldest first. */

@@ -70,8 +70,8 @@ async function upgradeToV4(tx: Transaction): Promise<void> {
 /**
  * Version 5: indexes nothing reads are dropped, because every index costs a write per record
  * (measured on Chromium, DEVELOPERS.md store figures). Observations keep patientId (a patient's
- * records, a patient's backup) and [patientId+measureCode+takenAt] (series); assessmentId,
- * measureCode and updatedAt go. The audit log keeps createdAt (finds the batch entry of a record
+ * records, a patient's backup), [patientId+measureCode+takenAt] (series) and updatedAt (the team
+ * sync pushes records changed since its last mark); assessmentId and measureCode go. The audit log keeps createdAt (finds the batch entry of a record
  * created in bulk) and [table+recordId] (a record's history); recordId and table go. Records are
  * unchanged: IndexedDB drops the indexes itself, so the upgrade has nothing to rewrite.
  */
@@ -112,11 +112,11 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   {
     version: 5,
     stores: {
-      observations: 'id, patientId, [patientId+measureCode+takenAt]',
+      observations: 'id, patientId, updatedAt, [patientId+measureCode+takenAt]',
       audit: 'id, createdAt, [table+recordId]',
     },
     upgrade: upgradeToV5,
-    summary: 'unused indexes dropped: observations assessmentId, measureCode, updatedAt; audit recordId, table',
+    summary: 'unused indexes dropped: observations assessmentId, measureCode; audit recordId, table',
   },
   {
     version: 6,

@@ -67,9 +67,10 @@ describe('devices in step through the team server (PGlite, in process)', () => {
     await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
     const clinicianCode = await issueEnrolmentCode(a, 'clinician', 600_000, deps);
     const auditorCode = await issueEnrolmentCode(a, 'auditor', 600_000, deps);
-    const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 10)) });
+    // Device clocks a few minutes apart (imports refuse records more than 10 minutes ahead of the clock).
+    const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 5)) });
     await joinTeam(b, { serverUrl: 'http://team.test', code: clinicianCode.code, label: 'tablet B' }, deps);
-    const auditor = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 11)) });
+    const auditor = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 8)) });
     await joinTeam(auditor, { serverUrl: 'http://team.test', code: auditorCode.code, label: 'audit laptop' }, deps);
 
     const { patient, assessment } = await seedPatient(a);
@@ -116,7 +117,7 @@ describe('kinnote cohort --server', () => {
     try {
       const realDeps = { fetch: globalThis.fetch, randomBytes: rb };
       const team = await server.service.createTeam('Cohort team');
-      const a = await freshStore();
+      const a = await freshStore({ now: () => Date.now() }); // the demo ends yesterday: a store clock of 2025 would refuse it as future records
       await joinTeam(a, { serverUrl: server.url, code: team.code, label: 'tablet A' }, realDeps);
       await loadDemoCaseload(a, { seed: 3, patientCount: 3 });
       await syncNow(a, realDeps);
