@@ -1,6 +1,6 @@
 import { canonicalJson } from '../lib/store';
 import { checkWireRecord, type WireRecord } from '../lib/sync';
-import type { TableName } from '../lib/domain';
+import { checkTimestamps, type TableName } from '../lib/domain';
 import { newDeviceToken, randomBase32, sha256Hex } from './secrets';
 import type { SqlClient, SqlQueryable } from './sql-client';
 
@@ -164,7 +164,7 @@ export class TeamService {
    */
   async push(device: Device, batch: unknown): Promise<PushResult> {
     requireRole(device, ['clinician', 'admin']);
-    const records = checkBatch(batch);
+    const records = checkBatch(batch, this.now());
     return this.db.transaction(async (tx) => {
       const locked = await tx.query<{ change_seq: string | number }>('SELECT change_seq FROM teams WHERE id = $1 FOR UPDATE', [device.teamId]);
       let seq = Number(locked[0]!.change_seq);
@@ -272,7 +272,7 @@ interface CheckedRecord {
 }
 
 /** Validates a whole batch before anything is written; refuses it whole, naming index, table, id and field. */
-function checkBatch(batch: unknown): CheckedRecord[] {
+function checkBatch(batch: unknown, nowMs: number): CheckedRecord[] {
   const list = (batch as { records?: unknown } | null)?.records;
   if (!Array.isArray(list)) throw new TeamServerError(400, 'body: must be {"records": [{"table": …, "record": …}, …]}');
   if (list.length > MAX_PUSH_RECORDS) throw new TeamServerError(413, `records: at most ${MAX_PUSH_RECORDS} per push, got ${list.length}`);
@@ -288,6 +288,10 @@ function checkBatch(batch: unknown): CheckedRecord[] {
       for (const issue of checked.issues) issues.push({ record: where, ...issue });
       return;
     }
+    // Stamps beyond the server's clock (plus the devices' 10-minute margin) are refused here: once
+    // stored, every device's pull would refuse the page that carries them, and the team would stall.
+    const stamps = checkTimestamps(checked.record as unknown as { createdAt: string; updatedAt: string }, nowMs);
+    for (const issue of stamps) issues.push({ record: where, path: issue.path, message: issue.message.replace("this device's clock", "the team server's clock") });
     const key = `${checked.table}/${checked.record.id}`;
     if (seen.has(key)) issues.push({ record: where, path: 'id', message: 'appears twice in this push' });
     seen.add(key);

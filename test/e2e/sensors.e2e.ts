@@ -134,11 +134,12 @@ describe('pendulum test with the phone', () => {
     await page.getByRole('button', { name: 'Save to patient record' }).click();
     await page.getByText(/^Saved to the patient's record/).waitFor({ timeout: 20_000 });
     await page.goto(patientPath);
-    const card = page.locator('ul.series > li', { hasText: 'Pendulum relaxation index (R2)' });
-    await card.first().waitFor();
-    const text = (await card.first().textContent()) ?? '';
+    // The overview table's row of the measure (one cell per visit).
+    const row = page.locator('table.overview tbody tr', { hasText: 'Pendulum relaxation index (R2)' });
+    await row.first().waitFor();
+    const text = (await row.first().textContent()) ?? '';
     const values = Array.from(text.matchAll(/\d+\.\d+/g), (m) => Number(m[0]));
-    // The saved R2 is on the card (as shown there, to its own rounding), and it is the simulated leg's.
+    // The saved R2 is in the row (as shown there, to its own rounding), and it is the simulated leg's.
     expect(values.some((v) => Math.abs(v - swing.truth.r2) < 0.1 && Math.abs(v - Number(shown)) < 0.01)).toBe(true);
     await context.close();
   });
@@ -255,9 +256,9 @@ describe('phone inclinometer', () => {
     const angle = Number(/Saved ([\d.]+)°/.exec(saved ?? '')?.[1]);
     expect(Math.abs(angle - 95)).toBeLessThan(1);
     await page.goto(patientPath);
-    const card = page.locator('ul.series > li', { hasText: 'Right knee flexion (passive) · Range of motion' });
-    await card.waitFor();
-    expect(await card.textContent()).toContain(`${angle}°`);
+    const row = page.locator('table.overview tbody tr', { hasText: 'Right knee flexion (passive) · Range of motion' });
+    await row.waitFor();
+    expect(await row.textContent()).toContain(`${angle}°`);
     await context.close();
   });
 });

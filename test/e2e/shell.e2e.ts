@@ -25,7 +25,7 @@ afterAll(async () => {
 });
 
 describe('app shell', () => {
-  it('loads the first screen, which offers the demo caseload, at phone and tablet size', async () => {
+  it('loads the first screen: a patient receives a programme, a therapist sets up (with the demo caseload), at phone and tablet size', async () => {
     for (const [name, viewport] of [
       ['phone', phone],
       ['tablet', tablet],
@@ -35,7 +35,10 @@ describe('app shell', () => {
       await page.goto('/');
       await expect(page.title()).resolves.toBe('Kinnote');
       await page.getByRole('heading', { level: 1 }).waitFor();
-      // The set-up form appears once the on-device store has opened.
+      // Once the on-device store has opened, a new device asks whom it is for: a patient receives a
+      // programme; a therapist opens the set-up form, which offers the demo caseload.
+      await page.getByRole('button', { name: 'Receive my programme' }).waitFor();
+      await page.getByRole('button', { name: 'Set up for a therapist' }).click();
       await page.getByRole('button', { name: /demo caseload/i }).waitFor();
       expect(await page.getByRole('button', { name: /demo caseload/i }).count()).toBe(1);
       expect(await page.getByText('not a diagnostic device').count()).toBeGreaterThan(0);

@@ -57,6 +57,12 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     const bad = await h.call('POST', '/v1/push', adminToken, { records: [good[1], { table: 'observations', record: badAngle }] });
     expect(bad.status).toBe(400);
     expect(bad.json.error).toMatch(/records\[1\].*value/);
+    // A device whose clock runs an hour fast: its stamps would be refused by every other device's
+    // pull (10 minutes of clock difference allowed there), so the server refuses them first.
+    const ahead = new Date(Date.now() + 3_600_000).toISOString();
+    const future = await h.call('POST', '/v1/push', adminToken, { records: [good[2], { table: 'observations', record: { ...good[0]!.record, updatedAt: ahead } }] });
+    expect(future.status).toBe(400);
+    expect(future.json.error).toMatch(/records\[1\].*updatedAt: .* later than the team server's clock allows/);
     const pulled = await h.call('GET', '/v1/pull?cursor=0', adminToken);
     expect(pulled.json.records).toEqual([]);
   });
