@@ -137,6 +137,7 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
       for (;;) {
         const finished = done;
         const page = await h.call('GET', `/v1/pull?cursor=${cursor}&limit=7`, adminToken);
+        expect(page.status, JSON.stringify(page.json)).toBe(200);
         for (const r of page.json.records as { seq: number; record: { id: string } }[]) {
           expect(r.seq).toBeGreaterThan(cursor);
           seen.set(r.record.id, (seen.get(r.record.id) ?? 0) + 1);
@@ -145,16 +146,22 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
         if (finished && page.json.more === false) return;
       }
     })();
-    await Promise.all(
-      batches.map(async ({ token, batches: list }) => {
-        for (const records of list) {
-          const res = await h.call('POST', '/v1/push', token, { records: records.map((record) => ({ table: 'observations', record })) });
-          expect(res.status).toBe(200);
-        }
-      }),
-    );
-    done = true;
-    await puller;
+    try {
+      await Promise.all(
+        batches.map(async ({ token, batches: list }) => {
+          for (const records of list) {
+            const res = await h.call('POST', '/v1/push', token, { records: records.map((record) => ({ table: 'observations', record })) });
+            // Without the counter lock two pushers take the same change numbers: PostgreSQL refuses the
+            // second (unique team/seq index) and this is a 500 (negative control in DEVELOPERS.md).
+            expect(res.status, JSON.stringify(res.json)).toBe(200);
+          }
+        }),
+      );
+    } finally {
+      // Let the puller finish its last pages even when a push failed, so nothing runs on after the test.
+      done = true;
+      await puller;
+    }
     // Each record was written once, so an incremental puller must have seen each exactly once.
     expect(seen.size).toBe(pushers.length * perPusher);
     expect([...seen.values()].every((n) => n === 1)).toBe(true);
