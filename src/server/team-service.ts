@@ -225,7 +225,9 @@ export class TeamService {
     if (!Number.isSafeInteger(limit) || limit < 1 || limit > MAX_PULL_LIMIT) throw new TeamServerError(400, `limit: must be 1 to ${MAX_PULL_LIMIT}`);
     const auditor = device.role === 'auditor';
     const rows = await this.db.query<{ seq: string | number; tbl: TableName; body: string }>(
-      `SELECT seq, tbl, body FROM records WHERE team_id = $1 AND seq > $2 ${auditor ? "AND tbl <> 'identities'" : ''} ORDER BY seq LIMIT $3`,
+      // An auditor gets neither identities nor the audit entries about them (which would name records
+      // the device can never hold, so its import would refuse the page).
+      `SELECT seq, tbl, body FROM records WHERE team_id = $1 AND seq > $2 ${auditor ? "AND tbl <> 'identities' AND NOT (tbl = 'audit' AND body::jsonb ->> 'table' = 'identities')" : ''} ORDER BY seq LIMIT $3`,
       [device.teamId, cursor, limit + 1],
     );
     const more = rows.length > limit;

@@ -5,9 +5,9 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
   let h: Harness;
   beforeAll(async () => {
     h = harness(await openBackend(kind), { enrolLimit: 5 });
-  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
+  }, 300_000); // the first PGlite template on a machine runs initdb in WebAssembly: slow on a loaded machine
   afterAll(async () => {
-    await h.db.close();
+    await h?.db.close();
   });
 
   it('an init code works once; a wrong or spent code is refused; enrolment is rate limited per address', async () => {
