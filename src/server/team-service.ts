@@ -180,7 +180,10 @@ export class TeamService {
           writes.push([table, record.id, record.updatedAt, record.deleted, ++seq, device.id, text]);
           continue;
         }
-        if (current.body === text) {
+        // The same version again: same updatedAt from the same writing device. Its text can differ only
+        // where it was sealed again with a fresh nonce (a device pushing back what it pulled, or a
+        // retried push): nothing changed, and it is no conflict.
+        if (current.body === text || (record.updatedAt === current.updated_at && record.deviceId === (JSON.parse(current.body) as { deviceId?: unknown }).deviceId)) {
           counts.unchanged++;
           continue;
         }

@@ -87,9 +87,18 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     // two replacements (newer incoming) and one stale copy kept out, the repeated stale push not again
     expect(conflicts.map((c) => `${c.recordId === one!.id ? 'one' : 'two'}:${c.winner}`).sort()).toEqual(['one:incoming', 'one:stored', 'two:incoming']);
 
-    // Tie: same updatedAt, different content: the larger canonical text wins whichever arrives first.
-    const tieA = { ...one!, updatedAt: later(one!.updatedAt, 90_000), value: { kind: 'angle', angleDeg: -20 } };
-    const tieB = { ...tieA, value: { kind: 'angle', angleDeg: -30 } };
+    // The same version again (same updatedAt, same writing device) with other text, as when a device
+    // pushes back what it pulled and seals it anew: unchanged, and no conflict.
+    const conflictsBefore = ((await h.call('GET', '/v1/conflicts', b.token)).json.conflicts as unknown[]).length;
+    const resealed = await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: { ...newer, value: { kind: 'angle', angleDeg: -12 } } }] });
+    expect(resealed.json).toMatchObject({ unchanged: 1, replaced: 0, keptStored: 0, conflicts: [] });
+    expect(((await h.call('GET', '/v1/conflicts', b.token)).json.conflicts as unknown[]).length).toBe(conflictsBefore);
+
+    // Tie: same updatedAt from two devices, different content: the larger canonical text wins whichever
+    // arrives first (here B's device id sorts after A's, and "deviceId" comes before "value" in it).
+    const [lowDevice, highDevice] = DEMO.devices.map((d) => d.id).sort();
+    const tieA = { ...one!, deviceId: lowDevice!, updatedAt: later(one!.updatedAt, 90_000), value: { kind: 'angle', angleDeg: -20 } };
+    const tieB = { ...tieA, deviceId: highDevice!, value: { kind: 'angle', angleDeg: -30 } };
     await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: tieB }] });
     await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: tieA }] });
     const final = (await h.call('GET', '/v1/pull?cursor=0', adminToken)).json.records as { record: { id: string; value: unknown } }[];
