@@ -3,39 +3,20 @@
 // every name, date of birth, contact and note of those patients (zero hits), and a string planted
 // in the database in clear is found by the same scan (the positive control). Runs when
 // TEAM_SERVER_TEST_DATABASE_URL names a PostgreSQL server (.ci/run starts a throwaway cluster).
-import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { joinTeam, syncNow } from '../../../src/lib/sync';
 import { loadDemoCaseload } from '../../../src/lib/store';
 import { createApp, migrate, openPostgres, TeamService } from '../../../src/server';
+import { newPostgresDatabase, pgDump, secretsIn } from '../server/pg-dump';
 import { freshStore, steppingClock } from '../store/store-helpers';
 
 const BASE = process.env.TEAM_SERVER_TEST_DATABASE_URL;
 
-/** Debian's pg_dump of the newest installed PostgreSQL (the same one .ci/throwaway-postgres.sh runs). */
-function pgDumpPath(): string {
-  if (process.env.PG_BIN) return `${process.env.PG_BIN}/pg_dump`;
-  const versions = readdirSync('/usr/lib/postgresql').sort((a, b) => Number(a) - Number(b));
-  return `/usr/lib/postgresql/${versions[versions.length - 1]}/bin/pg_dump`;
-}
-
-/** The secrets found in a dump (case-insensitive). */
-function hits(dump: string, secrets: readonly string[]): string[] {
-  const text = dump.toLowerCase();
-  return secrets.filter((s) => text.includes(s.toLowerCase()));
-}
-
 describe.runIf(BASE)('pg_dump of a synced team database (PostgreSQL)', () => {
   it('holds no name, date of birth, contact or note of the demo patients; a planted name is found', { timeout: 300_000 }, async () => {
-    const name = `kinnote_dump_${randomBytes(6).toString('hex')}`;
-    const admin = await openPostgres(BASE!, 1);
-    await admin.exec(`CREATE DATABASE ${name}`);
-    await admin.close();
-    const url = new URL(BASE!);
-    url.pathname = `/${name}`;
-    const db = await openPostgres(url.toString(), 5);
+    const url = await newPostgresDatabase(BASE!, 'kinnote_dump');
+    const db = await openPostgres(url, 5);
     try {
       await migrate(db);
       const service = new TeamService(db);
@@ -68,16 +49,15 @@ describe.runIf(BASE)('pg_dump of a synced team database (PostgreSQL)', () => {
       expect(list.filter((s) => /^\d{4}-\d{2}-\d{2}$/.test(s)).length, 'dates of birth among the secrets').toBeGreaterThanOrEqual(6);
       expect(list.length).toBeGreaterThan(18);
 
-      const dump = () => execFileSync(pgDumpPath(), ['--dbname', url.toString(), '--no-owner'], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024 });
-      const first = dump();
+      const first = pgDump(url);
       expect(first).toMatch(/COPY public\.records/);
       expect((await db.query<{ n: string }>('SELECT count(*) AS n FROM records'))[0]!.n).toBe(String(report.pushed));
-      expect(hits(first, list)).toEqual([]);
+      expect(secretsIn(first, list)).toEqual([]);
 
       // Positive control: one family name written in clear (as a team's name) is found by the same scan.
       const planted = list.find((s) => /^[A-Z][a-z]+$/.test(s))!;
       await db.query('INSERT INTO teams (id, name) VALUES ($1, $2)', ['planted-control', planted]);
-      expect(hits(dump(), list)).toEqual([planted]);
+      expect(secretsIn(pgDump(url), list)).toEqual([planted]);
     } finally {
       await db.close();
     }
