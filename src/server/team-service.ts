@@ -180,7 +180,10 @@ export class TeamService {
           writes.push([table, record.id, record.updatedAt, record.deleted, ++seq, device.id, text]);
           continue;
         }
-        if (current.body === text) {
+        // The same version again: same updatedAt from the same writing device. Its text can differ only
+        // where it was sealed again with a fresh nonce (a device pushing back what it pulled, or a
+        // retried push): nothing changed, and it is no conflict.
+        if (current.body === text || (record.updatedAt === current.updated_at && record.deviceId === (JSON.parse(current.body) as { deviceId?: unknown }).deviceId)) {
           counts.unchanged++;
           continue;
         }
@@ -219,27 +222,25 @@ export class TeamService {
   /**
    * Changes after `cursor` in change-number order, at most `limit`. An auditor's device never
    * receives identities or their audit entries, and notes arrive as null: only pseudonymous codes
-   * and measurements. The cursor moves past what was left out.
+   * and measurements.
    */
   async pull(device: Device, cursor: number, limit: number): Promise<{ records: PulledRecord[]; cursor: number; more: boolean }> {
     if (!Number.isSafeInteger(cursor) || cursor < 0) throw new TeamServerError(400, 'cursor: must be a whole number ≥ 0');
     if (!Number.isSafeInteger(limit) || limit < 1 || limit > MAX_PULL_LIMIT) throw new TeamServerError(400, `limit: must be 1 to ${MAX_PULL_LIMIT}`);
     const auditor = device.role === 'auditor';
     const rows = await this.db.query<{ seq: string | number; tbl: TableName; body: string }>(
-      `SELECT seq, tbl, body FROM records WHERE team_id = $1 AND seq > $2 ${auditor ? "AND tbl <> 'identities'" : ''} ORDER BY seq LIMIT $3`,
+      // An auditor gets neither identities nor the audit entries about them (which would name records
+      // the device can never hold, so its import would refuse the page).
+      `SELECT seq, tbl, body FROM records WHERE team_id = $1 AND seq > $2 ${auditor ? "AND tbl <> 'identities' AND NOT (tbl = 'audit' AND body::jsonb ->> 'table' = 'identities')" : ''} ORDER BY seq LIMIT $3`,
       [device.teamId, cursor, limit + 1],
     );
     const more = rows.length > limit;
-    const scanned = rows.slice(0, limit);
-    const page = scanned
-      .map((r) => {
-        let record = JSON.parse(r.body) as WireRecord;
-        if (auditor && 'notesSealed' in record) record = { ...record, notesSealed: null };
-        return { seq: Number(r.seq), table: r.tbl, record };
-      })
-      // Nor the audit entries of identities: they name records an auditor never holds.
-      .filter((r) => !(auditor && r.table === 'audit' && r.record.table === 'identities'));
-    return { records: page, cursor: scanned.length > 0 ? Number(scanned[scanned.length - 1]!.seq) : cursor, more };
+    const page = rows.slice(0, limit).map((r) => {
+      let record = JSON.parse(r.body) as WireRecord;
+      if (auditor && 'notesSealed' in record) record = { ...record, notesSealed: null };
+      return { seq: Number(r.seq), table: r.tbl, record };
+    });
+    return { records: page, cursor: page.length > 0 ? page[page.length - 1]!.seq : cursor, more };
   }
 
   /** Conflicts recorded for the team after `since` (their own numbering), oldest first. */

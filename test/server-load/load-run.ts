@@ -1,15 +1,14 @@
 // Load and fault runs against a real team-server process on 127.0.0.1 (used by `npm run bench`
 // with the full sizes and by test/unit/server/load.test.ts with small ones). Simulated devices are
 // plain HTTP clients with their own record maps: they share none of the app's sync code.
-import { spawn, type ChildProcess } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { canonicalJson } from '../../src/lib/store';
+import { newPgliteDataDir } from '../unit/server/pglite-template';
+import { runCli, ServerProcess } from './server-process';
 import { DEMO, randomAuth, simulatedObservations } from '../unit/server/team-fixture';
-
-const ROOT = resolve(import.meta.dirname, '../..');
 
 export interface LoadOptions {
   readonly devices: number;
@@ -35,56 +34,6 @@ export interface LoadResult {
   readonly retries: number;
 }
 
-class ServerProcess {
-  url = '';
-  private child: ChildProcess | undefined;
-  constructor(private readonly args: string[], private readonly env: NodeJS.ProcessEnv) {}
-  async start(): Promise<void> {
-    const child = spawn(process.execPath, [join(ROOT, 'node_modules/tsx/dist/cli.mjs'), join(ROOT, 'src/cli/main.ts'), 'team-server', ...this.args], {
-      env: this.env,
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    this.child = child;
-    let err = '';
-    child.stderr!.on('data', (d) => (err += String(d)));
-    this.url = await new Promise<string>((ok, fail) => {
-      let out = '';
-      child.stdout!.on('data', (d) => {
-        out += String(d);
-        const m = /"url":"([^"]+)"/.exec(out);
-        if (m) ok(m[1]!);
-      });
-      child.once('exit', (code) => fail(new Error(`team-server exited (${code}) before listening: ${err}`)));
-    });
-  }
-  kill(): Promise<void> {
-    const child = this.child!;
-    return new Promise((ok) => {
-      child.once('exit', () => ok());
-      child.kill('SIGKILL');
-    });
-  }
-  async stop(): Promise<void> {
-    if (this.child && this.child.exitCode === null) {
-      await new Promise<void>((ok) => {
-        this.child!.once('exit', () => ok());
-        this.child!.kill('SIGTERM');
-      });
-    }
-  }
-}
-
-async function runCli(args: string[], env: NodeJS.ProcessEnv): Promise<string> {
-  const child = spawn(process.execPath, [join(ROOT, 'node_modules/tsx/dist/cli.mjs'), join(ROOT, 'src/cli/main.ts'), ...args], { env, stdio: ['ignore', 'pipe', 'pipe'] });
-  let out = '';
-  let err = '';
-  child.stdout.on('data', (d) => (out += String(d)));
-  child.stderr.on('data', (d) => (err += String(d)));
-  const code = await new Promise<number | null>((ok) => child.once('exit', ok));
-  if (code !== 0) throw new Error(`kinnote ${args.join(' ')} failed: ${err}`);
-  return out;
-}
-
 const p95 = (list: number[]) => {
   const sorted = [...list].sort((a, b) => a - b);
   return sorted.length === 0 ? NaN : sorted[Math.min(sorted.length - 1, Math.ceil(0.95 * sorted.length) - 1)]!;
@@ -92,6 +41,8 @@ const p95 = (list: number[]) => {
 
 export async function runLoad(options: LoadOptions): Promise<LoadResult> {
   const dataDir = mkdtempSync(join(tmpdir(), 'kinnote-team-load-'));
+  // PGlite: start from the migrated template instead of running initdb in the server process.
+  if (!options.databaseUrl) await newPgliteDataDir(dataDir);
   const env = { ...process.env, DATABASE_URL: options.databaseUrl ?? '' };
   const common = ['--data', dataDir];
   const init = JSON.parse(await runCli(['team-server', 'init', '--name', `Load team ${Date.now()}`, ...common], env)) as { code: string };

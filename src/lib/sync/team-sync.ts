@@ -136,12 +136,23 @@ export async function issueEnrolmentCode(store: KinnoteStore, role: TeamRole, tt
   return { code: formatEnrolmentCode(code), expiresAt: issued.expiresAt as string };
 }
 
+/**
+ * The rows of `table` stamped after `mark`: through the table's updatedAt index where it has one
+ * (the audit log, append-only, through createdAt, its updatedAt); observations lost that index in
+ * schema 5 (each index costs a write per record), so there it is one scan of the table.
+ */
+export function rowsChangedSince(store: KinnoteStore, table: TableName, mark: string): { toArray(): Promise<unknown[]>; count(): Promise<number> } {
+  const t = store.db.table(table);
+  const field = table === 'audit' ? 'createdAt' : 'updatedAt';
+  if (t.schema.idxByName[field] || t.schema.primKey.name === field) return t.where(field).above(mark);
+  return t.filter((row: Record<string, unknown>) => (row[field] as string) > mark);
+}
+
 /** Local records changed since the last push, in clear (the vault opens protected text). */
 async function changedSince(store: KinnoteStore, mark: string): Promise<{ table: TableName; record: RecordBase }[]> {
   const out: { table: TableName; record: RecordBase }[] = [];
   for (const table of TABLE_NAMES) {
-    // The audit log is append-only and indexed by createdAt (= its updatedAt).
-    const rows = (await store.db.table(table).where(table === 'audit' ? 'createdAt' : 'updatedAt').above(mark).toArray()) as RecordBase[];
+    const rows = (await rowsChangedSince(store, table, mark).toArray()) as RecordBase[];
     const codec = store.context.codecs[table];
     for (const row of rows) out.push({ table, record: (await codec.fromRow(row as never)) as RecordBase });
   }

@@ -2,15 +2,16 @@ import { randomBytes } from 'node:crypto';
 import { createUuidV7Generator, type Observation } from '../../../src/lib/domain';
 import { generateDemoScenario } from '../../../src/lib/demo';
 import { canonicalJson } from '../../../src/lib/store';
-import { createApp, migrate, openPglite, openPostgres, TeamService, type SqlClient } from '../../../src/server';
+import { createApp, migrate, openPostgres, TeamService, type SqlClient } from '../../../src/server';
+import { openTemplatePglite } from './pglite-template';
 
 /** The stores the server tests run on: PGlite always; PostgreSQL when .ci/run (or you) set TEAM_SERVER_TEST_DATABASE_URL. */
 export const BACKENDS: readonly ('pglite' | 'postgres')[] = process.env.TEAM_SERVER_TEST_DATABASE_URL ? ['pglite', 'postgres'] : ['pglite'];
 
-/** A fresh, migrated database: PGlite in memory, or a new database on the test PostgreSQL server. */
+/** A fresh, migrated database: PGlite in memory (from the template), or a new database on the test PostgreSQL server. */
 export async function openBackend(kind: 'pglite' | 'postgres'): Promise<SqlClient> {
   let db: SqlClient;
-  if (kind === 'pglite') db = await openPglite(undefined);
+  if (kind === 'pglite') db = await openTemplatePglite();
   else {
     const base = process.env.TEAM_SERVER_TEST_DATABASE_URL!;
     const admin = await openPostgres(base, 1);

@@ -5,9 +5,9 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
   let h: Harness;
   beforeAll(async () => {
     h = harness(await openBackend(kind), { enrolLimit: 5 });
-  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
+  }, 300_000); // the first PGlite template on a machine runs initdb in WebAssembly: slow on a loaded machine
   afterAll(async () => {
-    await h.db.close();
+    await h?.db.close();
   });
 
   it('an init code works once; a wrong or spent code is refused; enrolment is rate limited per address', async () => {
@@ -93,9 +93,18 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     // two replacements (newer incoming) and one stale copy kept out, the repeated stale push not again
     expect(conflicts.map((c) => `${c.recordId === one!.id ? 'one' : 'two'}:${c.winner}`).sort()).toEqual(['one:incoming', 'one:stored', 'two:incoming']);
 
-    // Tie: same updatedAt, different content: the larger canonical text wins whichever arrives first.
-    const tieA = { ...one!, updatedAt: later(one!.updatedAt, 90_000), value: { kind: 'angle', angleDeg: -20 } };
-    const tieB = { ...tieA, value: { kind: 'angle', angleDeg: -30 } };
+    // The same version again (same updatedAt, same writing device) with other text, as when a device
+    // pushes back what it pulled and seals it anew: unchanged, and no conflict.
+    const conflictsBefore = ((await h.call('GET', '/v1/conflicts', b.token)).json.conflicts as unknown[]).length;
+    const resealed = await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: { ...newer, value: { kind: 'angle', angleDeg: -12 } } }] });
+    expect(resealed.json).toMatchObject({ unchanged: 1, replaced: 0, keptStored: 0, conflicts: [] });
+    expect(((await h.call('GET', '/v1/conflicts', b.token)).json.conflicts as unknown[]).length).toBe(conflictsBefore);
+
+    // Tie: same updatedAt from two devices, different content: the larger canonical text wins whichever
+    // arrives first (here B's device id sorts after A's, and "deviceId" comes before "value" in it).
+    const [lowDevice, highDevice] = DEMO.devices.map((d) => d.id).sort();
+    const tieA = { ...one!, deviceId: lowDevice!, updatedAt: later(one!.updatedAt, 90_000), value: { kind: 'angle', angleDeg: -20 } };
+    const tieB = { ...tieA, deviceId: highDevice!, value: { kind: 'angle', angleDeg: -30 } };
     await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: tieB }] });
     await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: tieA }] });
     const final = (await h.call('GET', '/v1/pull?cursor=0', adminToken)).json.records as { record: { id: string; value: unknown } }[];
@@ -143,6 +152,7 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
       for (;;) {
         const finished = done;
         const page = await h.call('GET', `/v1/pull?cursor=${cursor}&limit=7`, adminToken);
+        expect(page.status, JSON.stringify(page.json)).toBe(200);
         for (const r of page.json.records as { seq: number; record: { id: string } }[]) {
           expect(r.seq).toBeGreaterThan(cursor);
           seen.set(r.record.id, (seen.get(r.record.id) ?? 0) + 1);
@@ -151,16 +161,22 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
         if (finished && page.json.more === false) return;
       }
     })();
-    await Promise.all(
-      batches.map(async ({ token, batches: list }) => {
-        for (const records of list) {
-          const res = await h.call('POST', '/v1/push', token, { records: records.map((record) => ({ table: 'observations', record })) });
-          expect(res.status).toBe(200);
-        }
-      }),
-    );
-    done = true;
-    await puller;
+    try {
+      await Promise.all(
+        batches.map(async ({ token, batches: list }) => {
+          for (const records of list) {
+            const res = await h.call('POST', '/v1/push', token, { records: records.map((record) => ({ table: 'observations', record })) });
+            // Without the counter lock two pushers take the same change numbers: PostgreSQL refuses the
+            // second (unique team/seq index) and this is a 500 (negative control in DEVELOPERS.md).
+            expect(res.status, JSON.stringify(res.json)).toBe(200);
+          }
+        }),
+      );
+    } finally {
+      // Let the puller finish its last pages even when a push failed, so nothing runs on after the test.
+      done = true;
+      await puller;
+    }
     // Each record was written once, so an incremental puller must have seen each exactly once.
     expect(seen.size).toBe(pushers.length * perPusher);
     expect([...seen.values()].every((n) => n === 1)).toBe(true);

@@ -1,6 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp, openPglite, migrate, TeamService, type SqlClient } from '../../../src/server';
+import { createApp, migrate, TeamService, type SqlClient } from '../../../src/server';
+import { openTemplatePglite } from '../server/pglite-template';
 import { issueEnrolmentCode, joinTeam, readTeamLink, syncNow, parseEnrolmentCode, unwrapTeamKey, wrapTeamKey, newTeamKey, toWire, fromWire } from '../../../src/lib/sync';
 import { freshStore, seedPatient, steppingClock } from '../store/store-helpers';
 
@@ -46,7 +47,7 @@ describe('devices in step through the team server (PGlite, in process)', () => {
   let service: TeamService;
   let deps: { fetch: typeof fetch; randomBytes: typeof rb };
   beforeAll(async () => {
-    db = await openPglite(undefined);
+    db = await openTemplatePglite();
     await migrate(db);
     service = new TeamService(db);
     const app = createApp(service, { enrolLimit: 100 });
@@ -56,7 +57,7 @@ describe('devices in step through the team server (PGlite, in process)', () => {
         return app.request(String(url).replace('http://team.test', ''), init);
       }) as typeof fetch,
     };
-  }, 300_000); // opening PGlite compiles WebAssembly: slow on a loaded machine
+  }, 300_000); // the first PGlite template on a machine runs initdb in WebAssembly: slow on a loaded machine
   afterAll(async () => {
     await db.close();
   });
@@ -67,10 +68,10 @@ describe('devices in step through the team server (PGlite, in process)', () => {
     await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
     const clinicianCode = await issueEnrolmentCode(a, 'clinician', 600_000, deps);
     const auditorCode = await issueEnrolmentCode(a, 'auditor', 600_000, deps);
-    // Device clocks a few minutes apart (imports refuse records more than 10 minutes ahead of the clock).
+    // Clocks a few minutes apart (B later than A): within the 10 minutes an import accepts.
     const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 5)) });
     await joinTeam(b, { serverUrl: 'http://team.test', code: clinicianCode.code, label: 'tablet B' }, deps);
-    const auditor = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 8)) });
+    const auditor = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 7)) });
     await joinTeam(auditor, { serverUrl: 'http://team.test', code: auditorCode.code, label: 'audit laptop' }, deps);
 
     const { patient, assessment } = await seedPatient(a);
@@ -111,13 +112,14 @@ describe('kinnote cohort --server', () => {
     const { runCli } = await import('../../../src/cli/main');
     const { loadDemoCaseload } = await import('../../../src/lib/store');
     const { startTeamServer } = await import('../../../src/server');
-    const db = await openPglite(undefined);
+    const db = await openTemplatePglite();
     await migrate(db);
     const server = await startTeamServer(db, { port: 0, host: '127.0.0.1' });
     try {
       const realDeps = { fetch: globalThis.fetch, randomBytes: rb };
       const team = await server.service.createTeam('Cohort team');
-      const a = await freshStore({ now: () => Date.now() }); // the demo ends yesterday: a store clock of 2025 would refuse it as future records
+      // The demo runs to 2025-06-30: the store's clock must be later, or the import refuses its "future" stamps.
+      const a = await freshStore({ now: steppingClock(Date.UTC(2025, 6, 1)) });
       await joinTeam(a, { serverUrl: server.url, code: team.code, label: 'tablet A' }, realDeps);
       await loadDemoCaseload(a, { seed: 3, patientCount: 3 });
       await syncNow(a, realDeps);
