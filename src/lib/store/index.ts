@@ -36,6 +36,7 @@ export {
   REANALYSIS_CHANGED_NOTE,
   REANALYSIS_FLAGGED_NOTE,
   dismissPhoneReanalysisNotice,
+  phoneReanalysisPending,
   readPhoneReanalysisNotice,
   runPendingPhoneReanalysis,
   type PhoneReanalysisNotice,

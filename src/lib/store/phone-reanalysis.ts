@@ -264,6 +264,15 @@ async function writeOne(store: KinnoteStore, trace: Trace, observations: readonl
   }
 }
 
+/** True while the schema-7 re-analysis waits to run (lets the page load the analysis code only then). */
+export async function phoneReanalysisPending(store: KinnoteStore): Promise<boolean> {
+  try {
+    return (await store.db.table('meta').get(PHONE_REANALYSIS_MARKER)) !== undefined;
+  } catch (error) {
+    throw toStoreError(error, 'reading the re-analysis marker');
+  }
+}
+
 /** The notice of the schema-7 re-analysis while the user has not dismissed it, else null. */
 export async function readPhoneReanalysisNotice(store: KinnoteStore): Promise<PhoneReanalysisNotice | null> {
   try {
