@@ -16,7 +16,9 @@ current W3C Device Orientation and Motion text, as Chrome and Firefox on Android
 deliver it: rate_alpha_dps is the rate about the phone's x axis, rate_beta_dps about y,
 rate_gamma_dps about z. (An older text paired alpha with z, beta with x, gamma with y; a file in
 that older order is recognised from its data where possible and analysed with a warning.) The knee angle is reconstructed by fusing
-gyroscope and gravity, then analysed as by \`kinnote pendulum\`, whose JSON this prints.
+gyroscope and gravity, then analysed as by \`kinnote pendulum\`, whose JSON this prints. The
+recording may start minutes before the release: the test is analysed from the held second before
+the fall (a lead-in over 10 s is named in the warnings).
 
   --trace OUT.csv   also write the reconstructed trace as time_s,angle_deg
   --start-angle     knee flexion at which the leg was held before release, when known better than

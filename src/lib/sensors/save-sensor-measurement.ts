@@ -65,18 +65,17 @@ export async function saveSensorMeasurement(store: SensorSaveStore, input: Senso
   return { assessmentId: saved.assessment.id, traceId: saved.traces[0]?.id ?? '', observationIds: saved.observations.map((o) => o.id) };
 }
 
+/** The raw device-motion channels of a saved phone recording, in the browser's names (rate_alpha_dps: about device x). */
+export const PHONE_MOTION_CHANNELS = ['time_ms', 'rate_alpha_dps', 'rate_beta_dps', 'rate_gamma_dps', 'acc_x_ms2', 'acc_y_ms2', 'acc_z_ms2'] as const;
+const PHONE_MOTION_UNITS = ['ms', 'deg/s', 'deg/s', 'deg/s', 'm/s2', 'm/s2', 'm/s2'] as const;
+/** The derived channel: the knee angle reconstructed at save time (re-written by the schema-7 re-analysis). */
+export const DERIVED_ANGLE_CHANNEL = 'knee_flexion_deg';
+
 /** The raw motion samples (and optionally the reconstructed angle) as trace channels (copies), units in UCUM. */
 export function motionTraceChannels(recording: MotionRecording, angleDeg?: Float64Array): TraceInput['channels'] {
-  const channels: TraceInput['channels'] = [
-    { name: 'time_ms', unit: 'ms', samples: recording.timeMs.slice() },
-    { name: 'rate_alpha_dps', unit: 'deg/s', samples: recording.rateAlphaDps.slice() },
-    { name: 'rate_beta_dps', unit: 'deg/s', samples: recording.rateBetaDps.slice() },
-    { name: 'rate_gamma_dps', unit: 'deg/s', samples: recording.rateGammaDps.slice() },
-    { name: 'acc_x_ms2', unit: 'm/s2', samples: recording.accXMs2.slice() },
-    { name: 'acc_y_ms2', unit: 'm/s2', samples: recording.accYMs2.slice() },
-    { name: 'acc_z_ms2', unit: 'm/s2', samples: recording.accZMs2.slice() },
-  ];
-  if (angleDeg) channels.push({ name: 'knee_flexion_deg', unit: 'deg', samples: angleDeg.slice() });
+  const columns = [recording.timeMs, recording.rateAlphaDps, recording.rateBetaDps, recording.rateGammaDps, recording.accXMs2, recording.accYMs2, recording.accZMs2];
+  const channels: TraceInput['channels'] = PHONE_MOTION_CHANNELS.map((name, i) => ({ name, unit: PHONE_MOTION_UNITS[i]!, samples: columns[i]!.slice() }));
+  if (angleDeg) channels.push({ name: DERIVED_ANGLE_CHANNEL, unit: 'deg', samples: angleDeg.slice() });
   return channels;
 }
 

@@ -31,6 +31,20 @@ export { requestPersistentStorage, storageUsage, type StorageManagerLike } from 
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { readLocalState, writeLocalState } from './local-state';
+export {
+  PHONE_REANALYSIS_NOTICE,
+  REANALYSIS_CHANGED_NOTE,
+  REANALYSIS_FLAGGED_NOTE,
+  dismissPhoneReanalysisNotice,
+  phoneReanalysisPending,
+  readPhoneReanalysisNotice,
+  runPendingPhoneReanalysis,
+  type PhoneReanalysisNotice,
+  type ReanalyseRecording,
+  type ReanalysisNoticeChange,
+  type ReanalysisNoticeFlag,
+  type RecordingReanalysis,
+} from './phone-reanalysis';
 export { setAssessmentDeleted } from './assessment-tombstone';
 export {
   DRAFTS_TABLE,

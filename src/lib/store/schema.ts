@@ -1,5 +1,6 @@
 import type { Dexie, Transaction } from 'dexie';
 import { doseFromLegacyLine, type ExerciseDose } from '../domain';
+import { PHONE_REANALYSIS_MARKER } from './phone-reanalysis';
 
 /**
  * Every schema version the app has shipped, oldest first. A version is never edited once released:
@@ -93,6 +94,18 @@ async function upgradeToV6(tx: Transaction): Promise<void> {
     });
 }
 
+/**
+ * Version 7 (issue 13): saved phone pendulum recordings are analysed again with the corrected code
+ * (browsers' rotation-rate axis order, hand-held start). The upgrade only leaves a marker: the
+ * analysis, the audited updates and the user's notice run after the open, one recording per
+ * transaction (`runPendingPhoneReanalysis` in phone-reanalysis.ts says why not inside this
+ * transaction). A database created at version 7 gets no marker (Dexie runs no upgrade on creation).
+ * No index changes.
+ */
+async function upgradeToV7(tx: Transaction): Promise<void> {
+  await tx.table('meta').put({ key: PHONE_REANALYSIS_MARKER, value: { doneTraceIds: [] } });
+}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -124,6 +137,13 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { homeProgrammes: V1_STORES.homeProgrammes },
     upgrade: upgradeToV6,
     summary: 'homeProgrammes.items[].dose: structured dose read from Kinnote-written dosage lines, free text kept as written',
+  },
+  {
+    version: 7,
+    // No index changes: only the table the upgrade writes is named.
+    stores: { meta: V1_STORES.meta },
+    upgrade: upgradeToV7,
+    summary: 'saved phone pendulum recordings re-analysed after the open (corrected axis order, hand-held start); changes audited, refusals flagged, one notice',
   },
 ];
 

@@ -1,4 +1,17 @@
-import { CHANGED_ELSEWHERE, moveLegacyDrafts, openStore, StoreError, type Actor, type KinnoteStore, type VaultStatus } from '$lib/store';
+import {
+  CHANGED_ELSEWHERE,
+  moveLegacyDrafts,
+  openStore,
+  dismissPhoneReanalysisNotice,
+  phoneReanalysisPending,
+  readPhoneReanalysisNotice,
+  runPendingPhoneReanalysis,
+  StoreError,
+  type Actor,
+  type KinnoteStore,
+  type PhoneReanalysisNotice,
+  type VaultStatus,
+} from '$lib/store';
 import { readDeviceProfile } from '$lib/programme';
 
 /** What went wrong, for a person: the store's own message, or a plain one. */
@@ -44,6 +57,10 @@ class Session {
   revision = $state(0);
   /** Bumped when another tab of this app on this device wrote (a form may then be stale). */
   elsewhere = $state(0);
+  /** The schema-7 re-analysis of saved phone recordings: its one-time notice until the user dismisses it. */
+  reanalysisNotice = $state.raw<PhoneReanalysisNotice | null>(null);
+  /** Set when the re-analysis could not finish (it is tried again on the next open). */
+  reanalysisFailure = $state<string | null>(null);
   #opening: Promise<KinnoteStore> | null = null;
   // Tabs tell each other about writes, so a second tab re-reads instead of showing stale data.
   #channel: BroadcastChannel | null = null;
@@ -77,6 +94,7 @@ class Session {
           window.addEventListener('keydown', touch, { passive: true });
         }
         this.phase = 'ready';
+        void this.#reanalyse(store);
         return store;
       },
       (error: unknown) => {
@@ -87,6 +105,32 @@ class Session {
       },
     );
     return this.#opening;
+  }
+
+  /**
+   * Schema 7: saved phone recordings are analysed again once, beside the page (the analysis code is
+   * loaded only when that is pending); pages re-read when values changed. The notice stays until the
+   * user dismisses it.
+   */
+  async #reanalyse(store: KinnoteStore): Promise<void> {
+    try {
+      if (await phoneReanalysisPending(store)) {
+        const { reanalyseSavedRecording } = await import('$lib/sensors');
+        const notice = await runPendingPhoneReanalysis(store, reanalyseSavedRecording);
+        if (notice && notice.recordingsChanged > 0) this.changed();
+      }
+      this.reanalysisNotice = await readPhoneReanalysisNotice(store);
+    } catch (error) {
+      this.reanalysisFailure = describeError(error);
+    }
+  }
+
+  /** The user has read the re-analysis notice: never shown again. */
+  async dismissReanalysisNotice(): Promise<void> {
+    const store = this.store;
+    if (!store) return;
+    await dismissPhoneReanalysisNotice(store);
+    this.reanalysisNotice = null;
   }
 
   /** Re-reads the device mode after it was chosen or changed (home programme set-up). */

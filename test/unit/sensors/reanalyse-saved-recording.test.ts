@@ -9,7 +9,7 @@ describe('reanalyseSavedRecording (issue 13: saved phone recordings keep their r
   const current = pendulumObservations(indices, { side: 'right' as const }).observations.map((o, i) => ({ ...o, id: `obs-${i}` }));
 
   it('finds nothing to change in values saved by the corrected analysis', () => {
-    expect(reanalyseSavedRecording({ channels }, current)).toEqual({ kind: 'analysed', changes: [] });
+    expect(reanalyseSavedRecording({ channels }, current)).toMatchObject({ kind: 'analysed', changes: [], added: [] });
   });
   it('lists each value an older analysis saved differently, with old and new, and the new R2 is the simulated leg\'s', () => {
     // As the old code saved it: the same record, other numbers (e.g. from the older axis reading).

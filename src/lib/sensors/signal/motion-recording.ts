@@ -11,9 +11,10 @@
  *   PR #43 for issue #44) says: "alpha: The rate of rotation around the X axis", "beta: … around the
  *   Y axis", "gamma: … around the Z axis" (quoted from memory of the spec text; the change was made
  *   because Chrome and Firefox on Android and Safari on iOS all deliver it that way). The older text
- *   paired alpha with z, beta with x and gamma with y; Kinnote read it that way until schema
- *   version 3 (see RATE_AXES_NOTE). reconstructKneeAngle detects files written in that older order
- *   from the data and says so.
+ *   paired alpha with z, beta with x and gamma with y; Kinnote read it that way before this was
+ *   corrected (issue 13; saved recordings were analysed again by the schema-7 step, see RATE_AXES_NOTE).
+ *   The raw samples were always stored under the browser's names, so only the reading changed.
+ *   reconstructKneeAngle detects files written in that older order from the data and says so.
  * - `accelerationIncludingGravity` in m/s²: what an accelerometer measures, the device's acceleration
  *   minus gravity ("g-force"): a phone lying still, screen up, reads (0, 0, +9.81).
  * - Time stamps in milliseconds (Event.timeStamp, or whatever clock the file used), strictly increasing.

@@ -65,6 +65,8 @@ const FALL_SHARE = 0.3;
 /** The fall starts where the smoothed rate last rose past this: well above a held leg's tremor and sway
  * (≤ 3 deg/s), bias (≤ 2.6 deg/s in magnitude) and smoothed noise. */
 const ONSET_RATE_DPS = 15;
+/** Before the hold the angle is gravity's, smoothed over ±100 ms (the hand's tremor and sensor noise). */
+const PRE_HOLD_SMOOTH_HALF_WINDOW_MS = 100;
 /** The hold is judged over up to 1 s ending 0.1 s before the onset, and needs at least 0.3 s. */
 const HOLD_GAP_MS = 100;
 const HOLD_MAX_MS = 1000;
@@ -127,7 +129,9 @@ const DEG = Math.PI / 180;
  *    shank level, 90° hanging (a level thigh is assumed, as the test prescribes).
  * 6. Angle: the start from gravity, then the gyro about the axis (trapezoidal integration); the gap
  *    between the gyro's and gravity's start-to-rest excursions is removed as a linear bias drift
- *    between the hold's and the rest's centres (exact for a constant bias error).
+ *    between the hold's and the rest's centres (exact for a constant bias error). Before the judged
+ *    hold (a recording may run minutes before the release) the angle is gravity's, smoothed: the gyro
+ *    integrated back over minutes would carry its bias error into the trace.
  * 7. Shape checks, each a refusal that names the recording and the phone: a fall, a steady hold, a
  *    hinge, a level knee axis, gyro and gravity agreeing, a start near extension, a fall into flexion,
  *    a plausible rest.
@@ -319,6 +323,23 @@ export function reconstructKneeAngle(recording: MotionRecording, options: KneeAn
     const ramp = Math.min(1, Math.max(0, (timeMs[i] - tHold) / (tRest - tHold)));
     gyroAngleDeg[i] = startAngleDeg + psi[i] - psiHold;
     angleDeg[i] = gyroAngleDeg[i] - ramp * disagreement;
+  }
+  // Before the judged hold the gyro is not anchored: integrated back through minutes of a held leg, the
+  // bias left after the rest's estimate (its noise) walks the angle anywhere (issue 20). There the angle
+  // is gravity's reading, smoothed, on the same knee axis and shank line: bounded, and as good as the
+  // start's own anchor. The test itself starts at the hold.
+  if (holdStart > 0) {
+    const before = timeMs.subarray(0, holdStart);
+    const gxMean = movingMean(before, (i) => ax[i], PRE_HOLD_SMOOTH_HALF_WINDOW_MS);
+    const gyMean = movingMean(before, (i) => ay[i], PRE_HOLD_SMOOTH_HALF_WINDOW_MS);
+    const gzMean = movingMean(before, (i) => az[i], PRE_HOLD_SMOOTH_HALF_WINDOW_MS);
+    const g = new Float64Array(3);
+    for (let i = 0; i < holdStart; i++) {
+      g[0] = gxMean[i];
+      g[1] = gyMean[i];
+      g[2] = gzMean[i];
+      angleDeg[i] = startAngleDeg + wrap180(flexionFromGravity(g, k, shank) - gravityStart);
+    }
   }
 
   // 7. Shape: a fall into flexion, a plausible rest.
