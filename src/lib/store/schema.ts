@@ -93,6 +93,13 @@ async function upgradeToV6(tx: Transaction): Promise<void> {
     });
 }
 
+/**
+ * Version 8 (7 is assigned to another change and may be absent): an `exercisePhotos` table for
+ * photos of home-programme exercises, indexed by programmeId (see exercise-photos.ts for why they
+ * are kept apart from the HomeProgramme record). No record changes, so nothing to rewrite.
+ */
+async function upgradeToV8(): Promise<void> {}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -124,6 +131,12 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { homeProgrammes: V1_STORES.homeProgrammes },
     upgrade: upgradeToV6,
     summary: 'homeProgrammes.items[].dose: structured dose read from Kinnote-written dosage lines, free text kept as written',
+  },
+  {
+    version: 8,
+    stores: { exercisePhotos: 'id, programmeId' },
+    upgrade: upgradeToV8,
+    summary: 'exercisePhotos table (home-programme exercise photos, kept out of the audited programme record)',
   },
 ];
 
