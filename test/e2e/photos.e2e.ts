@@ -7,9 +7,11 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, Download, Page } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { launchChromium, newAppContext, reflowProblems, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
 
 const work = join('test-output', 'photos-e2e');
+/** The programme file (with photos) and its code, handed over by the first test, received in Spanish by the second. */
+let handedOver: { file: string; code: string } | null = null;
 let browser: Browser;
 beforeAll(async () => {
   browser = await launchChromium();
@@ -144,6 +146,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     const code = (await t.getByTestId('handover-code').textContent())!.trim();
     await t.getByTestId('handover-photos').getByText(/The file carries 2 photos/).waitFor();
     const file = await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'programme-with-photos.json');
+    handedOver = { file, code };
     await t.getByRole('button', { name: 'Show as QR codes' }).click();
     await t.getByTestId('qr-text-only').getByText(/QR codes carry the programme's text only, never photos/).waitFor();
 
@@ -179,5 +182,99 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
 
     await phoneContext.close();
     await therapistContext.close();
+  }, 240_000);
+
+  it('speaks Spanish on every patient screen when the phone chooses it: lang="es", no English left, axe clean, reflows at 200 % text', async () => {
+    expect(handedOver, 'the first test handed a programme over').not.toBeNull();
+    const context = await newAppContext(browser, { viewport: smallPhone });
+    const p = await context.newPage();
+    await p.goto('/');
+    await waitForOfflineWorker(p);
+    await context.setOffline(true);
+    await p.reload();
+
+    /**
+     * Visible text of the page that is in the interface's own words: text the therapist wrote
+     * (programme title, exercise names, notes) and parts marked English on purpose (the
+     * therapist's card on the first screen) are left out.
+     */
+    const interfaceText = () =>
+      p.evaluate(() => {
+        const out: string[] = [];
+        const walker = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+        for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+          const el = node.parentElement;
+          if (!el || el.closest('[data-written-by-therapist], [lang="en"], script, style')) continue;
+          if (!el.checkVisibility()) continue;
+          const text = node.textContent?.trim();
+          if (text) out.push(text);
+        }
+        for (const el of document.querySelectorAll<HTMLElement>('[aria-label], [alt], [placeholder]')) {
+          if (el.closest('[data-written-by-therapist], [lang="en"]') || !el.checkVisibility()) continue;
+          for (const a of ['aria-label', 'alt', 'placeholder']) if (el.getAttribute(a)) out.push(el.getAttribute(a)!);
+        }
+        return out.join(' | ');
+      });
+    // Common English words of the patient screens; none is a Spanish word.
+    const english = /\b(the|your|you|and|of|to|is|are|this|with|for|today|week|done|skipped|partly|reminders?|programme|phone|times?|repetitions?|hold|sets?|save|send|report|open|get|my|every|days?|exercises?|photos?|nothing|older|remove|keep|stop|how|what|will|not|skip|content)\b/i;
+    async function checkScreen(name: string): Promise<void> {
+      await waitForSettledPage(p, `the Spanish ${name} screen`);
+      expect(await p.evaluate(() => document.documentElement.lang), name).toBe('es');
+      const text = await interfaceText();
+      expect(text.match(english)?.[0] ?? null, `English left on the Spanish ${name} screen: ${text}`).toBeNull();
+      expect(await seriousAxeViolations(p), name).toEqual([]);
+      await setTextScale(p, 2);
+      await waitForSettledPage(p, `the Spanish ${name} screen at 200 % text`);
+      expect((await reflowProblems(p)).join('\n'), `${name} at 360 px with 200 % text`).toBe('');
+      await screenshot(p, `patient-es-${name}`);
+      await setTextScale(p, 1);
+    }
+
+    // First screen: the language choice is there before anything else.
+    await p.getByRole('button', { name: 'Español' }).click();
+    await p.getByRole('heading', { name: 'Sigo un programa en casa' }).waitFor();
+    await checkScreen('first');
+    await p.getByRole('button', { name: 'Recibir mi programa' }).click();
+    await p.getByRole('heading', { name: 'Recibir mi programa' }).waitFor();
+    await checkScreen('receive');
+    await p.locator('#programme-file').setInputFiles(handedOver!.file);
+    await p.getByLabel('Código de tu terapeuta').fill(handedOver!.code);
+    await p.getByRole('button', { name: 'Abrir mi programa' }).click();
+    await p.getByText(/ya está en este teléfono/).waitFor({ timeout: 30_000 });
+
+    const menu = p.getByRole('navigation', { name: 'Main' });
+    await menu.getByRole('link', { name: 'Hoy' }).click();
+    await p.getByRole('heading', { name: 'Hoy', level: 1 }).waitFor();
+    // Dose lines worded in Spanish from the structured dose (demo: hold 30 s, 3 repetitions, 5 days a week).
+    await p.getByText('Mantener 30 s · 3 repeticiones · 5 días a la semana', { exact: true }).waitFor();
+    await p.getByText('Durante la noche', { exact: true }).waitFor();
+    await p.getByTestId('exercise-photos').first().locator('img').first().waitFor();
+    await p.getByRole('radio', { name: '✓ Hecho' }).first().check();
+    await p.getByText('Guardado.').waitFor();
+    await p.getByRole('radio', { name: '✗ No lo hice' }).nth(1).check();
+    await p.getByRole('button', { name: 'Dolor' }).click();
+    await checkScreen('today');
+    await menu.getByRole('link', { name: 'Mi semana' }).click();
+    await p.getByRole('heading', { name: 'Semana a semana' }).waitFor();
+    await checkScreen('week');
+    await menu.getByRole('link', { name: 'Cómo me siento' }).click();
+    await p.getByRole('heading', { name: '¿Cómo están hoy tus espasmos?' }).waitFor();
+    await checkScreen('feel');
+    await menu.getByRole('link', { name: 'Enviar informe' }).click();
+    await p.getByRole('button', { name: 'Preparar mi informe' }).click();
+    await p.getByTestId('report-code').waitFor({ timeout: 30_000 });
+    await checkScreen('send');
+    await menu.getByRole('link', { name: 'Avisos' }).click();
+    await p.getByText('Lo que no hará:').waitFor();
+    await checkScreen('reminders');
+    await p.getByRole('link', { name: 'Dejar de usar este teléfono para mi programa' }).click();
+    await p.getByTestId('to-remove').getByText('las fotos de los ejercicios: 2').waitFor();
+    await checkScreen('leave');
+
+    // Back to English on the phone: the same screen in English, lang="en".
+    await p.getByRole('button', { name: 'English' }).click();
+    await p.getByRole('heading', { name: 'Stop using this phone for my programme' }).waitFor();
+    expect(await p.evaluate(() => document.documentElement.lang)).toBe('en');
+    await context.close();
   }, 240_000);
 });

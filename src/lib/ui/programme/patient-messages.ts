@@ -31,6 +31,7 @@ const en = {
   patientChoiceTitle: 'I follow a home programme',
   patientChoiceText: 'Your therapist gives you a file or QR codes and a code. This phone then shows your exercises and keeps your log. It holds only your own programme.',
   receiveButton: 'Receive my programme',
+  offlineReady: 'Kinnote is ready to work offline on this device.',
   openingProgramme: 'Opening your home programme…',
   // Receive
   receiveTitle: 'Get my programme',
@@ -137,7 +138,7 @@ const en = {
   // Leave
   leaveTitle: 'Stop using this phone for my programme',
   leaveRemoves: 'This removes from this phone, for good:',
-  leaveProgrammes: (titles: string, n: number) => `your programme${n > 1 ? 's' : ''}: ${titles}`,
+  leaveProgrammes: (n: number) => `your programme${n > 1 ? 's' : ''}:`,
   leavePhotos: (n: number) => `the exercise photos: ${n}`,
   leaveTicks: (ticks: number, days: number) => `your ticks: ${ticks} (${plural(days, 'day', 'days')} with exercises done)`,
   leaveRatings: (n: number) => `your spasm ratings: ${n}`,
@@ -196,6 +197,7 @@ const es: PatientMessages = {
   patientChoiceTitle: 'Sigo un programa en casa',
   patientChoiceText: 'Tu terapeuta te da un archivo o códigos QR, y un código. Después, este teléfono te muestra tus ejercicios y guarda tu registro. Solo contiene tu propio programa.',
   receiveButton: 'Recibir mi programa',
+  offlineReady: 'Kinnote está listo para funcionar sin conexión en este dispositivo.',
   openingProgramme: 'Abriendo tu programa en casa…',
   receiveTitle: 'Recibir mi programa',
   receiveLede: 'Tu terapeuta te envía un archivo, o te muestra códigos QR, y te dice un código de 10 letras y números.',
@@ -294,7 +296,7 @@ const es: PatientMessages = {
   reminderNotice: 'Es la hora de tus ejercicios en casa.',
   leaveTitle: 'Dejar de usar este teléfono para mi programa',
   leaveRemoves: 'Esto borra de este teléfono, para siempre:',
-  leaveProgrammes: (titles: string, n: number) => `${n > 1 ? 'tus programas' : 'tu programa'}: ${titles}`,
+  leaveProgrammes: (n: number) => `${n > 1 ? 'tus programas' : 'tu programa'}:`,
   leavePhotos: (n: number) => `las fotos de los ejercicios: ${n}`,
   leaveTicks: (ticks: number, days: number) => `tus marcas: ${ticks} (${days === 1 ? '1 día' : `${days} días`} con ejercicios hechos)`,
   leaveRatings: (n: number) => `tus valoraciones de espasmos: ${n}`,
