@@ -69,3 +69,17 @@ export {
 export { decimalProblem, decimalValue, readDecimal, readWholeNumber, type DecimalReading } from './read-decimal';
 export { readCalendarDate } from './read-calendar-date';
 export { withoutByteOrderMark } from './without-byte-order-mark';
+export {
+  MAX_PHOTOS_PER_EXERCISE,
+  MAX_PHOTO_BYTES,
+  PHOTO_LONGEST_SIDE_PX,
+  PHOTO_MIN_LONGEST_SIDE_PX,
+  PHOTO_TYPES,
+  exercisePhotoProblem,
+  fitWithin,
+  photoEncodingAttempts,
+  sniffPhotoType,
+  type ExercisePhoto,
+  type PhotoEncodingAttempt,
+  type PhotoType,
+} from './exercise-photo';

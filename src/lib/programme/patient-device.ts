@@ -1,5 +1,19 @@
 import * as v from 'valibot';
-import { BUNDLE_FORMAT, BUNDLE_FORMAT_VERSION, LATEST_SCHEMA_VERSION, StoreError, createBundle, importBackup, readLocalState, writeLocalState, type KinnoteStore, type MergeReport } from '../store';
+import {
+  BUNDLE_FORMAT,
+  BUNDLE_FORMAT_VERSION,
+  LATEST_SCHEMA_VERSION,
+  StoreError,
+  createBundle,
+  importBackup,
+  photosOfProgramme,
+  readLocalState,
+  replaceProgrammePhotos,
+  writeLocalState,
+  type KinnoteStore,
+  type MergeReport,
+} from '../store';
+import type { ExercisePhoto } from '../domain';
 import type { Device } from '../domain';
 import type { OpenedProgrammePackage } from './programme-package';
 import { ProgrammeTransferError } from './programme-transfer-error';
@@ -63,7 +77,10 @@ export async function choosePatientMode(store: KinnoteStore): Promise<DeviceProf
  * Saves an opened programme package on the patient's phone: the programme record (keeping its id,
  * so a re-sent or corrected programme merges by id) and, the first time, a Device record for the
  * phone. Writes go through the store's ordinary import (validated, merged, audited). The phone
- * writes as itself under the clinician who issued the programme. Throws ProgrammeTransferError
+ * writes as itself under the clinician who issued the programme. Then the photos: a package with
+ * photos replaces the programme's photos on the phone; one without (sent as QR codes) keeps those
+ * whose exercise still has the same words at the same place, so a photo never shows beside
+ * another exercise. Throws ProgrammeTransferError
  * ForeignPatient when the phone follows another patient, or holds any record of another patient.
  */
 export async function acceptProgrammePackage(
@@ -85,6 +102,7 @@ export async function acceptProgrammePackage(
   if (others.length > 0) {
     throw new ProgrammeTransferError('ForeignPatient', 'This phone holds records of another person, so it cannot take this programme. Nothing was saved.');
   }
+  const before = await store.homeProgrammes.get(pkg.programme.id);
   const deviceId = profile.deviceId ?? store.context.newId();
   await store.setActor({ deviceId, clinicianId: pkg.programme.clinicianId });
   const at = new Date(options.now()).toISOString();
@@ -107,6 +125,12 @@ export async function acceptProgrammePackage(
   );
   // The phone never holds the patient's record: the package vouches for the patient it names.
   const merge = await importBackup(store, bundle, { knownPatientIds: [pkg.patient.id] });
+  const items = pkg.programme.items;
+  let photos: readonly ExercisePhoto[] = pkg.photos;
+  if (photos.length === 0) {
+    photos = (await photosOfProgramme(store, pkg.programme.id)).filter((p) => before?.items[p.exercise]?.name === items[p.exercise]?.name);
+  }
+  await replaceProgrammePhotos(store, pkg.programme.id, photos, items.length);
   const next: DeviceProfile = {
     mode: 'patient',
     patientId: pkg.patient.id,

@@ -1,6 +1,6 @@
 import * as v from 'valibot';
-import { HomeProgrammeSchema, IdSchema, IsoDateTimeSchema, type HomeProgramme } from '../domain';
-import { canonicalJson } from '../store';
+import { HomeProgrammeSchema, IdSchema, IsoDateTimeSchema, MAX_PHOTO_BYTES, PHOTO_TYPES, exercisePhotoProblem, type ExercisePhoto, type HomeProgramme } from '../domain';
+import { base64ToBytes, bytesToBase64, canonicalJson } from '../store';
 import type { ExercisePlan } from './exercise-plan';
 import { checkExercisePlan } from './exercise-plan';
 import { programmeToPlan } from './programme-record';
@@ -8,10 +8,23 @@ import { ProgrammeTransferError } from './programme-transfer-error';
 import { openTransfer, sealTransfer, type SealOptions } from './sealed-transfer';
 
 export const PROGRAMME_PACKAGE_FORMAT = 'kinnote-home-programme' as const;
-export const PROGRAMME_PACKAGE_VERSION = 2;
-/** Version 1 (before structured doses) is still read: its items have no dose and keep their text. */
-const READABLE_VERSIONS: readonly number[] = [1, 2];
-const VersionSchema = v.union([v.literal(1), v.literal(2)]);
+export const PROGRAMME_PACKAGE_VERSION = 3;
+/**
+ * Version 1 (before structured doses) is still read: its items have no dose and keep their text.
+ * Version 2 had no photos; version 3 may carry photos (none when sent as QR codes).
+ */
+const READABLE_VERSIONS: readonly number[] = [1, 2, 3];
+const VersionSchema = v.union([v.literal(1), v.literal(2), v.literal(3)]);
+
+/** A photo as it travels: its bytes in base64 (RFC 4648). Limits are checked again after decoding. */
+const PackagePhotoSchema = v.strictObject({
+  exercise: v.pipe(v.number(), v.integer()),
+  position: v.pipe(v.number(), v.integer()),
+  type: v.picklist(PHOTO_TYPES),
+  widthPx: v.pipe(v.number(), v.integer()),
+  heightPx: v.pipe(v.number(), v.integer()),
+  data: v.pipe(v.string(), v.maxLength(Math.ceil(MAX_PHOTO_BYTES / 3) * 4, 'is larger than a photo may be')),
+});
 
 const PatientCodeSchema = v.pipe(v.string(), v.regex(/^[2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4}$/, 'must be a pseudonymous code like K7QM-3XHD'));
 
@@ -27,6 +40,7 @@ const PackageSchema = v.strictObject({
   issuedAt: IsoDateTimeSchema,
   patient: v.strictObject({ id: IdSchema, code: PatientCodeSchema }),
   programme: HomeProgrammeSchema,
+  photos: v.optional(v.array(PackagePhotoSchema), []),
 });
 
 export interface ProgrammePackage {
@@ -35,28 +49,39 @@ export interface ProgrammePackage {
   readonly issuedAt: string;
   readonly patient: { readonly id: string; readonly code: string };
   readonly programme: HomeProgramme;
+  readonly photos?: readonly PackagePhoto[];
 }
 
-/** A package that passed every check, with its programme read as a plan. */
-export interface OpenedProgrammePackage extends ProgrammePackage {
+type PackagePhoto = v.InferOutput<typeof PackagePhotoSchema>;
+
+/** A package that passed every check, with its programme read as a plan and its photos decoded. */
+export interface OpenedProgrammePackage extends Omit<ProgrammePackage, 'photos'> {
   readonly plan: ExercisePlan;
+  readonly photos: readonly ExercisePhoto[];
 }
 
 /**
- * Builds and encrypts a programme package under `code`. Throws ProgrammeTransferError Invalid when
- * the programme is not this patient's or not a valid record. Free-text dosages travel as written.
+ * Builds and encrypts a programme package under `code`, with the exercises' photos when given (a
+ * file; QR codes carry none: pass no photos). Throws ProgrammeTransferError Invalid when the
+ * programme is not this patient's or not a valid record, or a photo breaks a rule. Free-text
+ * dosages travel as written.
  */
 export async function createProgrammePackage(
-  input: { patient: { id: string; code: string }; programme: HomeProgramme; issuedAt: string },
+  input: { patient: { id: string; code: string }; programme: HomeProgramme; issuedAt: string; photos?: readonly ExercisePhoto[] },
   code: string,
   options: SealOptions,
 ): Promise<string> {
+  const photos = (input.photos ?? []).map((p) => {
+    if (p.programmeId !== input.programme.id) throw new ProgrammeTransferError('Invalid', `A photo of exercise ${p.exercise + 1} belongs to another programme.`);
+    return { exercise: p.exercise, position: p.position, type: p.type, widthPx: p.widthPx, heightPx: p.heightPx, data: bytesToBase64(p.bytes) };
+  });
   const body: ProgrammePackage = {
     format: PROGRAMME_PACKAGE_FORMAT,
     formatVersion: PROGRAMME_PACKAGE_VERSION,
     issuedAt: input.issuedAt,
     patient: { id: input.patient.id, code: input.patient.code },
     programme: input.programme,
+    ...(photos.length > 0 ? { photos } : {}),
   };
   checkPackage(body);
   return sealTransfer(canonicalJson(body), code, options);
@@ -96,5 +121,22 @@ function checkPackage(parsed: unknown): OpenedProgrammePackage {
   }
   const checked = checkExercisePlan(programmeToPlan(pkg.programme));
   if (!checked.ok) throw new ProgrammeTransferError('Invalid', `The programme breaks a rule at ${checked.issues[0]!.path}: ${checked.issues[0]!.message}.`);
-  return { ...pkg, plan: checked.plan };
+  const photos = (pkg.photos ?? []).map((p, i) => readPhoto(p, i, pkg.programme));
+  const places = new Set(photos.map((p) => `${p.exercise}:${p.position}`));
+  if (places.size !== photos.length) throw new ProgrammeTransferError('Invalid', 'This programme file has two photos in one place (same exercise and position). Nothing was saved.');
+  const { photos: _travelling, ...rest } = pkg;
+  return { ...rest, plan: checked.plan, photos };
+}
+
+function readPhoto(p: PackagePhoto, index: number, programme: HomeProgramme): ExercisePhoto {
+  let bytes: Uint8Array;
+  try {
+    bytes = base64ToBytes(p.data);
+  } catch (cause) {
+    throw new ProgrammeTransferError('Invalid', `Photo ${index + 1} of this programme file is damaged (its data is not base64). Nothing was saved.`, { cause });
+  }
+  const photo: ExercisePhoto = { programmeId: programme.id, patientId: programme.patientId, exercise: p.exercise, position: p.position, type: p.type, widthPx: p.widthPx, heightPx: p.heightPx, bytes };
+  const problem = exercisePhotoProblem(photo, programme.items.length);
+  if (problem !== null) throw new ProgrammeTransferError('Invalid', `Photo ${index + 1} of this programme file is refused: ${problem}. Nothing was saved.`);
+  return photo;
 }

@@ -58,3 +58,13 @@ export {
   type DraftRow,
   type LegacyDraftStorage,
 } from './drafts';
+export {
+  EXERCISE_PHOTOS_TABLE,
+  exercisePhotoId,
+  followExerciseOrder,
+  photosOfProgramme,
+  putExercisePhoto,
+  removeExercisePhoto,
+  replaceProgrammePhotos,
+  type ExercisePhotoRow,
+} from './exercise-photos';

@@ -106,6 +106,12 @@ async function upgradeToV7(tx: Transaction): Promise<void> {
   await tx.table('meta').put({ key: PHONE_REANALYSIS_MARKER, value: { doneTraceIds: [] } });
 }
 
+/**
+ * Version 8: an `exercisePhotos` table for photos of home-programme exercises, indexed by
+ * programmeId (see exercise-photos.ts for why they are kept apart from the HomeProgramme record). No record changes, so nothing to rewrite.
+ */
+async function upgradeToV8(): Promise<void> {}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -144,6 +150,12 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { meta: V1_STORES.meta },
     upgrade: upgradeToV7,
     summary: 'saved phone pendulum recordings re-analysed after the open (corrected axis order, hand-held start); changes audited, refusals flagged, one notice',
+  },
+  {
+    version: 8,
+    stores: { exercisePhotos: 'id, programmeId' },
+    upgrade: upgradeToV8,
+    summary: 'exercisePhotos table (home-programme exercise photos, kept out of the audited programme record)',
   },
 ];
 

@@ -95,7 +95,7 @@ describe('programme package', () => {
       sealing,
     );
     await expect(openProgrammePackage(mixed, CODE)).rejects.toMatchObject({ code: 'ForeignPatient' });
-    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 3 }), CODE, sealing);
+    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 4 }), CODE, sealing);
     await expect(openProgrammePackage(future, CODE)).rejects.toMatchObject({ code: 'Unsupported' });
     t.store.close();
   });

@@ -140,6 +140,32 @@ describe('schema migrations', () => {
     store.close();
   });
 
+  it('v6 → v8: an exercisePhotos table indexed by programme; every earlier record intact', async () => {
+    const factory = new IDBFactory();
+    const old = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    declareSchema(old, 6);
+    await old.open();
+    const dose = { holdSeconds: 30, repetitions: 3, sets: null, durationMinutes: null, overnight: false, timesPerDay: 1, daysPerWeek: 7, note: '' };
+    const programme = { id: ids(70), ...stamps, patientId: ids(1), title: 'Home', items: [{ name: 'Calf stretch', dosage: '', dose }], sessionsPerWeek: 7, startsOn: '2025-01-01', endsOn: null };
+    await old.table('homeProgrammes').add(programme);
+    await old.table('meta').put({ key: 'local:device-profile', value: { mode: 'therapist' } });
+    expect(old.tables.map((t) => t.name)).not.toContain('exercisePhotos');
+    old.close();
+
+    const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
+    expect(await store.homeProgrammes.get(ids(70))).toEqual(programme);
+    expect(await store.db.table('meta').get('local:device-profile')).toEqual({ key: 'local:device-profile', value: { mode: 'therapist' } });
+    const photos = store.db.table('exercisePhotos');
+    expect(photos.schema.primKey.name).toBe('id');
+    expect(photos.schema.indexes.map((i) => i.name)).toEqual(['programmeId']);
+    const webp = Uint8Array.from([82, 73, 70, 70, 4, 0, 0, 0, 87, 69, 66, 80, 1, 2]);
+    await photos.add({ id: `${ids(70)}:0:1`, programmeId: ids(70), patientId: ids(1), exercise: 0, position: 1, type: 'image/webp', widthPx: 10, heightPx: 10, bytes: webp, addedAtMs: 1 });
+    const read = (await photos.where('programmeId').equals(ids(70)).toArray()) as { bytes: Uint8Array }[];
+    expect(Array.from(read[0]!.bytes)).toEqual(Array.from(webp));
+    store.close();
+  });
+
   it('refuses a database newer than the app as VersionConflict', async () => {
     const factory = new IDBFactory();
     const future = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });

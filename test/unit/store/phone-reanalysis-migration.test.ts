@@ -7,6 +7,7 @@ import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { validateRecord, type ObservationValue } from '../../../src/lib/domain';
 import { motionTraceChannels, reanalyseSavedRecording } from '../../../src/lib/sensors';
 import {
+  LATEST_SCHEMA_VERSION,
   REANALYSIS_CHANGED_NOTE,
   REANALYSIS_FLAGGED_NOTE,
   dismissPhoneReanalysisNotice,
@@ -24,7 +25,7 @@ describe('schema 6 → 7: saved phone recordings re-analysed with the corrected 
     const { sims, observationIds } = await buildV6({ indexedDB: factory, IDBKeyRange });
     let clock = Date.UTC(2026, 11, 3, 9);
     const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null, now: () => (clock += 1000) });
-    expect(store.db.verno).toBe(7);
+    expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
     const auditBefore = await store.audit.count();
     const notice = await runPendingPhoneReanalysis(store, reanalyseSavedRecording);
 

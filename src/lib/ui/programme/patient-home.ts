@@ -1,5 +1,5 @@
 import { readDeviceProfile, loadFollowedPlans, loadHomeLog, localDayOf, planRunsOn, type FollowedPlan, type HomeLog } from '$lib/programme';
-import type { KinnoteStore } from '$lib/store';
+import { photosOfProgramme, type ExercisePhotoRow, type KinnoteStore } from '$lib/store';
 
 /** What every patient-mode screen reads: the binding, the plans followed and the tick log. */
 export interface PatientHome {
@@ -12,6 +12,8 @@ export interface PatientHome {
   readonly log: HomeLog;
   readonly logDamaged: boolean;
   readonly today: string;
+  /** The exercises' photos, by programme id. */
+  readonly photos: ReadonlyMap<string, readonly ExercisePhotoRow[]>;
 }
 
 /** Today on this phone, as a calendar date in its own time zone. */
@@ -25,6 +27,8 @@ export async function loadPatientHome(store: KinnoteStore): Promise<PatientHome>
   const patient = profile?.mode === 'patient' ? profile : null;
   const plans = patient?.patientId ? await loadFollowedPlans(store, patient.patientId) : [];
   const { log, damaged } = await loadHomeLog(store);
+  const photos = new Map<string, ExercisePhotoRow[]>();
+  for (const p of plans) photos.set(p.programmeId, await photosOfProgramme(store, p.programmeId));
   return {
     store,
     patientId: patient?.patientId ?? null,
@@ -35,6 +39,7 @@ export async function loadPatientHome(store: KinnoteStore): Promise<PatientHome>
     log,
     logDamaged: damaged,
     today: localToday(),
+    photos,
   };
 }
 

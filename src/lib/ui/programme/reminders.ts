@@ -55,7 +55,7 @@ let timers: ReturnType<typeof setTimeout>[] = [];
  * runs once the app is closed (a web page cannot wake itself, and Kinnote has no push server). The
  * reminders screen says exactly this; the Today screen shows a due reminder when it is open.
  */
-export function scheduleReminders(settings: ReminderSettings, nowMs: () => number = () => Date.now()): void {
+export function scheduleReminders(settings: ReminderSettings, body: () => string = () => 'Time for your home exercises.', nowMs: () => number = () => Date.now()): void {
   for (const t of timers) clearTimeout(t);
   timers = [];
   if (!settings.enabled) return;
@@ -68,7 +68,7 @@ export function scheduleReminders(settings: ReminderSettings, nowMs: () => numbe
       if (at.getTime() <= now.getTime()) at.setDate(at.getDate() + 1);
       timers.push(
         setTimeout(() => {
-          void showReminder();
+          void showReminder(body());
           arm();
         }, at.getTime() - now.getTime()),
       );
