@@ -58,7 +58,7 @@ describe('patient overview', () => {
     const first = page.locator('button.row-open').first();
     await first.click();
     await expect.poll(() => first.getAttribute('aria-expanded')).toBe('true');
-    const detail = page.locator('tr.detail');
+    const detail = page.locator('.row-detail');
     await detail.locator('canvas').first().waitFor();
     expect(await detail.locator('p.quiet').first().textContent()).toMatch(/^MDC/);
     const verdict = (await detail.locator('p.verdict').textContent()) ?? '';
