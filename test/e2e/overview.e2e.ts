@@ -4,7 +4,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot, seriousAxeViolations, tablet, waitForSettledPage } from './harness';
+import { inkedCanvasShare } from './app-helpers';
+import { launchChromium, newAppContext, phone, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet, waitForSettledPage } from './harness';
 
 let browser: Browser;
 let context: BrowserContext;
@@ -68,4 +69,33 @@ describe('patient overview', () => {
     await page.setViewportSize(phone);
     await screenshot(page, 'patient-overview-phone');
   }, 120_000);
+
+  it('a saved pendulum trace opens again from its visit: the stored samples are analysed and drawn (360 px and tablet)', async () => {
+    await page.setViewportSize(tablet);
+    let opened = false;
+    for (const path of patientPaths) {
+      await page.goto(path);
+      await page.getByRole('heading', { name: 'Assessments' }).waitFor();
+      await waitForSettledPage(page, `assessments of ${path}`);
+      const link = page.getByRole('link', { name: /^Recorded swing/ }).first();
+      if ((await link.count()) === 0) continue;
+      await link.click();
+      opened = true;
+      break;
+    }
+    expect(opened, 'no demo patient has a saved pendulum trace').toBe(true);
+    await page.getByRole('heading', { name: /^Recorded swing of / }).waitFor();
+    const results = page.locator('section.results');
+    await results.locator('canvas').first().waitFor();
+    await expect.poll(() => inkedCanvasShare(page, 'section.results'), { message: 'waiting for the swing to be drawn' }).toBeGreaterThan(0.01);
+    // Analysed again from the stored samples: the indices are numbers, not placeholders.
+    expect(await results.locator('dt', { hasText: 'Relaxation index R2' }).locator('xpath=../dd/strong').textContent()).toMatch(/^\d\.\d\d$/);
+    expect(await results.textContent()).not.toMatch(/-0(\.0+)?°/);
+    await screenshot(page, 'recorded-swing-tablet');
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await page.setViewportSize(smallPhone);
+    await waitForSettledPage(page, 'recorded swing at 360 px');
+    expect(await reflowProblems(page)).toEqual([]);
+    await screenshot(page, 'recorded-swing-360');
+  }, 180_000);
 });
