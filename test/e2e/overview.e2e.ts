@@ -57,7 +57,7 @@ describe('patient overview', () => {
   it('a tap on a measure opens its chart, a one-sentence verdict and the MDC source; axe finds nothing serious', async () => {
     await page.setViewportSize(tablet);
     await page.goto(patientPaths[0] as string);
-    const first = page.locator('button.row-open').first();
+    const first = page.locator('table.overview tbody tr:not(.group) button.row-open').first();
     await first.click();
     await expect.poll(() => first.getAttribute('aria-expanded')).toBe('true');
     const detail = page.locator('.row-detail');
@@ -98,5 +98,29 @@ describe('patient overview', () => {
     await waitForSettledPage(page, 'recorded swing at 360 px');
     expect(await reflowProblems(page)).toEqual([]);
     await screenshot(page, 'recorded-swing-360');
+  }, 180_000);
+
+  it('the patient with the most rows: groups fold and unfold, axe finds nothing serious, no sideways overflow at 360 px', async () => {
+    await page.setViewportSize(tablet);
+    let best = { path: '', rows: -1 };
+    for (const path of patientPaths) {
+      await page.goto(path);
+      await page.locator('table.overview').waitFor();
+      const rows = await page.locator('table.overview tbody tr').count();
+      if (rows > best.rows) best = { path, rows };
+    }
+    await page.goto(best.path);
+    await page.locator('table.overview').waitFor();
+    const folded = page.locator('tr.group button[aria-expanded="false"]').first();
+    expect(await folded.count(), 'the biggest demo patient has a folded group').toBe(1);
+    const before = await page.locator('table.overview tbody tr').count();
+    await folded.click();
+    await expect.poll(() => page.locator('table.overview tbody tr').count()).toBeGreaterThan(before);
+    await screenshot(page, 'patient-overview-grouped-tablet');
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await page.setViewportSize(smallPhone);
+    await waitForSettledPage(page, 'grouped overview at 360 px');
+    expect(await reflowProblems(page)).toEqual([]);
+    await screenshot(page, 'patient-overview-grouped-360');
   }, 180_000);
 });

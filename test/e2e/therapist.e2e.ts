@@ -138,7 +138,7 @@ describe('therapist on a home visit', () => {
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
-    await page.locator('table.overview tbody tr', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').click();
+    await page.locator('table.overview tbody tr:not(.group)', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').click();
     const card = page.locator('.row-detail');
     await card.locator('canvas').first().waitFor();
     // uPlot draws on the next animation frame: wait until the canvas is inked.
@@ -162,7 +162,7 @@ describe('therapist on a home visit', () => {
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
-    await page.locator('table.overview tbody tr', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').tap();
+    await page.locator('table.overview tbody tr:not(.group)', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').tap();
     const card = page.locator('.row-detail');
     const plot = card.locator('.u-over');
     await plot.waitFor();
@@ -212,7 +212,7 @@ describe('therapist on a home visit', () => {
     await study.getByRole('button', { name: 'Use this MDC for verdicts' }).click();
     await study.getByText(/In use for verdicts since/).waitFor();
     await openFirstPatient(page, { inApp: true });
-    await page.locator('table.overview tbody tr', { hasText: 'ankle dorsiflexion' }).first().locator('button.row-open').click();
+    await page.locator('table.overview tbody tr:not(.group)', { hasText: 'ankle dorsiflexion' }).first().locator('button.row-open').click();
     const card = page.locator('.row-detail');
     await card.waitFor();
     // The study page rounds to 0.1°, the patient page to 0.01°.
