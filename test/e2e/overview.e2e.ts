@@ -1,10 +1,11 @@
-// The patient overview: a table of measures by visit that fits one 1024×768 tablet screen for every
-// demo patient (from the top of the page to the end of the table), prints the page heights for the
+// The patient overview: a table of measures by visit that fits one 1024×768 tablet screen for most
+// demo patients (from the top of the page to the end of the table), prints the page heights for the
 // report, and opens a row into its chart, verdict and MDC line.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot, seriousAxeViolations, tablet, waitForSettledPage } from './harness';
+import { inkedCanvasShare } from './app-helpers';
+import { launchChromium, newAppContext, phone, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet, waitForSettledPage } from './harness';
 
 let browser: Browser;
 let context: BrowserContext;
@@ -45,20 +46,21 @@ describe('patient overview', () => {
       }
     }
     console.log(heights.join('\n'));
-    // The issue's bar: a demo patient's overview fits one tablet screen. Patients with many measured
-    // sites do not yet (see the report); the count that fits is asserted so a regression shows.
+    // The issue's bar: a demo patient's overview fits one tablet screen. Sites are grouped under their
+    // measure and the biggest groups fold (overviewGroups); on 2026-12-03 all 11 fitted (the tallest
+    // ended at 738 px). Asserted for most (4 in 5) so that a font's few pixels on another machine do not fail it.
     const fitting = bottoms.filter((b) => b <= tablet.height).length;
     console.log(`${fitting} of ${bottoms.length} demo patients' overviews fit 1024×768`);
-    expect(fitting).toBeGreaterThanOrEqual(1);
+    expect(fitting).toBeGreaterThanOrEqual(Math.ceil(bottoms.length * 0.8));
   }, 300_000);
 
   it('a tap on a measure opens its chart, a one-sentence verdict and the MDC source; axe finds nothing serious', async () => {
     await page.setViewportSize(tablet);
     await page.goto(patientPaths[0] as string);
-    const first = page.locator('button.row-open').first();
+    const first = page.locator('table.overview tbody tr:not(.group) button.row-open').first();
     await first.click();
     await expect.poll(() => first.getAttribute('aria-expanded')).toBe('true');
-    const detail = page.locator('tr.detail');
+    const detail = page.locator('.row-detail');
     await detail.locator('canvas').first().waitFor();
     expect(await detail.locator('p.quiet').first().textContent()).toMatch(/^MDC/);
     const verdict = (await detail.locator('p.verdict').textContent()) ?? '';
@@ -68,4 +70,57 @@ describe('patient overview', () => {
     await page.setViewportSize(phone);
     await screenshot(page, 'patient-overview-phone');
   }, 120_000);
+
+  it('a saved pendulum trace opens again from its visit: the stored samples are analysed and drawn (360 px and tablet)', async () => {
+    await page.setViewportSize(tablet);
+    let opened = false;
+    for (const path of patientPaths) {
+      await page.goto(path);
+      await page.getByRole('heading', { name: 'Assessments' }).waitFor();
+      await waitForSettledPage(page, `assessments of ${path}`);
+      const link = page.getByRole('link', { name: /^Recorded swing/ }).first();
+      if ((await link.count()) === 0) continue;
+      await link.click();
+      opened = true;
+      break;
+    }
+    expect(opened, 'no demo patient has a saved pendulum trace').toBe(true);
+    await page.getByRole('heading', { name: /^Recorded swing of / }).waitFor();
+    const results = page.locator('section.results');
+    await results.locator('canvas').first().waitFor();
+    await expect.poll(() => inkedCanvasShare(page, 'section.results'), { message: 'waiting for the swing to be drawn' }).toBeGreaterThan(0.01);
+    // Analysed again from the stored samples: the indices are numbers, not placeholders.
+    expect(await results.locator('dt', { hasText: 'Relaxation index R2' }).locator('xpath=../dd/strong').textContent()).toMatch(/^\d\.\d\d$/);
+    expect(await results.textContent()).not.toMatch(/-0(\.0+)?°/);
+    await screenshot(page, 'recorded-swing-tablet');
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await page.setViewportSize(smallPhone);
+    await waitForSettledPage(page, 'recorded swing at 360 px');
+    expect(await reflowProblems(page)).toEqual([]);
+    await screenshot(page, 'recorded-swing-360');
+  }, 180_000);
+
+  it('the patient with the most rows: groups fold and unfold, axe finds nothing serious, no sideways overflow at 360 px', async () => {
+    await page.setViewportSize(tablet);
+    let best = { path: '', rows: -1 };
+    for (const path of patientPaths) {
+      await page.goto(path);
+      await page.locator('table.overview').waitFor();
+      const rows = await page.locator('table.overview tbody tr').count();
+      if (rows > best.rows) best = { path, rows };
+    }
+    await page.goto(best.path);
+    await page.locator('table.overview').waitFor();
+    const folded = page.locator('tr.group button[aria-expanded="false"]').first();
+    expect(await folded.count(), 'the biggest demo patient has a folded group').toBe(1);
+    const before = await page.locator('table.overview tbody tr').count();
+    await folded.click();
+    await expect.poll(() => page.locator('table.overview tbody tr').count()).toBeGreaterThan(before);
+    await screenshot(page, 'patient-overview-grouped-tablet');
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await page.setViewportSize(smallPhone);
+    await waitForSettledPage(page, 'grouped overview at 360 px');
+    expect(await reflowProblems(page)).toEqual([]);
+    await screenshot(page, 'patient-overview-grouped-360');
+  }, 180_000);
 });

@@ -138,13 +138,13 @@ describe('therapist on a home visit', () => {
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
-    await page.locator('table.overview tbody tr', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').click();
-    const card = page.locator('tr.detail');
+    await page.locator('table.overview tbody tr:not(.group)', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').click();
+    const card = page.locator('.row-detail');
     await card.locator('canvas').first().waitFor();
     // uPlot draws on the next animation frame: wait until the canvas is inked.
-    await expect.poll(() => inkedCanvasShare(page, 'tr.detail'), { message: 'waiting for the progress chart to be drawn', timeout: 20_000 }).toBeGreaterThan(0.005);
+    await expect.poll(() => inkedCanvasShare(page, '.row-detail'), { message: 'waiting for the progress chart to be drawn', timeout: 20_000 }).toBeGreaterThan(0.005);
     // The band is drawn in the band colour (rgb 91,155,184 at partial alpha).
-    expect(await pixelsNear(page, 'tr.detail', [91, 155, 184])).toBeGreaterThan(500);
+    expect(await pixelsNear(page, '.row-detail', [91, 155, 184])).toBeGreaterThan(500);
     await screenshot(page, 'progress-chart-phone');
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export CSV' }).click()]);
@@ -162,16 +162,36 @@ describe('therapist on a home visit', () => {
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
-    await page.locator('table.overview tbody tr', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').tap();
-    const card = page.locator('tr.detail');
+    await page.locator('table.overview tbody tr:not(.group)', { hasText: 'Modified Ashworth' }).first().locator('button.row-open').tap();
+    const card = page.locator('.row-detail');
     const plot = card.locator('.u-over');
     await plot.waitFor();
     const box = (await plot.boundingBox())!;
     await page.touchscreen.tap(box.x + box.width - 4, box.y + box.height / 2);
     const tip = card.locator('.tip');
     await tip.waitFor();
-    expect(await tip.textContent()).toMatch(/\d{4}\n(0|1\+?|2|3|4)$/);
+    // The nearest *measured* point (the last visit, at the right edge): its date and grade as the table lists them.
+    const lastRow = card.locator('details.as-table tbody tr').last();
+    const [date, grade] = (await lastRow.locator('td').allTextContents()) as [string, string];
+    expect(await tip.textContent()).toBe(`${date}\n${grade}`);
+    expect(grade).toMatch(/^(0|1\+?|2|3|4)$/);
+    // A tap's trailing emulated mouse events (mouseleave among them) once cleared it: it stays until the next tap.
+    await plot.dispatchEvent('mouseleave');
+    await plot.dispatchEvent('mouseout');
+    expect(await tip.isVisible()).toBe(true);
+    // The box never covers the point it describes (the ring drawn around it).
+    const ring = (await card.locator('.ring').boundingBox())!;
+    const tipBox = (await tip.boundingBox())!;
+    const [cx, cy] = [ring.x + ring.width / 2, ring.y + ring.height / 2];
+    expect(cx >= tipBox.x && cx <= tipBox.x + tipBox.width && cy >= tipBox.y && cy <= tipBox.y + tipBox.height).toBe(false);
+    // Inside the page at 360 px, not cut off at the right edge.
+    expect(tipBox.x + tipBox.width).toBeLessThanOrEqual(360);
     await card.screenshot({ path: 'test-output/screenshots/progress-chart-touch-360.png' });
+    // Another tap (near the first visit, at the left edge) moves it there.
+    await page.touchscreen.tap(box.x + 4, box.y + box.height / 2);
+    const firstRow = card.locator('details.as-table tbody tr').first();
+    const [firstDate] = (await firstRow.locator('td').allTextContents()) as [string];
+    await expect.poll(() => tip.textContent()).toMatch(new RegExp(`^${firstDate}\n`));
     await context.close();
   });
 
@@ -192,8 +212,8 @@ describe('therapist on a home visit', () => {
     await study.getByRole('button', { name: 'Use this MDC for verdicts' }).click();
     await study.getByText(/In use for verdicts since/).waitFor();
     await openFirstPatient(page, { inApp: true });
-    await page.locator('table.overview tbody tr', { hasText: 'ankle dorsiflexion' }).first().locator('button.row-open').click();
-    const card = page.locator('tr.detail');
+    await page.locator('table.overview tbody tr:not(.group)', { hasText: 'ankle dorsiflexion' }).first().locator('button.row-open').click();
+    const card = page.locator('.row-detail');
     await card.waitFor();
     // The study page rounds to 0.1°, the patient page to 0.01°.
     const line = (await card.locator('p.quiet').first().textContent()) ?? '';

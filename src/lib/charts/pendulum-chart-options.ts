@@ -1,4 +1,5 @@
 import type uPlot from 'uplot';
+import { formatFixed } from '$lib/domain';
 import type { PendulumAnalysis } from '$lib/pendulum';
 import { minMaxDecimate } from './min-max-decimate';
 import { chartColours, chartDashes } from './palette';
@@ -12,12 +13,17 @@ export interface FittedCurve {
   readonly phaseRad: number;
 }
 
+/** Seconds of the settled leg shown after rest onset. */
+export const PENDULUM_REST_SHOWN_S = 1;
+
 /** Columns for the pendulum chart: time from release (s), angle, and the fitted curve (or nulls). */
 export function pendulumChartData(analysis: PendulumAnalysis, fit: FittedCurve | null, maxPoints = 1600): uPlot.AlignedData {
   const s = analysis.signals;
   const fs = s.sampleRateHz;
+  // Half a second of the hold before release, the swing, and one second of rest once the leg has settled:
+  // the rest plateau can run on for many seconds and would squeeze the swing into the left edge.
   const first = Math.max(0, Math.floor(s.releaseIndex - 0.5 * fs));
-  const last = Math.min(s.angleDeg.length, Math.ceil(s.restEndIndex) + 1);
+  const last = Math.min(s.angleDeg.length, Math.ceil(s.restEndIndex) + 1, Math.ceil(s.restOnsetIndex + PENDULUM_REST_SHOWN_S * fs) + 1);
   const kept = minMaxDecimate(s.angleDeg, first, last, Math.max(1, maxPoints >> 1));
   const n = kept.length;
   const xs = new Float64Array(n);
@@ -116,8 +122,8 @@ function drawMarkers(u: uPlot, analysis: PendulumAnalysis): void {
   const i = analysis.indices;
   const ctx = u.ctx;
   const ratio = devicePixelRatio;
-  horizontalLine(u, i.restAngleDeg, chartColours.rest, [], `rest ${i.restAngleDeg.toFixed(0)}°`);
-  horizontalLine(u, i.startAngleDeg, chartColours.event, chartDashes.event, `start ${i.startAngleDeg.toFixed(0)}°`);
+  horizontalLine(u, i.restAngleDeg, chartColours.rest, [], `rest ${formatFixed(i.restAngleDeg, 0)}°`);
+  horizontalLine(u, i.startAngleDeg, chartColours.event, chartDashes.event, `start ${formatFixed(i.startAngleDeg, 0)}°`);
   // Release: a vertical line at t = 0.
   const x0 = u.valToPos(0, 'x', true);
   ctx.save();
@@ -145,10 +151,22 @@ function drawMarkers(u: uPlot, analysis: PendulumAnalysis): void {
   ctx.closePath();
   ctx.fill();
   ctx.stroke();
+  // The label sits beside the diamond inside the plot: right of it, or left near the right edge; above
+  // it, or below when the peak is near the top. It never reaches the axis labels or the canvas edge.
   ctx.fillStyle = chartColours.value;
   ctx.font = `600 ${12 * ratio}px system-ui, sans-serif`;
-  ctx.textBaseline = 'bottom';
-  ctx.fillText(`first peak ${i.firstPeakDeg.toFixed(0)}°`, px + r + 2 * ratio, py - 2 * ratio);
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'alphabetic';
+  const text = `first peak ${formatFixed(i.firstPeakDeg, 0)}°`;
+  const textWidth = ctx.measureText(text).width;
+  const textHeight = 12 * ratio;
+  const { left, top, width } = u.bbox;
+  let tx = px + r + 3 * ratio;
+  if (tx + textWidth > left + width) tx = px - r - 3 * ratio - textWidth;
+  tx = Math.max(left + 2 * ratio, Math.min(tx, left + width - textWidth));
+  const above = py - r - 2 * ratio;
+  const ty = above - textHeight >= top ? above : py + r + 2 * ratio + textHeight;
+  ctx.fillText(text, tx, ty);
   ctx.restore();
 }
 
@@ -159,20 +177,29 @@ export function pendulumChartOptions(analysis: PendulumAnalysis, width: number, 
     height,
     legend: { show: true, live: false },
     cursor: { drag: { x: false, y: false } },
-    scales: { x: { time: false } },
+    scales: {
+      x: { time: false },
+      // Room above and below the swing for the peak's label and the line labels.
+      y: {
+        range: (_u, min, max) => {
+          const pad = Math.max(3, (max - min) * 0.14);
+          return [min - pad, max + pad];
+        },
+      },
+    },
     axes: [
       {
         stroke: chartColours.axis,
         grid: { stroke: chartColours.grid },
         ticks: { stroke: chartColours.grid },
-        values: (_u, splits) => splits.map((s) => `${s} s`),
+        values: (_u, splits) => splits.map((s) => `${Number(formatFixed(s, 3))} s`),
       },
       {
         stroke: chartColours.axis,
         grid: { stroke: chartColours.grid },
         ticks: { stroke: chartColours.grid },
         size: 52,
-        values: (_u, splits) => splits.map((s) => `${s}°`),
+        values: (_u, splits) => splits.map((s) => `${formatFixed(s, 0)}°`),
       },
     ],
     series: [

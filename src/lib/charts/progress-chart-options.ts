@@ -1,4 +1,5 @@
 import type uPlot from 'uplot';
+import { layoutEventLabels } from './event-label-layout';
 import { chartColours, chartDashes } from './palette';
 
 /** What a progress chart shows: one measure at one site over time. Values of ordinal scales are ranks. */
@@ -86,33 +87,59 @@ function drawBandAndBaseline(u: uPlot, input: ProgressChartInput): void {
   ctx.restore();
 }
 
+const labelFontPx = 12;
+const labelRowPx = 15;
+const labelGapPx = 6;
+/** A generous average glyph width of the label font, to reserve rows before the canvas can measure. */
+const labelCharPx = 7.2;
+
+/** Events inside the charted time range, sorted by time. */
+function visibleEvents(input: ProgressChartInput): { timeMs: number; label: string }[] {
+  const times = input.timesMs;
+  if (times.length === 0) return [];
+  const first = Math.min(...times);
+  const last = Math.max(...times);
+  return (input.events ?? []).filter((e) => e.timeMs >= first && e.timeMs <= last).sort((a, b) => a.timeMs - b.timeMs);
+}
+
+/** Rows of event labels the chart reserves above the plot, estimated from the label lengths. */
+function estimatedLabelRows(input: ProgressChartInput, plotLeftPx: number, plotWidthPx: number): number {
+  const events = visibleEvents(input);
+  if (events.length === 0) return 0;
+  const first = Math.min(...input.timesMs);
+  const span = Math.max(1, Math.max(...input.timesMs) - first);
+  const items = events.map((e) => ({ x: plotLeftPx + ((e.timeMs - first) / span) * plotWidthPx, width: e.label.length * labelCharPx }));
+  return layoutEventLabels(items, plotLeftPx, plotLeftPx + plotWidthPx, labelGapPx).rows;
+}
+
+/** Event lines across the plot, their full labels in rows above it (never over the axis labels or each other). */
 function drawEvents(u: uPlot, input: ProgressChartInput): void {
-  const events = input.events ?? [];
+  const events = visibleEvents(input);
   if (events.length === 0) return;
   const ctx = u.ctx;
-  const { top, height, left, width } = u.bbox;
   const ratio = devicePixelRatio;
+  const { top, height, left, width } = u.bbox;
   ctx.save();
+  ctx.font = `${labelFontPx * ratio}px system-ui, sans-serif`;
+  const items = events.map((e) => ({ x: u.valToPos(e.timeMs / 1000, 'x', true) / ratio, width: ctx.measureText(e.label).width / ratio }));
+  const { placed } = layoutEventLabels(items, left / ratio, (left + width) / ratio, labelGapPx);
   ctx.strokeStyle = chartColours.event;
   ctx.fillStyle = chartColours.event;
   ctx.lineWidth = 1.5 * ratio;
   ctx.setLineDash(chartDashes.event.map((d) => d * ratio));
-  ctx.font = `${12 * ratio}px system-ui, sans-serif`;
-  ctx.textBaseline = 'top';
-  let row = 0;
-  for (const event of events) {
-    const x = u.valToPos(event.timeMs / 1000, 'x', true);
-    if (x < left - 1 || x > left + width + 1) continue;
+  // uPlot leaves its own alignment on the context (its axis labels are centred or right-aligned).
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'bottom';
+  events.forEach((event, i) => {
+    const x = (items[i] as { x: number }).x * ratio;
+    const place = placed[i] as { left: number; row: number };
+    const labelBottom = top - place.row * labelRowPx * ratio - 2 * ratio;
     ctx.beginPath();
-    ctx.moveTo(x, top);
+    ctx.moveTo(x, labelBottom - labelFontPx * ratio);
     ctx.lineTo(x, top + height);
     ctx.stroke();
-    // Labels alternate rows so that close events stay readable; they flip left near the right edge.
-    const textWidth = ctx.measureText(event.label).width;
-    const textX = x + textWidth + 4 * ratio > left + width ? x - textWidth - 3 * ratio : x + 3 * ratio;
-    ctx.fillText(event.label, textX, top + 2 * ratio + row * 14 * ratio);
-    row = (row + 1) % 2;
-  }
+    ctx.fillText(event.label, place.left * ratio, labelBottom);
+  });
   ctx.restore();
 }
 
@@ -122,10 +149,14 @@ export function progressChartOptions(input: ProgressChartInput, width: number, h
   const unit = input.unitLabel;
   const formatValue = (v: number) =>
     ordinal ? (ordinal[Math.round(v)] ?? '') : `${Number.isInteger(v) ? v : v.toFixed(1)}${unit}`;
+  const yAxisPx = ordinal ? 44 : 50;
+  const labelRows = estimatedLabelRows(input, yAxisPx, width - yAxisPx - 12);
   return {
     width,
-    height,
-    legend: { show: true, live: false },
+    height: height + labelRows * labelRowPx,
+    // The key is drawn by the component (it names the MDC band, which is no series).
+    legend: { show: false },
+    ...(labelRows > 0 ? { padding: [labelRows * labelRowPx + 8, null, null, null] as uPlot.Padding } : {}),
     cursor: { drag: { x: false, y: false }, points: { size: 10 } },
     scales: {
       x: { time: true },
@@ -137,7 +168,7 @@ export function progressChartOptions(input: ProgressChartInput, width: number, h
         stroke: chartColours.axis,
         grid: { stroke: chartColours.grid },
         ticks: { stroke: chartColours.grid },
-        size: ordinal ? 44 : 50,
+        size: yAxisPx,
         ...(ordinal
           ? {
               splits: () => ordinal.map((_, i) => i),

@@ -32,6 +32,8 @@ const TARDIEU_SITES: readonly MeasureSite[] = [
 ];
 
 const WHOLE_PERSON: readonly MeasureSite[] = [{ code: 'whole-body', label: 'Whole body' }];
+/** The pendulum test's indices are one panel in overviews. */
+const PENDULUM_PANEL = 'Pendulum test';
 const KNEE: readonly MeasureSite[] = [{ code: 'knee', label: 'Knee (leg-drop pendulum)' }];
 
 /** Modified Ashworth grades, paraphrased; ranks as REFERENCES.md §9a lists the ordinal codes. */
@@ -111,6 +113,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
   },
   {
     code: 'pendulum-ri',
+    panel: { label: PENDULUM_PANEL, shortLabel: 'Relaxation index (R2)' },
     label: 'Pendulum relaxation index (R2)',
     description: 'First swing excursion divided by the excursion from start to rest, A1/A0.',
     kind: 'index',
@@ -132,6 +135,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
   },
   {
     code: 'pendulum-ri-normalised',
+    panel: { label: PENDULUM_PANEL, shortLabel: 'Normalised relaxation index (R2n)' },
     label: 'Pendulum normalised relaxation index (R2n)',
     description: 'Relaxation index divided by 1.6, so a typical non-spastic knee scores about 1.',
     kind: 'index',
@@ -149,6 +153,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
   },
   {
     code: 'pendulum-first-swing',
+    panel: { label: PENDULUM_PANEL, shortLabel: 'First swing excursion (A1)' },
     label: 'Pendulum first swing excursion (A1)',
     description: 'Angle swept from release to the first reversal of the first swing.',
     kind: 'angle',
@@ -166,6 +171,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
   },
   {
     code: 'pendulum-resting-angle',
+    panel: { label: PENDULUM_PANEL, shortLabel: 'Resting angle' },
     label: 'Pendulum resting angle',
     description: 'Knee flexion angle at rest once the swings die out (0° = full extension).',
     kind: 'angle',
@@ -183,6 +189,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
   },
   {
     code: 'pendulum-swing-count',
+    panel: { label: PENDULUM_PANEL, shortLabel: 'Number of swings' },
     label: 'Pendulum number of swings',
     description: 'Number of oscillations before the leg comes to rest.',
     kind: 'count',

@@ -62,6 +62,11 @@ interface MeasureCommon {
   readonly definitionSource: string;
   /** Shown beside results where a misreading is likely. */
   readonly caution: string | null;
+  /**
+   * Measures that come from one test (the pendulum test's indices) share a panel: overviews list them
+   * together under its name, with `shortLabel` for each row.
+   */
+  readonly panel?: { readonly label: string; readonly shortLabel: string };
 }
 
 export interface OrdinalGrade {

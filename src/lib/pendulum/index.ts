@@ -6,6 +6,7 @@ export { analysePendulumCsv } from './analyse-pendulum-csv';
 export { parsePendulumCsv, ANGLE_LIMITS_DEG } from './parse-pendulum-csv';
 export type { PendulumTrace } from './parse-pendulum-csv';
 export { PendulumInputError } from './pendulum-input-error';
+export { pendulumInputFromTrace, type StoredTraceColumns } from './pendulum-input-from-trace';
 export { pendulumObservations, type PendulumObservation } from './pendulum-observations';
 export type {
   PendulumAnalysis,

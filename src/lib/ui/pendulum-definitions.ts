@@ -1,8 +1,9 @@
+import { formatFixed } from '$lib/domain';
 import type { PendulumIndices } from '$lib/pendulum';
 
 /** The indices shown after a pendulum test, each with a one-line definition in plain words. */
 export function pendulumIndexRows(i: PendulumIndices): Array<{ label: string; value: string; definition: string }> {
-  const deg = (v: number | null) => (v === null ? '–' : `${v.toFixed(1)}°`);
+  const deg = (v: number | null) => (v === null ? '–' : `${formatFixed(v, 1)}°`);
   const fit = i.fit;
   return [
     { label: 'Relaxation index R2', value: i.relaxationIndex.toFixed(2), definition: 'First swing (A1) divided by the drop from start to rest (A0); about 1.6 in relaxed legs, lower when the swing is caught.' },
