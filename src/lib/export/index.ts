@@ -47,6 +47,7 @@ export {
 export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS, type PatientCsvOptions } from './patient-observations-csv';
 export { localDateTime, type LocalDateTime } from './local-date-time';
 export {
+  clinicianLabel,
   referralReport,
   ReferralReportError,
   REPORT_CAUTIONS,

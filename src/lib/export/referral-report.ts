@@ -201,6 +201,12 @@ function mdcNote(s: OutcomeSeries, mdc: MdcProvenance | null, note: string | nul
   }
 }
 
+/** "Ada Fenwick (physiotherapist)"; a display name that already names the profession is kept as it is. */
+export function clinicianLabel(c: Pick<Clinician, 'displayName' | 'profession'>): string {
+  const profession = c.profession.replace(/-/g, ' ');
+  return c.displayName.toLowerCase().includes(profession) ? c.displayName : `${c.displayName} (${profession})`;
+}
+
 function intervention(e: ClinicalEvent): ReportIntervention {
   return { day: e.occurredOn, label: EVENT_KIND_LABELS[e.kind], side: e.side, muscles: e.muscles, dose: e.dose, summary: e.summary };
 }
@@ -361,7 +367,7 @@ export function referralReport(input: ReferralReportInput): ReferralReport {
     .sort((a, b) => (a.occurredOn < b.occurredOn ? -1 : a.occurredOn > b.occurredOn ? 1 : a.id < b.id ? -1 : 1))
     .map(intervention);
 
-  const clinicianName = new Map(input.clinicians.map((c) => [c.id, `${c.displayName} (${c.profession.replace(/-/g, ' ')})`]));
+  const clinicianName = new Map(input.clinicians.map((c) => [c.id, clinicianLabel(c)]));
   const visits: ReportVisit[] = input.assessments
     .filter((a) => !a.deleted && inWindow(dayOf(a.performedAt)))
     .sort((a, b) => (a.performedAt < b.performedAt ? -1 : 1))

@@ -92,7 +92,8 @@ const input: ReferralReportInput = {
   assessments,
   clinicians: [
     { id: 'c1', displayName: 'Ada Fenwick', profession: 'physiotherapist' },
-    { id: 'c2', displayName: 'Bo Lindqvist', profession: 'physician' },
+    // A display name that already names the profession is not given it twice.
+    { id: 'c2', displayName: 'Bo Lindqvist (physician)', profession: 'physician' },
   ],
   adherence,
   scope: { kind: 'since-event', eventId: 'bont', throughDay: '2026-04-30' },
