@@ -64,6 +64,8 @@ describe('report for the referring clinician', () => {
     await waitForSettledPage(page, 'report at 360 px');
     expect(await reflowProblems(page)).toEqual([]);
     await screenshot(page, 'report-360');
+    const top = await page.evaluate(() => (document.querySelector('article.report') as HTMLElement).getBoundingClientRect().top + window.scrollY);
+    await page.screenshot({ path: join(screenshotDir, 'report-360-measures.png'), fullPage: true, clip: { x: 0, y: top, width: 360, height: 1000 } });
     expect(await seriousAxeViolations(page)).toEqual([]);
     await page.setViewportSize(tablet);
   }, 60_000);
