@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { openFirstPatient, setUpDevice, unlockVault } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, screenshot, screenshotDir, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
 
 let browser: Browser;
 let context: BrowserContext;
@@ -67,6 +67,13 @@ describe('report for the referring clinician', () => {
     const top = await page.evaluate(() => (document.querySelector('article.report') as HTMLElement).getBoundingClientRect().top + window.scrollY);
     await page.screenshot({ path: join(screenshotDir, 'report-360-measures.png'), fullPage: true, clip: { x: 0, y: top, width: 360, height: 1000 } });
     expect(await seriousAxeViolations(page)).toEqual([]);
+    // 200 % text at 360 px still reflows (WCAG 2.2 1.4.4 and 1.4.10).
+    await setTextScale(page, 2);
+    await expect.poll(() => rootFontPx(page)).toBe(32);
+    await waitForSettledPage(page, 'report at 360 px, 200 % text');
+    expect(await reflowProblems(page)).toEqual([]);
+    await screenshot(page, 'report-360-text-200');
+    await setTextScale(page, 1);
     await page.setViewportSize(tablet);
   }, 60_000);
 
