@@ -52,3 +52,16 @@ export const EventSchema = v.pipe(
   ),
 );
 export type ClinicalEvent = v.InferOutput<typeof EventSchema>;
+
+/** Each kind of intervention in plain words, for pages, reports and letters. */
+export const EVENT_KIND_LABELS: Readonly<Record<EventKind, string>> = {
+  'botulinum-toxin-injection': 'Botulinum toxin injection',
+  'serial-casting': 'Serial casting',
+  orthosis: 'Orthosis',
+  'intrathecal-pump-change': 'Intrathecal pump change',
+  'oral-medication-change': 'Oral medication change',
+  surgery: 'Surgery',
+  'therapy-block-start': 'Therapy block starts',
+  'therapy-block-end': 'Therapy block ends',
+  other: 'Other',
+};

@@ -17,7 +17,7 @@ export { CONDITION_CATEGORIES, PATIENT_STATUSES, PatientSchema, patientCode, typ
 export { IdentityFieldsSchema, IdentitySchema, type Identity, type IdentityFields } from './identity';
 export { ClinicianSchema, PROFESSIONS, type Clinician } from './clinician';
 export { DeviceSchema, type Device } from './device';
-export { EVENT_KINDS, EVENT_SIDES, EventSchema, type ClinicalEvent, type EventKind } from './event';
+export { EVENT_KIND_LABELS, EVENT_KINDS, EVENT_SIDES, EventSchema, type ClinicalEvent, type EventKind } from './event';
 export { ASSESSMENT_SETTINGS, AssessmentConditionsSchema, AssessmentSchema, POSITIONS, type Assessment } from './assessment';
 export {
   INSTRUMENTS,

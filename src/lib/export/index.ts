@@ -46,3 +46,20 @@ export {
 } from './export-cohort';
 export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS, type PatientCsvOptions } from './patient-observations-csv';
 export { localDateTime, type LocalDateTime } from './local-date-time';
+export {
+  clinicianLabel,
+  referralReport,
+  ReferralReportError,
+  REPORT_CAUTIONS,
+  type ReferralReport,
+  type ReferralReportInput,
+  type ReportAdherence,
+  type ReportAdherenceWeek,
+  type ReportChart,
+  type ReportIntervention,
+  type ReportMeasure,
+  type ReportScope,
+  type ReportVerdict,
+  type ReportVisit,
+} from './referral-report';
+export { reportChartGeometry, type ChartBox, type ChartGeometry } from './report-chart-geometry';
