@@ -1,5 +1,7 @@
 import type { Dexie, Transaction } from 'dexie';
-import { doseFromLegacyLine, type ExerciseDose } from '../domain';
+import { doseFromLegacyLine, type ExerciseDose, type Observation, type Patient } from '../domain';
+import type { AdoptableStudy, SummaryAssessment } from '../stats';
+import { CASELOAD_SUMMARIES_TABLE, allSummaryRows } from './caseload-summaries';
 
 /**
  * Every schema version the app has shipped, oldest first. A version is never edited once released:
@@ -93,6 +95,23 @@ async function upgradeToV6(tx: Transaction): Promise<void> {
     });
 }
 
+/**
+ * Version 10 (7 to 9 are assigned to other changes and may be absent): a `caseloadSummaries` table,
+ * one row per patient keyed by patientId (caseload-summaries.ts: kept up to date in the transaction
+ * of every write, so the caseload reads one small row per patient), built here for every patient.
+ * Observations get their `updatedAt` index back: version 5 dropped it, but a team sync reads the
+ * records changed since its last push through it (sync/team-sync.ts).
+ */
+async function upgradeToV10(tx: Transaction): Promise<void> {
+  const [patients, assessments, observations, studies] = await Promise.all([
+    tx.table<Patient>('patients').toArray(),
+    tx.table<SummaryAssessment>('assessments').toArray(),
+    tx.table<Observation>('observations').toArray(),
+    tx.table<AdoptableStudy>('reliabilityStudies').toArray(),
+  ]);
+  await tx.table(CASELOAD_SUMMARIES_TABLE).bulkPut(allSummaryRows(patients, assessments, observations, studies));
+}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -124,6 +143,15 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { homeProgrammes: V1_STORES.homeProgrammes },
     upgrade: upgradeToV6,
     summary: 'homeProgrammes.items[].dose: structured dose read from Kinnote-written dosage lines, free text kept as written',
+  },
+  {
+    version: 10,
+    stores: {
+      [CASELOAD_SUMMARIES_TABLE]: 'patientId',
+      observations: 'id, patientId, updatedAt, [patientId+measureCode+takenAt]',
+    },
+    upgrade: upgradeToV10,
+    summary: 'caseloadSummaries table (one row per patient, kept on write), built for every patient; observations.updatedAt index back for team sync',
   },
 ];
 

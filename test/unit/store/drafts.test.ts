@@ -6,6 +6,7 @@ import { planToProgrammeInput } from '../../../src/lib/programme';
 import { EMPTY_DOSE } from '../../../src/lib/domain';
 import {
   CHANGED_ELSEWHERE,
+  LATEST_SCHEMA_VERSION,
   LEGACY_TAB_ID,
   declareSchema,
   draftId,
@@ -121,7 +122,7 @@ describe('schema v4 and the move from localStorage', () => {
     old.close();
 
     const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: TEST_ITERATIONS, idleTimeoutMs: null, now: steppingClock() });
-    expect(store.db.verno).toBe(4);
+    expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
     expect(await store.patients.get(patient.id)).toEqual(patient);
     expect(store.db.table('drafts').schema.indexes.map((i) => i.name)).toEqual(['[form+subjectId]']);
 

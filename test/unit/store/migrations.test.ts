@@ -92,7 +92,8 @@ describe('schema migrations', () => {
     const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
     expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
     const names = (table: string) => new Set(store.db.backendDB().transaction(table).objectStore(table).indexNames);
-    expect(names('observations')).toEqual(new Set(['patientId', '[patientId+measureCode+takenAt]']));
+    // assessmentId and measureCode stay dropped; version 10 brought updatedAt back (team sync reads it).
+    expect(names('observations')).toEqual(new Set(['patientId', 'updatedAt', '[patientId+measureCode+takenAt]']));
     expect(names('audit')).toEqual(new Set(['createdAt', '[table+recordId]']));
     expect(await store.observations.list()).toEqual(observations);
     expect(await store.assessments.list()).toEqual(rows.assessments);
