@@ -22,18 +22,39 @@ import { toStoreError } from './store-error';
  */
 export const CASELOAD_SUMMARIES_TABLE = 'caseloadSummaries';
 
-/** A stored summary: the patient record itself, so the caseload reads this one table. */
+/** The patient fields the caseload shows and filters on (kept small: every field costs on each read). */
+export type CaseloadPatient = Pick<Patient, 'id' | 'code' | 'status' | 'deleted'>;
+
+/**
+ * The caseload's default order as an index key: active patients first, by last assessment (so by
+ * next due date: last + one review interval), never assessed after them, then by code; then paused,
+ * discharged, tombstoned. Stale marks sort before everything (group -1), so reading the first rows
+ * of this index always meets a stale mark if there is one. Codes are ASCII, so IndexedDB's
+ * code-unit order is the caseload's code order.
+ */
+export type CaseloadOrder = readonly [group: number, lastAssessmentMs: number, code: string];
+const GROUP_BY_STATUS: Readonly<Record<Patient['status'], number>> = { active: 0, paused: 1, discharged: 2 };
+const TOMBSTONED_GROUP = 3;
+const STALE_GROUP = -1;
+
+function caseloadOrder(patient: CaseloadPatient, lastAssessmentMs: number | null): CaseloadOrder {
+  return [patient.deleted ? TOMBSTONED_GROUP : GROUP_BY_STATUS[patient.status], lastAssessmentMs ?? Infinity, patient.code];
+}
+
+/** A stored summary, with what the caseload needs of the patient record, so it reads this one table. */
 export interface CaseloadSummaryRow extends CaseloadSummary {
   readonly patientId: string;
-  readonly patient: Patient;
+  readonly patient: CaseloadPatient;
   /** caseloadSummaryBasis of the adopted MDCs it was computed with. */
   readonly basis: string;
+  readonly order: CaseloadOrder;
 }
 
 /** A stale summary: to be recomputed before use. */
 interface StaleMark {
   readonly patientId: string;
   readonly basis: null;
+  readonly order: CaseloadOrder;
 }
 type StoredSummary = CaseloadSummaryRow | StaleMark;
 
@@ -128,7 +149,7 @@ async function markStale(keeper: Keeper, down: DBCore, trans: DBCoreTransaction,
   for (const id of patientIds) {
     if (pending.has(id)) continue;
     pending.add(id);
-    fresh.push({ patientId: id, basis: null });
+    fresh.push({ patientId: id, basis: null, order: [STALE_GROUP, 0, id] });
   }
   if (fresh.length > 0) await summaries.mutate({ type: 'put', trans, values: fresh });
 }
@@ -179,12 +200,11 @@ export function summaryRows(
 ): CaseloadSummaryRow[] {
   const localMdc = adoptedLocalMdc(studies);
   const basis = caseloadSummaryBasis(localMdc);
-  return patients.map((patient) => ({
-    patientId: patient.id,
-    patient,
-    basis,
-    ...caseloadSummary(assessmentsByPatient.get(patient.id) ?? [], observationsByPatient.get(patient.id) ?? [], localMdc),
-  }));
+  return patients.map((p) => {
+    const patient: CaseloadPatient = { id: p.id, code: p.code, status: p.status, deleted: p.deleted };
+    const summary = caseloadSummary(assessmentsByPatient.get(p.id) ?? [], observationsByPatient.get(p.id) ?? [], localMdc);
+    return { patientId: p.id, patient, basis, order: caseloadOrder(patient, summary.lastAssessmentMs), ...summary };
+  });
 }
 
 /** Builds every summary from whole tables (the schema upgrade, and the reader's full rebuild). */
@@ -268,6 +288,32 @@ export async function readCaseloadSummaries(db: Dexie): Promise<CaseloadSummaryR
         await recompute(keeper.down as DBCore, tx.idbtrans as unknown as DBCoreTransaction, now.complete ? now.stale : 'all');
       }
       return live(await db.table<StoredSummary>(CASELOAD_SUMMARIES_TABLE).toArray());
+    });
+  } catch (error) {
+    throw toStoreError(error, 'reading the caseload');
+  }
+}
+
+/**
+ * The first `limit` rows of the caseload's default view (live active patients, soonest due first,
+ * then never assessed, by code) from the summaries' order index: a read whose cost does not grow
+ * with the caseload, so the first screen paints at once. Null when any summary is stale or was made
+ * under other adopted MDCs (then only the full read, readCaseloadSummaries, is right). Throws StoreError.
+ */
+export async function readFirstCaseloadRows(db: Dexie, limit: number): Promise<CaseloadSummaryRow[] | null> {
+  try {
+    return await db.transaction('r', [CASELOAD_SUMMARIES_TABLE, 'reliabilityStudies'], async () => {
+      const [rows, studies] = await Promise.all([
+        db
+          .table<StoredSummary>(CASELOAD_SUMMARIES_TABLE)
+          .where('order')
+          .between([STALE_GROUP, -Infinity, ''], [GROUP_BY_STATUS.active, Infinity, '\uffff'], true, true)
+          .limit(limit)
+          .toArray(),
+        db.table<AdoptableStudy>('reliabilityStudies').toArray(),
+      ]);
+      const basis = caseloadSummaryBasis(adoptedLocalMdc(studies));
+      return rows.every((r): r is CaseloadSummaryRow => r.basis === basis) ? rows : null;
     });
   } catch (error) {
     throw toStoreError(error, 'reading the caseload');

@@ -1,7 +1,7 @@
 import Dexie, { type DBCore, type Middleware } from 'dexie';
 import { createUuidV7Generator, isTableName, type AuditEntry, type RandomBytes } from '../domain';
 import { batchContent } from './batch-audit';
-import { keepCaseloadSummaries, readCaseloadSummaries, type CaseloadSummaryRow } from './caseload-summaries';
+import { keepCaseloadSummaries, readCaseloadSummaries, readFirstCaseloadRows, type CaseloadSummaryRow } from './caseload-summaries';
 import { makeCodecs } from './codecs';
 import { DEFAULT_KDF_ITERATIONS, cryptoRandomBytes } from './crypto-box';
 import { IdentityRepository, ObservationRepository, Repository } from './repository';
@@ -69,6 +69,11 @@ export interface KinnoteStore {
    * small stored row per patient kept up to date on write (caseload-summaries.ts).
    */
   caseload(): Promise<CaseloadSummaryRow[]>;
+  /**
+   * The first `limit` rows of the caseload's default view (live active patients, soonest due first)
+   * from an index, at a cost that does not grow with the caseload; null when some summary is stale.
+   */
+  caseloadFirstRows(limit: number): Promise<CaseloadSummaryRow[] | null>;
   readonly actor: Actor | null;
   /** Sets (and saves on this device) who is writing. */
   setActor(actor: Actor): Promise<void>;
@@ -245,6 +250,7 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
       return actor;
     },
     caseload: () => readCaseloadSummaries(db),
+    caseloadFirstRows: (limit) => readFirstCaseloadRows(db, limit),
     get settings() {
       return { ...settings };
     },

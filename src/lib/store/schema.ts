@@ -97,8 +97,9 @@ async function upgradeToV6(tx: Transaction): Promise<void> {
 
 /**
  * Version 10 (7 to 9 are assigned to other changes and may be absent): a `caseloadSummaries` table,
- * one row per patient keyed by patientId (caseload-summaries.ts: kept up to date in the transaction
- * of every write, so the caseload reads one small row per patient), built here for every patient.
+ * one row per patient keyed by patientId and indexed by the caseload's default order
+ * (caseload-summaries.ts: kept up to date in the transaction of every write, so the caseload reads
+ * one small row per patient and its first screen from the order index), built here for every patient.
  * Observations get their `updatedAt` index back: version 5 dropped it, but a team sync reads the
  * records changed since its last push through it (sync/team-sync.ts).
  */
@@ -147,7 +148,7 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   {
     version: 10,
     stores: {
-      [CASELOAD_SUMMARIES_TABLE]: 'patientId',
+      [CASELOAD_SUMMARIES_TABLE]: 'patientId, order',
       observations: 'id, patientId, updatedAt, [patientId+measureCode+takenAt]',
     },
     upgrade: upgradeToV10,

@@ -1,9 +1,9 @@
 import type { Patient } from '$lib/domain';
-import type { CaseloadSummaryRow } from '$lib/store';
+import type { CaseloadPatient, CaseloadSummaryRow } from '$lib/store';
 
 /** One caseload row. */
 export interface CaseloadRow {
-  readonly patient: Patient;
+  readonly patient: CaseloadPatient;
   readonly lastAssessmentMs: number | null;
   readonly nextDueMs: number | null;
   /** Series whose latest value differs from baseline by at least the MDC. */
@@ -33,6 +33,14 @@ export function caseloadRows(summaries: readonly CaseloadSummaryRow[], reviewInt
       worsened: s.worsened,
       changedTitles: s.changedTitles,
     }));
+}
+
+/**
+ * Codes are ASCII (the patient code pattern: letters, digits and a hyphen), so code-unit order is their order; it is
+ * also many times cheaper than localeCompare on a caseload of thousands.
+ */
+function byCode(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
 }
 
 export type CaseloadFilter = 'all' | 'due' | 'changed' | 'worsened';
@@ -65,5 +73,5 @@ export function filterCaseload(
           return true;
       }
     })
-    .sort((a, b) => (a.nextDueMs ?? Infinity) - (b.nextDueMs ?? Infinity) || a.patient.code.localeCompare(b.patient.code));
+    .sort((a, b) => (a.nextDueMs ?? Infinity) - (b.nextDueMs ?? Infinity) || byCode(a.patient.code, b.patient.code));
 }

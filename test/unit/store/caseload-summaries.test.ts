@@ -18,6 +18,7 @@ import {
   setAssessmentDeleted,
   type KinnoteStore,
 } from '../../../src/lib/store';
+import { caseloadRows, filterCaseload } from '../../../src/lib/ui/caseload-summary';
 import { freshStore, quotaFault, steppingClock } from './store-helpers';
 
 /** The oracle: every live patient's summary computed from whole tables, grouped here, in patient id order. */
@@ -33,7 +34,7 @@ async function recomputed(store: KinnoteStore) {
     .filter((p) => !p.deleted)
     .sort((a, b) => (a.id < b.id ? -1 : 1))
     .map((patient) => ({
-      patient,
+      patient: { id: patient.id, code: patient.code, status: patient.status, deleted: patient.deleted },
       ...caseloadSummary(
         assessments.filter((a) => a.patientId === patient.id),
         observations.filter((o) => o.patientId === patient.id),
@@ -44,7 +45,7 @@ async function recomputed(store: KinnoteStore) {
 
 /** What the caseload reads, without the bookkeeping fields. */
 async function shown(store: KinnoteStore) {
-  return (await store.caseload()).map(({ patientId: _id, basis: _basis, ...rest }) => rest);
+  return (await store.caseload()).map(({ patientId: _id, basis: _basis, order: _order, ...rest }) => rest);
 }
 
 /** Raw stored rows: the store's own write paths leave none stale (basis null). */
@@ -71,7 +72,7 @@ describe('caseload summaries', () => {
     const store = await freshStore();
     const p = await store.patients.create(newPatient('K7QM-3XHD'));
     await expectRight(store, 'patient created');
-    expect(await shown(store)).toEqual([{ patient: p, lastAssessmentMs: null, improved: 0, worsened: 0, changedTitles: [] }]);
+    expect(await shown(store)).toEqual([{ patient: { id: p.id, code: 'K7QM-3XHD', status: 'active', deleted: false }, lastAssessmentMs: null, improved: 0, worsened: 0, changedTitles: [] }]);
 
     await visit(store, p.id, '2025-01-10T10:00:00.000Z', '3');
     const second = await visit(store, p.id, '2025-02-10T10:00:00.000Z', '1');
@@ -121,6 +122,25 @@ describe('caseload summaries', () => {
     };
     await store.observations.createMany(assessments.map((a, i) => ({ ...observation(['0', '1', '2'][i % 3]!), patientId: a.patientId, assessmentId: a.id, takenAt: a.performedAt, traceId: null })));
     await expectRight(store, '120 patients in bulk');
+
+    // The first screen read from the order index is the head of the full caseload's default view.
+    await store.patients.update(patients[5]!.id, { status: 'paused' });
+    await store.patients.remove(patients[6]!.id);
+    await store.patients.createMany([newPatient('K7QM-ZZZZ'), newPatient('K7QM-2222')]);
+    const defaultView = filterCaseload(caseloadRows(await store.caseload()), '', 'all', Date.UTC(2025, 5, 1), new Map(), 'active');
+    const head = (await store.caseloadFirstRows(40))!;
+    expect(head.map((r) => r.patient.code)).toEqual(defaultView.slice(0, 40).map((r) => r.patient.code));
+    expect(defaultView.map((r) => r.patient.code)).not.toContain(patients[5]!.code);
+    const tail = (await store.caseloadFirstRows(500))!;
+    expect(tail.map((r) => r.patient.code)).toEqual(defaultView.map((r) => r.patient.code));
+    // Never assessed, after the assessed ones, by code.
+    expect(tail.slice(-2).map((r) => r.patient.code)).toEqual(['K7QM-2222', 'K7QM-ZZZZ']);
+    // A stale summary (a write around the repositories) makes the quick read refuse rather than guess.
+    await store.db.table('patients').put({ ...(await store.patients.get(patients[0]!.id)), status: 'discharged' });
+    expect(await store.caseloadFirstRows(40)).toBeNull();
+    await store.caseload();
+    expect((await store.caseloadFirstRows(500))!.map((r) => r.patient.code)).not.toContain(patients[0]!.code);
+
     const before = await store.db.table(CASELOAD_SUMMARIES_TABLE).toArray();
     fault.armed = true;
     await expect(visit(store, patients[0]!.id, '2025-03-01T10:00:00.000Z', '4')).rejects.toMatchObject({ code: 'QuotaExceeded' });
