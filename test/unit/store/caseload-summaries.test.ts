@@ -200,6 +200,22 @@ describe('caseload summaries', () => {
     store.close();
   });
 
+  it('leave a bulk load of one long series to the reader: marked stale in the write, right when read', async () => {
+    const store = await freshStore();
+    const p = await store.patients.create(newPatient('K7QM-3XHD'));
+    const first = await visit(store, p.id, '2025-01-10T10:00:00.000Z', '3');
+    const { traceIndex: _none, ...one } = mas('1');
+    await store.observations.createMany(
+      Array.from({ length: 2100 }, (_, i) => ({ ...one, patientId: p.id, assessmentId: first.assessment.id, takenAt: new Date(Date.UTC(2025, 1, 1) + i * 60_000).toISOString(), traceId: null })),
+    );
+    expect(await staleRows(store)).toEqual([p.id]);
+    expect(await store.caseloadFirstRows(40)).toBeNull();
+    expect(await shown(store)).toEqual(await recomputed(store));
+    expect((await shown(store))[0]).toMatchObject({ improved: 1 });
+    expect(await staleRows(store)).toEqual([]);
+    store.close();
+  });
+
   it('stay right through a seeded random mix of writes on a few patients', async () => {
     const store = await freshStore();
     let seed = 20261203;
