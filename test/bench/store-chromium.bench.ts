@@ -29,7 +29,9 @@ export async function run(print: (line: string) => void): Promise<void> {
       const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
       print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / previous.perSecond).toFixed(2)}× previous`);
     }
-    for (const total of [20_000, 100_000]) {
+    // STORE_BENCH_OBSERVATIONS: one smaller size on a loaded machine (printed with each figure).
+    const sizes = process.env.STORE_BENCH_OBSERVATIONS ? [Number(process.env.STORE_BENCH_OBSERVATIONS)] : [20_000, 100_000];
+    for (const total of sizes) {
       const r = (await page.evaluate(
         (n) => (globalThis as unknown as { storeChecks: { bulkInsert: (n: number) => Promise<unknown> } }).storeChecks.bulkInsert(n),
         total,

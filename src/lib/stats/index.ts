@@ -55,6 +55,7 @@ export { cohortChangeSummary, type CohortChangeSummary } from './cohort-change-s
 export { chooseMdc, comparisonDesign, mdcSourceLine, ORDINAL_STEP_MDC, type ComparedObservation, type LocalMdc, type MdcChoice, type MdcQuestion } from './choose-mdc';
 export { seriesKey } from './series-key';
 export { adoptedLocalMdc, type AdoptableStudy } from './adopted-local-mdc';
+export { caseloadSummary, caseloadSummaryBasis, type CaseloadSummary, type SummaryAssessment } from './caseload-summary';
 export { outcomeSeries, seriesTitle, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
 
 // Small numeric helpers shared with callers that work on typed arrays

@@ -1,6 +1,7 @@
 import { TABLE_NAMES, withoutByteOrderMark, type AuditEntry, type RecordBase, type TableName } from '../domain';
 import { toPortable, verifyBundle, type BundleHeader, type VerifiedBundle } from './backup-bundle';
 import { canonicalJson } from './canonical-json';
+import { settleCaseloadSummaries } from './caseload-summaries';
 import { checkReferences, type OutsideLookup } from './check-references';
 import { decryptBundleText, isEncryptedBundle } from './encrypted-bundle';
 import type { KinnoteStore } from './open-store';
@@ -212,7 +213,7 @@ export async function importBackup(
   );
 
   try {
-    await store.db.transaction('rw', [...TABLE_NAMES], async () => {
+    await store.db.transaction('rw', [...TABLE_NAMES], async (tx) => {
       // One bulkGet per table re-checks that nothing planned on changed since the read phase.
       const planned = [...writes, ...checks];
       for (const table of TABLE_NAMES) {
@@ -230,6 +231,7 @@ export async function importBackup(
         if (rows.length > 0) await store.db.table(table).bulkPut(rows);
       }
       await store.db.table('audit').bulkAdd(audits);
+      await settleCaseloadSummaries(store.db, tx);
     });
   } catch (error) {
     throw toStoreError(error, 'importing the backup');

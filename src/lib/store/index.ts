@@ -29,6 +29,7 @@ export { importBackup, readBackup, type MergeConflict, type MergeReport, type Re
 export { checkReferences, type OutsideLookup } from './check-references';
 export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
+export { CASELOAD_SUMMARIES_TABLE, type CaseloadPatient, type CaseloadSummaryRow } from './caseload-summaries';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { readLocalState, writeLocalState } from './local-state';
 export {

@@ -1,6 +1,7 @@
 import Dexie, { type DBCore, type Middleware } from 'dexie';
 import { createUuidV7Generator, isTableName, type AuditEntry, type RandomBytes } from '../domain';
 import { batchContent } from './batch-audit';
+import { keepCaseloadSummaries, readCaseloadSummaries, readFirstCaseloadRows, type CaseloadSummaryRow } from './caseload-summaries';
 import { makeCodecs } from './codecs';
 import { DEFAULT_KDF_ITERATIONS, cryptoRandomBytes } from './crypto-box';
 import { IdentityRepository, ObservationRepository, Repository } from './repository';
@@ -63,6 +64,16 @@ export interface KinnoteStore {
     /** Records that data left the device (e.g. an identified cohort export), with a plain note. */
     logExport(note: string): Promise<void>;
   };
+  /**
+   * Every live patient with their caseload summary (last assessment, changes beyond MDC), one
+   * small stored row per patient kept up to date on write (caseload-summaries.ts).
+   */
+  caseload(): Promise<CaseloadSummaryRow[]>;
+  /**
+   * The first `limit` rows of the caseload's default view (live active patients, soonest due first)
+   * from an index, at a cost that does not grow with the caseload; null when some summary is stale.
+   */
+  caseloadFirstRows(limit: number): Promise<CaseloadSummaryRow[] | null>;
   readonly actor: Actor | null;
   /** Sets (and saves on this device) who is writing. */
   setActor(actor: Actor): Promise<void>;
@@ -106,6 +117,7 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
   // without the hint ignore it. Writes here are a person's pace, so the flush costs little.
   const db = new Dexie(name, { ...dexieOptions, chromeTransactionDurability: 'strict' });
   declareSchema(db);
+  keepCaseloadSummaries(db);
   for (const layer of options.middleware ?? []) db.use(layer);
   try {
     await db.open();
@@ -237,6 +249,8 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
       }
       return actor;
     },
+    caseload: () => readCaseloadSummaries(db),
+    caseloadFirstRows: (limit) => readFirstCaseloadRows(db, limit),
     get settings() {
       return { ...settings };
     },

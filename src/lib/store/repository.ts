@@ -3,6 +3,7 @@ import { validateRecord, type AuditEntry, type RecordInput, type RecordTables, t
 import type { Codec } from './codecs';
 import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
 import { batchAuditEntry, BATCH_AUDIT_MIN_RECORDS } from './batch-audit';
+import { settleCaseloadSummaries } from './caseload-summaries';
 import { auditSnapshot, type Row } from './rows';
 import { auditEntry, nextTimestamp, requireActor, type StoreContext } from './store-context';
 import { StoreError, toStoreError, type StoreIssue } from './store-error';
@@ -118,7 +119,7 @@ export class Repository<K extends WritableTable> {
   async createMany(inputs: readonly Input<K>[], options: WriteOptions & { firstForPatient?: boolean } = {}): Promise<Row<K>[]> {
     const { rows, audits } = await this.prepareCreate(inputs);
     try {
-      await this.ctx.db.transaction('rw', writeTables(this.table, options), async () => {
+      await this.ctx.db.transaction('rw', writeTables(this.table, options), async (tx) => {
         if (options.firstForPatient) {
           for (const patientId of new Set(rows.map((r) => (r as { patientId?: string }).patientId))) {
             if (patientId === undefined) throw new StoreError('ValidationFailed', `${this.table} is not kept per patient`);
@@ -129,6 +130,7 @@ export class Repository<K extends WritableTable> {
         await this.dexieTable.bulkAdd(rows);
         await this.ctx.db.table('audit').bulkAdd(audits);
         await discardDraftInTransaction(this.ctx.db, options.draftId);
+        await settleCaseloadSummaries(this.ctx.db, tx);
       });
     } catch (error) {
       throw toStoreError(error, `saving ${rows.length} ${this.table}`);
@@ -228,7 +230,7 @@ export class Repository<K extends WritableTable> {
     }
     const audit = auditEntry(this.ctx, at, action, this.table, id, auditSnapshot(this.table, current as never), auditSnapshot(this.table, row as never));
     try {
-      await this.ctx.db.transaction('rw', writeTables(this.table, options), async () => {
+      await this.ctx.db.transaction('rw', writeTables(this.table, options), async (tx) => {
         const now = await this.dexieTable.get(id);
         if (!now || (now as { updatedAt: string }).updatedAt !== currentUpdatedAt) {
           throw new StoreError('VersionConflict', `${this.table} ${id}: ${CHANGED_ELSEWHERE} (changed while saving)`);
@@ -236,6 +238,7 @@ export class Repository<K extends WritableTable> {
         await this.dexieTable.put(row);
         await this.ctx.db.table('audit').add(audit);
         await discardDraftInTransaction(this.ctx.db, options.draftId);
+        await settleCaseloadSummaries(this.ctx.db, tx);
       });
     } catch (error) {
       throw toStoreError(error, `saving ${this.table} ${id}`);

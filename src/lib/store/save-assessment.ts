@@ -1,4 +1,5 @@
 import type { KinnoteStore } from './open-store';
+import { settleCaseloadSummaries } from './caseload-summaries';
 import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
 import type { Input, WriteOptions } from './repository';
 import type { Row } from './rows';
@@ -39,12 +40,13 @@ export async function saveAssessment(
     })),
   );
   try {
-    await store.db.transaction('rw', ['assessments', 'traces', 'observations', 'audit', DRAFTS_TABLE], async () => {
+    await store.db.transaction('rw', ['assessments', 'traces', 'observations', 'audit', DRAFTS_TABLE], async (tx) => {
       await store.db.table('assessments').add(assessmentRow);
       if (t.rows.length > 0) await store.db.table('traces').bulkAdd(t.rows);
       await store.db.table('observations').bulkAdd(o.rows);
       await store.db.table('audit').bulkAdd([...a.audits, ...t.audits, ...o.audits]);
       await discardDraftInTransaction(store.db, options.draftId);
+      await settleCaseloadSummaries(store.db, tx);
     });
   } catch (error) {
     throw toStoreError(error, `saving the assessment with ${o.rows.length} observations`);

@@ -1,5 +1,7 @@
 import type { Dexie, Transaction } from 'dexie';
-import { doseFromLegacyLine, type ExerciseDose } from '../domain';
+import { doseFromLegacyLine, type ExerciseDose, type Observation, type Patient } from '../domain';
+import type { AdoptableStudy, SummaryAssessment } from '../stats';
+import { CASELOAD_SUMMARIES_TABLE, allSummaryRows } from './caseload-summaries';
 import { PHONE_REANALYSIS_MARKER } from './phone-reanalysis';
 
 /**
@@ -108,9 +110,25 @@ async function upgradeToV7(tx: Transaction): Promise<void> {
 
 /**
  * Version 8: an `exercisePhotos` table for photos of home-programme exercises, indexed by
- * programmeId (see exercise-photos.ts for why they are kept apart from the HomeProgramme record). No record changes, so nothing to rewrite.
+ * programmeId (see exercise-photos.ts for why they are kept apart from the HomeProgramme record).
+ * No record changes, so nothing to rewrite.
  */
 async function upgradeToV8(): Promise<void> {}
+
+/**
+ * Version 10 (9 was not used): a `caseloadSummaries` table, one row per patient keyed by
+ * patientId and indexed by the caseload's default order (caseload-summaries.ts: kept up to date in the transaction of every write, so the caseload reads
+ * one small row per patient and its first screen from the order index), built here for every patient.
+ */
+async function upgradeToV10(tx: Transaction): Promise<void> {
+  const [patients, assessments, observations, studies] = await Promise.all([
+    tx.table<Patient>('patients').toArray(),
+    tx.table<SummaryAssessment>('assessments').toArray(),
+    tx.table<Observation>('observations').toArray(),
+    tx.table<AdoptableStudy>('reliabilityStudies').toArray(),
+  ]);
+  await tx.table(CASELOAD_SUMMARIES_TABLE).bulkPut(allSummaryRows(patients, assessments, observations, studies));
+}
 
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
@@ -156,6 +174,12 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { exercisePhotos: 'id, programmeId' },
     upgrade: upgradeToV8,
     summary: 'exercisePhotos table (home-programme exercise photos, kept out of the audited programme record)',
+  },
+  {
+    version: 10,
+    stores: { [CASELOAD_SUMMARIES_TABLE]: 'patientId, order' },
+    upgrade: upgradeToV10,
+    summary: 'caseloadSummaries table (one row per patient, kept on write), built for every patient',
   },
 ];
 

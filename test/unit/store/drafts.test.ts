@@ -5,9 +5,9 @@ import { EMPTY_DOSE, ordinalValue } from '../../../src/lib/domain';
 import { planToProgrammeInput } from '../../../src/lib/programme';
 import {
   CHANGED_ELSEWHERE,
+  LATEST_SCHEMA_VERSION,
   LEGACY_TAB_ID,
   declareSchema,
-  LATEST_SCHEMA_VERSION,
   draftId,
   draftsFor,
   moveLegacyDrafts,

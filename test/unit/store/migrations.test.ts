@@ -92,6 +92,7 @@ describe('schema migrations', () => {
     const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
     expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
     const names = (table: string) => new Set(store.db.backendDB().transaction(table).objectStore(table).indexNames);
+    // assessmentId and measureCode are dropped; updatedAt stays (team sync reads it).
     expect(names('observations')).toEqual(new Set(['patientId', 'updatedAt', '[patientId+measureCode+takenAt]']));
     expect(names('audit')).toEqual(new Set(['createdAt', '[table+recordId]']));
     expect(await store.observations.list()).toEqual(observations);
