@@ -1,7 +1,7 @@
 // Browser faults: Chromium killed with SIGKILL a moment after typing or after Save, then restarted on
 // the same profile. Checks: no duplicate assessment, no typed value older than a second lost, the
 // audit log consistent with the records. Counts are printed for the report.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -103,8 +103,13 @@ beforeAll(async () => {
   await context!.close();
 });
 
-afterAll(async () => {
+// A failed round leaves its browser open; close it so that the next round can use the profile.
+afterEach(async () => {
   await context?.close().catch(() => undefined);
+  context = null;
+});
+
+afterAll(async () => {
   rmSync(profile, { recursive: true, force: true });
   console.log(`crash test: ${JSON.stringify(tally)}`);
 });
