@@ -54,6 +54,34 @@ async function draftWithTitle(page: Page, title: string): Promise<DraftRowLike> 
   return (await programmeDrafts(page)).find((d) => d.content.form.title === title)!;
 }
 
+/**
+ * Holds a write transaction on one of the app's tables until `release(page)`, so that a save into
+ * that table waits (as on a busy device) while the test types.
+ */
+async function holdTable(page: Page, table: string): Promise<void> {
+  await page.evaluate(
+    (name) =>
+      new Promise<void>((resolve, reject) => {
+        const open = indexedDB.open('kinnote');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const w = window as unknown as { releaseHeldTable?: boolean };
+          w.releaseHeldTable = false;
+          const tx = open.result.transaction([name], 'readwrite');
+          const store = tx.objectStore(name);
+          const spin = () => {
+            if (!w.releaseHeldTable) store.count().onsuccess = spin;
+          };
+          spin();
+          tx.oncomplete = () => open.result.close();
+          resolve();
+        };
+      }),
+    table,
+  );
+}
+const release = (page: Page) => page.evaluate(() => void ((window as unknown as { releaseHeldTable?: boolean }).releaseHeldTable = true));
+
 beforeAll(async () => {
   browser = await launchChromium();
   context = await newAppContext(browser, { viewport: smallPhone });
@@ -145,29 +173,11 @@ describe('two tabs on the same patient', () => {
     await openProgramme(tabA);
     await titleField(tabA).fill('Pressed Save on this');
     await draftWithTitle(tabA, 'Pressed Save on this');
-    // Hold a write transaction on the programmes so that the save waits (as on a busy device).
-    await tabA.evaluate(
-      () =>
-        new Promise<void>((resolve, reject) => {
-          const open = indexedDB.open('kinnote');
-          open.onerror = () => reject(open.error);
-          open.onsuccess = () => {
-            const w = window as unknown as { releaseProgrammes?: boolean };
-            const tx = open.result.transaction(['homeProgrammes'], 'readwrite');
-            const store = tx.objectStore('homeProgrammes');
-            const spin = () => {
-              if (!w.releaseProgrammes) store.count().onsuccess = spin;
-            };
-            spin();
-            tx.oncomplete = () => open.result.close();
-            resolve();
-          };
-        }),
-    );
+    await holdTable(tabA, 'homeProgrammes');
     await saveButton(tabA).click();
     await expect.poll(() => saveButton(tabA).isDisabled()).toBe(true);
     await titleField(tabA).fill('Typed while it was saving');
-    await tabA.evaluate(() => void ((window as unknown as { releaseProgrammes?: boolean }).releaseProgrammes = true));
+    await release(tabA);
     await tabA.getByText(/What you typed while it was saving is still in the form/).waitFor();
 
     expect(await titleField(tabA).inputValue()).toBe('Typed while it was saving');
@@ -183,5 +193,35 @@ describe('two tabs on the same patient', () => {
     await expectSaved(tabA);
     expect((await liveProgrammes(tabA)).map((p) => p.title)).toEqual(['Typed while it was saving']);
     expect(await programmeDrafts(tabA)).toEqual([]);
+  });
+
+  it('in the assessment form, values changed while the save runs stay in the form as a draft; the saved assessment has the values Save was pressed on', async () => {
+    const minutes = () => tabA.getByLabel('Minutes since medication');
+    const assessments = async () => (await tableRows<{ deleted: boolean; conditions: { minutesSinceMedication: number | null } }>(tabA, 'assessments')).filter((a) => !a.deleted);
+    const assessmentDrafts = async () => (await tableRows<{ form: string; content: { draft: { minutesSinceMedication: string } } }>(tabA, 'drafts')).filter((d) => d.form === 'assessment');
+    await tabA.goto(programmePath.replace(/\/programme$/, '/assess'));
+    await tabA.locator('form.assessment[aria-busy="false"]').waitFor();
+    const mas = tabA.locator('section', { has: tabA.getByRole('heading', { name: 'Modified Ashworth' }) });
+    await mas.getByRole('button', { name: 'Add a muscle group' }).click();
+    await mas.getByRole('radio', { name: '1+', exact: true }).check();
+    await minutes().fill('30');
+    await expect.poll(async () => (await assessmentDrafts()).map((d) => d.content.draft.minutesSinceMedication)).toEqual(['30']);
+
+    await holdTable(tabA, 'assessments');
+    await tabA.getByRole('button', { name: 'Save assessment' }).click();
+    await tabA.getByRole('button', { name: 'Saving…' }).waitFor();
+    await minutes().fill('45');
+    await release(tabA);
+    await tabA.getByText(/You changed the form while it was saving/).waitFor();
+
+    expect((await assessments()).map((a) => a.conditions.minutesSinceMedication)).toEqual([30]);
+    expect(await minutes().inputValue()).toBe('45');
+    await expect.poll(async () => (await assessmentDrafts()).map((d) => d.content.draft.minutesSinceMedication)).toEqual(['45']);
+    await tabA.reload();
+    await tabA.getByText(/Draft restored/).waitFor();
+    expect(await minutes().inputValue()).toBe('45');
+    tabA.once('dialog', (d) => void d.accept());
+    await tabA.getByRole('button', { name: 'Discard draft' }).click();
+    await expect.poll(assessmentDrafts).toEqual([]);
   });
 });
