@@ -1,7 +1,7 @@
 // Browser faults: Chromium killed with SIGKILL a moment after typing or after Save, then restarted on
 // the same profile. Checks: no duplicate assessment, no typed value older than a second lost, the
 // audit log consistent with the records. Counts are printed for the report.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -103,14 +103,19 @@ beforeAll(async () => {
   await context!.close();
 });
 
-afterAll(async () => {
+// A failed round leaves its browser open; close it so that the next round can use the profile.
+afterEach(async () => {
   await context?.close().catch(() => undefined);
+  context = null;
+});
+
+afterAll(async () => {
   rmSync(profile, { recursive: true, force: true });
   console.log(`crash test: ${JSON.stringify(tally)}`);
 });
 
 describe('browser killed with SIGKILL, restarted on the same profile', () => {
-  for (const [round, waitMs] of [200, 1000, 3000].entries()) {
+  for (const [round, waitMs] of [200, 1000].entries()) {
     it(`${waitMs} ms after typing: a value typed a second or more before the kill comes back`, async () => {
       let page = await launch();
       await openForm(page);
@@ -124,10 +129,11 @@ describe('browser killed with SIGKILL, restarted on the same profile', () => {
       await openForm(page);
       const last = values[values.length - 1]!;
       if (waitMs >= 1000) {
-        await page.getByText(/Draft restored/).waitFor();
+        // The form is live only after its draft was restored, so the value can be read at once.
         const restored = await minutesField(page).inputValue();
         if (restored !== last) tally.lostOlderThanOneSecond++;
         expect(restored, `kill ${waitMs} ms after typing`).toBe(last);
+        expect(await page.getByText(/Draft restored/).isVisible()).toBe(true);
       } else {
         // Under a second a write may still be pending: counted, not required.
         await expect.poll(async () => (await tableRows(page, 'drafts')).length, { timeout: 5000 }).toBeLessThanOrEqual(1);
@@ -140,6 +146,36 @@ describe('browser killed with SIGKILL, restarted on the same profile', () => {
       await context!.close();
     });
   }
+
+  // The programme form keeps its draft through the same keeper: one round, a second after typing.
+  it('1000 ms after typing in the programme form: the last value comes back, and saving it leaves no draft', async () => {
+    let page = await launch();
+    const openProgramme = async () => {
+      await page.goto(`${patientPath}/programme`);
+      await page.locator('form.plan[aria-busy="false"]').waitFor();
+    };
+    const title = () => page.getByLabel('Title', { exact: true });
+    await openProgramme();
+    const values = Array.from({ length: 15 }, (_, i) => `Evening stretches, version ${i + 1}`);
+    for (const v of values) await title().fill(v);
+    await page.getByLabel('What to do, in your words').fill('Calf stretch against the wall');
+    await page.getByLabel('Repetitions').fill('8');
+    await delay(1000);
+    await killBrowser();
+
+    page = await launch();
+    await openProgramme();
+    const restored = await title().inputValue();
+    if (restored !== values[values.length - 1]) tally.lostOlderThanOneSecond++;
+    expect(restored, 'programme form, kill 1000 ms after typing').toBe(values[values.length - 1]);
+    expect(await page.getByText(/Draft restored/).isVisible()).toBe(true);
+    expect(await page.getByLabel('Repetitions').inputValue()).toBe('8');
+    await page.getByRole('button', { name: 'Save the programme' }).click();
+    await page.getByText(/^Programme saved\./).waitFor();
+    expect((await tableRows<{ form: string }>(page, 'drafts')).filter((d) => d.form === 'programme')).toEqual([]);
+    expect((await tableRows<{ title: string; deleted: boolean }>(page, 'homeProgrammes')).filter((p) => !p.deleted).map((p) => p.title)).toEqual([values[values.length - 1]]);
+    await context!.close();
+  });
 
   for (const [round, waitMs] of [200, 1000, 3000].entries()) {
     it(`${waitMs} ms after Save: no duplicate assessment, no draft left behind, audit consistent`, async () => {

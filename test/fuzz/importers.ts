@@ -16,7 +16,7 @@ import { anovaMeanSquares, completeSubjects, intraclassCorrelations, MissingCell
 import { canonicalJson, exportBackup, importBackup, openStore, sha256Hex, StoreError, type KinnoteStore } from '../../src/lib/store';
 import { acceptProgrammePackage, choosePatientMode, createProgrammePackage, importHomeReport, openProgrammePackage, planToProgrammeInput, ProgrammeTransferError, type ExercisePlan } from '../../src/lib/programme';
 import { sealTransfer } from '../../src/lib/programme/sealed-transfer';
-import { EMPTY_DOSE } from '../../src/lib/domain';
+import { EARLIEST_TIMESTAMP, EMPTY_DOSE, MAX_CLOCK_SKEW_MS } from '../../src/lib/domain';
 import { ordinalValue } from '../../src/lib/domain';
 
 export interface FuzzCounts {
@@ -25,8 +25,20 @@ export interface FuzzCounts {
   accepted: number;
   crashed: number;
   partialWrites: number;
-  /** The first few crashes, for a person to read. */
+  /** Accepted imports after which the store broke an invariant (see `unsoundness`); backup only. */
+  unsound: number;
+  /** The first few crashes and unsound acceptances, for a person to read. */
   crashes: string[];
+}
+
+export const IMPORTER_NAMES = ['pendulum', 'motion', 'reliability', 'backup', 'programme', 'report'] as const;
+export type ImporterName = (typeof IMPORTER_NAMES)[number];
+
+export interface FuzzOptions {
+  /** Importers to run (default: all). */
+  readonly only?: readonly ImporterName[];
+  /** The backup import under test (default: the real one); the self-check passes broken ones. */
+  readonly importBackup?: (store: KinnoteStore, input: unknown) => Promise<unknown>;
 }
 
 const NASTY_TEXT = ['', '0x10', '1e400', '-1e400', 'NaN', 'Infinity', '-0', '9'.repeat(400), '"', '""', '\uFEFF', '\u0000', ',', ';', '1,5', '  ', '1e-400', '+.5', '0b11', '1_000', '١٢', '<script>', '=1+1'];
@@ -88,6 +100,31 @@ function mutateJson(value: unknown, rng: SeededRandom): unknown {
   return copy;
 }
 
+const NASTY_STAMPS = ['9999-12-31T23:59:59.999Z', '2099-01-01T00:00:00.000Z', '1999-12-31T23:59:59.999Z', '1970-01-01T00:00:00.000Z'];
+
+/**
+ * A record-aware edit of a backup's tables: one field of one record that names another record (its
+ * key ends in "Id") is pointed at an unknown id or at a record of another table, or one stamp (a key
+ * ending in "At") moves far into the future or the past. These reach the reference and time checks,
+ * which a blind edit seldom does (it must hit one field of one record with one of few values).
+ */
+function mutateRecords(tables: Record<string, unknown[]>, rng: SeededRandom): Record<string, unknown[]> {
+  const copy = JSON.parse(JSON.stringify(tables)) as Record<string, Record<string, unknown>[]>;
+  const filled = Object.keys(copy).filter((name) => (copy[name]?.length ?? 0) > 0);
+  const rows = copy[filled[rng.int(0, filled.length - 1)]!]!;
+  const row = rows[rng.int(0, rows.length - 1)]!;
+  const refs = Object.keys(row).filter((k) => /Id$/.test(k) && typeof row[k] === 'string');
+  const stamps = Object.keys(row).filter((k) => /At$/.test(k) && typeof row[k] === 'string');
+  const allIds = Object.entries(copy).flatMap(([, list]) => list.map((r) => r.id)).filter((id): id is string => typeof id === 'string');
+  if (refs.length > 0 && (stamps.length === 0 || rng.chance(0.5))) {
+    const hex = () => rng.int(0, 0xffff).toString(16).padStart(4, '0');
+    row[refs[rng.int(0, refs.length - 1)]!] = rng.chance(0.5) ? allIds[rng.int(0, allIds.length - 1)] : `${hex()}${hex()}-${hex()}-7${hex().slice(1)}-8${hex().slice(1)}-${hex()}${hex()}${hex()}`;
+  } else if (stamps.length > 0) {
+    row[stamps[rng.int(0, stamps.length - 1)]!] = NASTY_STAMPS[rng.int(0, NASTY_STAMPS.length - 1)];
+  }
+  return copy;
+}
+
 function record(counts: FuzzCounts, error: unknown, clean: boolean, label: string): void {
   if (clean) counts.refused++;
   else {
@@ -96,7 +133,7 @@ function record(counts: FuzzCounts, error: unknown, clean: boolean, label: strin
   }
 }
 
-const newCounts = (): FuzzCounts => ({ tried: 0, refused: 0, accepted: 0, crashed: 0, partialWrites: 0, crashes: [] });
+const newCounts = (): FuzzCounts => ({ tried: 0, refused: 0, accepted: 0, crashed: 0, partialWrites: 0, unsound: 0, crashes: [] });
 
 async function textFuzz(cases: number, seed: number, base: string, run: (text: string) => void, isClean: (e: unknown) => boolean, label: string): Promise<FuzzCounts> {
   const rng = new SeededRandom(seed);
@@ -119,6 +156,30 @@ async function fingerprint(store: KinnoteStore): Promise<string> {
   const parts: string[] = [];
   for (const table of store.db.tables) parts.push(`${table.name}:${await table.count()}`);
   return parts.join(',');
+}
+
+/**
+ * What an accepted import must never leave behind, checked on the raw tables (not through the
+ * importer's own checks): a record stamped outside [2000-01-01, the device's clock + the stated
+ * skew] or created after its last update, or a patientId / assessmentId that resolves to nothing.
+ */
+async function unsoundness(store: KinnoteStore, nowMs: number): Promise<string[]> {
+  const problems: string[] = [];
+  const ids = async (name: string) => new Set((await store.db.table(name).toArray()).map((r: { id: string }) => r.id));
+  const patients = await ids('patients');
+  const assessments = await ids('assessments');
+  const latest = new Date(nowMs + MAX_CLOCK_SKEW_MS).toISOString();
+  for (const table of store.db.tables) {
+    for (const row of (await table.toArray()) as Record<string, unknown>[]) {
+      const { createdAt, updatedAt, patientId, assessmentId } = row;
+      if (typeof updatedAt === 'string' && typeof createdAt === 'string') {
+        if (updatedAt > latest || createdAt < EARLIEST_TIMESTAMP || createdAt > updatedAt) problems.push(`${table.name} ${String(row.id)} stamped ${createdAt} / ${updatedAt}`);
+      }
+      if (table.name !== 'patients' && typeof patientId === 'string' && !patients.has(patientId)) problems.push(`${table.name} ${String(row.id)}: no patient ${patientId}`);
+      if (typeof assessmentId === 'string' && !assessments.has(assessmentId)) problems.push(`${table.name} ${String(row.id)}: no assessment ${assessmentId}`);
+    }
+  }
+  return problems;
 }
 
 async function makeStore(name: string, startMs: number): Promise<KinnoteStore> {
@@ -144,14 +205,16 @@ const plan: ExercisePlan = {
 };
 
 /** Runs every importer `cases` times from `seed`; returns the counts per importer. */
-export async function fuzzImporters(cases: number, seed: number): Promise<Record<string, FuzzCounts>> {
+export async function fuzzImporters(cases: number, seed: number, options: FuzzOptions = {}): Promise<Record<string, FuzzCounts>> {
   const out: Record<string, FuzzCounts> = {};
+  const runs = (name: ImporterName) => !options.only || options.only.includes(name);
+  const importBackupUnderTest = options.importBackup ?? importBackup;
   const pendulumBase = readFileSync(join(fixtures, 'pendulum', 'healthy-100hz.csv'), 'utf8');
-  out.pendulum = await textFuzz(cases, seed, pendulumBase, (t) => void analysePendulumCsv(t, 'fuzz.csv'), (e) => e instanceof PendulumInputError, 'pendulum');
+  if (runs('pendulum')) out.pendulum = await textFuzz(cases, seed, pendulumBase, (t) => void analysePendulumCsv(t, 'fuzz.csv'), (e) => e instanceof PendulumInputError, 'pendulum');
   const motionBase = readFileSync(join(fixtures, 'sensors', 'healthy-phone-60hz.csv'), 'utf8');
-  out.motion = await textFuzz(cases, seed + 1, motionBase, (t) => void analyseMotionRecording(parseMotionCsv(t, 'fuzz.csv'), { fileName: 'fuzz.csv' }), (e) => e instanceof MotionInputError, 'motion');
+  if (runs('motion')) out.motion = await textFuzz(cases, seed + 1, motionBase, (t) => void analyseMotionRecording(parseMotionCsv(t, 'fuzz.csv'), { fileName: 'fuzz.csv' }), (e) => e instanceof MotionInputError, 'motion');
   const reliabilityBase = 'subject,rater_a_1,rater_a_2,rater_b_1\nS01,12.5,13,14\nS02,20,21.5,19\nS03,31,30,33.5\nS04,8,9.5,7\nS05,15,15,16\nS06,25.5,24,26\n';
-  out.reliability = await textFuzz(
+  if (runs('reliability')) out.reliability = await textFuzz(
     cases,
     seed + 2,
     reliabilityBase,
@@ -174,21 +237,34 @@ export async function fuzzImporters(cases: number, seed: number): Promise<Record
   const bundle = await exportBackup(source, { protectedContent: 'include' });
   const programmeRecord = await source.homeProgrammes.create(planToProgrammeInput(plan, patient.id));
   const target = await therapistStore();
-  {
+  if (runs('backup')) {
     const rng = new SeededRandom(seed + 3);
     const counts = newCounts();
     for (let i = 0; i < cases; i++) {
       let input: unknown;
       if (rng.chance(0.3)) input = mutateText(JSON.stringify(bundle), rng);
       else {
-        const { checksum: _c, ...body } = mutateJson(bundle, rng) as Record<string, unknown>;
+        // Half the edits go into one non-empty table's records: from the root they rarely get past
+        // the header (most tables are empty), so the record checks would seldom be reached.
+        const tables = bundle.tables as unknown as Record<string, unknown[]>;
+        const filled = Object.keys(tables).filter((name) => (tables[name]?.length ?? 0) > 0);
+        const where = rng.int(0, 2);
+        const inRecords = filled[rng.int(0, filled.length - 1)]!;
+        const edited =
+          where === 0 ? mutateJson(bundle, rng) : where === 1 ? { ...bundle, tables: { ...tables, [inRecords]: mutateJson(tables[inRecords], rng) } } : { ...bundle, tables: mutateRecords(tables, rng) };
+        const { checksum: _c, ...body } = edited as Record<string, unknown>;
         input = { ...body, checksum: { algorithm: 'SHA-256', value: await sha256Hex(canonicalJson(body)) } };
       }
       counts.tried++;
       const before = await fingerprint(target);
       try {
-        await importBackup(target, input);
+        await importBackupUnderTest(target, input);
         counts.accepted++;
+        const problems = await unsoundness(target, target.context.now());
+        if (problems.length > 0) {
+          counts.unsound++;
+          if (counts.crashes.length < 5) counts.crashes.push(`backup case ${i} accepted, then: ${problems.slice(0, 2).join('; ')}`);
+        }
       } catch (error) {
         record(counts, error, error instanceof StoreError, `backup case ${i}`);
         if ((await fingerprint(target)) !== before) counts.partialWrites++;
@@ -202,7 +278,7 @@ export async function fuzzImporters(cases: number, seed: number): Promise<Record
   const { plan: _plan, ...pkgBody } = await openProgrammePackage(pkgText, CODE);
   const phone = await makeStore('fuzz-phone', Date.UTC(2025, 2, 3, 8));
   await choosePatientMode(phone);
-  {
+  if (runs('programme')) {
     const rng = new SeededRandom(seed + 4);
     const counts = newCounts();
     for (let i = 0; i < cases; i++) {
@@ -221,21 +297,21 @@ export async function fuzzImporters(cases: number, seed: number): Promise<Record
     out.programme = counts;
   }
 
-  // Home report: a report made by hand, edited, sealed and imported on the therapist's tablet.
-  Object.assign(target.context, { now: () => Date.UTC(2025, 2, 10, 9) });
-  await importBackup(target, await exportBackup(source, { protectedContent: 'include' }));
-  const deviceId = phone.actor?.deviceId ?? source.context.newId();
-  const report = {
-    format: 'kinnote-home-report',
-    formatVersion: 1,
-    exportedAt: '2025-03-09T18:00:00.000Z',
-    patient: { id: patient.id, code: patient.code },
-    device: { id: deviceId, createdAt: '2025-03-03T08:00:00.000Z', updatedAt: '2025-03-03T08:00:00.000Z', deviceId, clinicianId: programmeRecord.clinicianId, deleted: false, name: 'Home phone', platform: null },
-    adherenceEntries: [{ id: source.context.newId(), createdAt: '2025-03-09T18:00:00.000Z', updatedAt: '2025-03-09T18:00:00.000Z', deviceId, clinicianId: programmeRecord.clinicianId, deleted: false, patientId: patient.id, programmeId: programmeRecord.id, periodStart: '2025-03-03', sessionsPlanned: 14, sessionsDone: 9, reportedBy: 'patient' }],
-    selfReports: [{ id: source.context.newId(), createdAt: '2025-03-09T18:00:00.000Z', updatedAt: '2025-03-09T18:00:00.000Z', deviceId, clinicianId: programmeRecord.clinicianId, deleted: false, patientId: patient.id, reportedOn: '2025-03-09', spasmFrequencyPenn: 2, spasmSeverityNrs: 3, stiffnessNrs: 4, painNrs: 1 }],
-    ticks: [],
-  };
-  {
+  if (runs('report')) {
+    // Home report: a report made by hand, edited, sealed and imported on the therapist's tablet.
+    Object.assign(target.context, { now: () => Date.UTC(2025, 2, 10, 9) });
+    await importBackup(target, await exportBackup(source, { protectedContent: 'include' }));
+    const deviceId = phone.actor?.deviceId ?? source.context.newId();
+    const report = {
+      format: 'kinnote-home-report',
+      formatVersion: 1,
+      exportedAt: '2025-03-09T18:00:00.000Z',
+      patient: { id: patient.id, code: patient.code },
+      device: { id: deviceId, createdAt: '2025-03-03T08:00:00.000Z', updatedAt: '2025-03-03T08:00:00.000Z', deviceId, clinicianId: programmeRecord.clinicianId, deleted: false, name: 'Home phone', platform: null },
+      adherenceEntries: [{ id: source.context.newId(), createdAt: '2025-03-09T18:00:00.000Z', updatedAt: '2025-03-09T18:00:00.000Z', deviceId, clinicianId: programmeRecord.clinicianId, deleted: false, patientId: patient.id, programmeId: programmeRecord.id, periodStart: '2025-03-03', sessionsPlanned: 14, sessionsDone: 9, reportedBy: 'patient' }],
+      selfReports: [{ id: source.context.newId(), createdAt: '2025-03-09T18:00:00.000Z', updatedAt: '2025-03-09T18:00:00.000Z', deviceId, clinicianId: programmeRecord.clinicianId, deleted: false, patientId: patient.id, reportedOn: '2025-03-09', spasmFrequencyPenn: 2, spasmSeverityNrs: 3, stiffnessNrs: 4, painNrs: 1 }],
+      ticks: [],
+    };
     const rng = new SeededRandom(seed + 5);
     const counts = newCounts();
     for (let i = 0; i < cases; i++) {

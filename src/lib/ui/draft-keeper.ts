@@ -267,6 +267,21 @@ export class DraftKeeper<T> {
     return last;
   }
 
+  /**
+   * After a successful save when the form stays open (the programme form, or a form that changed
+   * while it was saving). The save removed the draft; what was noted during the save reflects the
+   * values from before the save's outcome, so it is dropped. Pass `typedDuringSave` (what the form
+   * shows now, re-read by the page) when the person changed the form while the save ran: it becomes
+   * this tab's draft at once, so nothing typed meanwhile is lost. Later changes are kept as usual.
+   */
+  continueAfterSave(typedDuringSave: T | null): Promise<void> {
+    this.#paused = false;
+    this.#stopped = false;
+    this.#cancelTimer();
+    this.#latest = typedDuringSave === null ? null : { value: typedDuringSave };
+    return this.flush();
+  }
+
   /** After a successful save: nothing more is written. */
   stop(): void {
     this.#stopped = true;

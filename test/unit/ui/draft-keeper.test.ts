@@ -121,6 +121,53 @@ describe('DraftKeeper', () => {
     expect(await draftsFor(store, 'assessment', patient.id)).toEqual([]);
   });
 
+  it('values typed while a save runs become the new draft once the save removed the old one', async () => {
+    const store = await freshStore();
+    const patient = await store.patients.create({ code: 'K7QM-3XHD', birthYear: 1970, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+    const locks = new Set<string>();
+    const a = tab(locks, 'a');
+    const keeper = keeperFor(store, a.environment, patient.id);
+    await keeper.start(store);
+    keeper.schedule({ grade: '2' });
+    a.tick();
+    await settle(keeper);
+    await keeper.pause();
+    keeper.schedule({ grade: '2, then typed during the save' });
+    await saveAssessment(
+      store,
+      { patientId: patient.id, assessorId: store.actor!.clinicianId, performedAt: '2025-03-02T10:00:00.000Z', setting: 'home', conditions: { position: null, minutesSinceMedication: null, painNrs: null }, notes: null },
+      [{ patientId: patient.id, takenAt: '2025-03-02T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null, value: ordinalValue('mas', '2') }],
+      [],
+      { draftId: keeper.id },
+    );
+    // The save's transaction removed the draft; what the form shows now is kept again at once.
+    await keeper.continueAfterSave({ grade: '2, then typed during the save' });
+    expect((await draftsFor(store, 'assessment', patient.id)).map((d) => [d.id, d.content])).toEqual([[keeper.id, { grade: '2, then typed during the save' }]]);
+    // Writing goes on after the save (the form stays open).
+    keeper.schedule({ grade: '4' });
+    a.tick();
+    await settle(keeper);
+    expect((await draftsFor(store, 'assessment', patient.id)).map((d) => d.content)).toEqual([{ grade: '4' }]);
+  });
+
+  it('nothing typed during the save: no draft comes back after it, and later typing is kept', async () => {
+    const store = await freshStore();
+    const locks = new Set<string>();
+    const a = tab(locks, 'a');
+    const keeper = keeperFor(store, a.environment, 'p1');
+    await keeper.start(store);
+    keeper.schedule({ grade: '1' });
+    await keeper.pause();
+    await keeper.continueAfterSave(null);
+    a.tick();
+    await settle(keeper);
+    expect(await draftsFor(store, 'assessment', 'p1')).toEqual([]);
+    keeper.schedule({ grade: '1+' });
+    a.tick();
+    await settle(keeper);
+    expect((await draftsFor(store, 'assessment', 'p1')).map((d) => d.content)).toEqual([{ grade: '1+' }]);
+  });
+
   it('a duplicated tab (sessionStorage copied) gets its own tab id', async () => {
     const store = await freshStore();
     const locks = new Set<string>();
