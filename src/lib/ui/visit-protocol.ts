@@ -102,3 +102,43 @@ export function draftFromProtocol(patientId: string, performedAtLocal: string, p
   });
   return draft;
 }
+
+/** The protocol as kept on this device after a save: the visit it followed, and its tests. */
+export interface KeptProtocol {
+  readonly afterAssessmentId: string;
+  readonly tests: readonly ProtocolTest[];
+}
+
+/**
+ * The protocol a saved visit leaves for the next: every row of the form, including those marked
+ * "Not tested today" (they stay in the protocol), without rows the therapist removed; the spasm
+ * ratings when recorded.
+ */
+export function protocolFromDraft(draft: AssessmentDraft): ProtocolTest[] {
+  const tests: ProtocolTest[] = [
+    ...draft.mas.map((r) => ({ measureCode: 'mas', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
+    ...draft.tardieu.map((r) => ({ measureCode: 'tardieu', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
+    ...draft.rom.map((r) => ({ measureCode: 'rom', siteCode: r.siteCode, side: r.side, mode: r.mode, instrument: r.instrument })),
+  ];
+  if (draft.pennFrequency !== null) tests.push({ measureCode: 'penn-spasm-frequency', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
+  if (draft.spasmSeverity !== null) tests.push({ measureCode: 'spasm-severity', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
+  const unique = new Map(tests.map((t) => [seriesKey(t), t]));
+  return [...unique.values()];
+}
+
+/**
+ * The protocol for a new visit: the one kept after the latest visit when it is still the latest
+ * live visit (so tests "not tested today" come back next time), else the tests of the last visit as
+ * recorded (a visit saved on another device, or none kept).
+ */
+export function chooseProtocol(kept: KeptProtocol | undefined, assessments: readonly Assessment[], observations: readonly Observation[]): ProtocolTest[] {
+  const live = assessments.filter((a) => !a.deleted);
+  const keptVisit = kept ? live.find((a) => a.id === kept.afterAssessmentId) : undefined;
+  if (kept && keptVisit && live.every((a) => Date.parse(a.performedAt) <= Date.parse(keptVisit.performedAt) || !observations.some((o) => o.assessmentId === a.id && !o.deleted && (FORM_MEASURES as readonly string[]).includes(o.measureCode)))) {
+    return [...kept.tests];
+  }
+  return visitProtocol(assessments, observations);
+}
+
+/** The device-local key under which a patient's protocol is kept. */
+export const protocolStateKey = (patientId: string) => `local:visit-protocol-${patientId.toLowerCase()}`;

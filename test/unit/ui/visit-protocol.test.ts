@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Assessment, Observation, ObservationValue } from '../../../src/lib/domain';
 import { seriesKey } from '../../../src/lib/stats';
 import { draftObservations, emptyDraft } from '../../../src/lib/ui/assessment-draft';
-import { describeValue, draftFromProtocol, lastObservations, visitProtocol } from '../../../src/lib/ui/visit-protocol';
+import { chooseProtocol, describeValue, draftFromProtocol, lastObservations, protocolFromDraft, visitProtocol } from '../../../src/lib/ui/visit-protocol';
 
 // Hand-written records (not produced by the code under test): two visits of one patient, the
 // second split the old way into a form assessment and a same-day pendulum assessment.
@@ -115,5 +115,33 @@ describe('a visit laid out from the protocol', () => {
     for (const o of out) expect(protocolKeys.has(seriesKey(o))).toBe(true);
     // The row marked "not tested today" is saved nowhere.
     expect(out.some((o) => o.measureCode === 'rom')).toBe(false);
+  });
+});
+
+describe('the protocol kept after a save', () => {
+  const protocol = visitProtocol(assessments, observations);
+  const draft = draftFromProtocol('p', '2026-12-01T10:00', protocol, emptyDraft('p', '2026-12-01T10:00'));
+  draft.notTested = [draft.rom[0]!.key];
+  draft.mas.splice(1, 1); // removed: leaves the protocol
+  draft.pennFrequency = 1;
+  const kept = { afterAssessmentId: 'a3', tests: protocolFromDraft(draft) };
+  const a3 = visit('a3', '2026-12-01T10:00:00.000Z');
+  const a3obs = obs('a3', '2026-12-01T10:00:00.000Z', 'mas', 'elbow-flexors', 'right', grade('1', 1));
+
+  it('keeps a test "not tested today" and drops a removed one', () => {
+    expect(kept.tests.map((t) => seriesKey(t))).toEqual(['mas|elbow-flexors|right|', 'tardieu|ankle-soleus|left|', 'rom|ankle-dorsiflexion|left|passive', 'penn-spasm-frequency|whole-body|none|']);
+  });
+
+  it('is used while its visit is the latest, and given up for a later visit saved elsewhere or when its visit is deleted', () => {
+    const withA3 = [...assessments, a3];
+    const observationsA3 = [...observations, a3obs];
+    expect(chooseProtocol(kept, withA3, observationsA3)).toEqual(kept.tests);
+    // Recorded alone, a3 holds one test: the kept protocol is what brings the others back.
+    expect(visitProtocol(withA3, observationsA3).length).toBe(1);
+    const later = visit('a4', '2026-12-20T10:00:00.000Z');
+    const laterObs = obs('a4', '2026-12-20T10:00:00.000Z', 'mas', 'wrist-flexors', 'left', grade('2', 3));
+    expect(chooseProtocol(kept, [...withA3, later], [...observationsA3, laterObs]).map((t) => t.siteCode)).toEqual(['wrist-flexors']);
+    expect(chooseProtocol(kept, [...assessments, visit('a3', '2026-12-01T10:00:00.000Z', true)], observationsA3)).toEqual(protocol);
+    expect(chooseProtocol(undefined, withA3, observationsA3).length).toBe(1);
   });
 });
