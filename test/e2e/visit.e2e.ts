@@ -180,7 +180,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
     await mas.locator('.entry').nth(1).getByRole('button', { name: 'What the grades mean' }).click();
     await mas.locator('.entry').nth(1).getByText('Limb rigid in flexion or extension').waitFor();
 
-    // Mark every other test not tested except the second muscle (catalogue order: hamstrings), which stays blank.
+    // Mark every other test not tested except the second muscle (the kept protocol keeps the order the tests were added: quadriceps), which stays blank.
     await mas.locator('.entry').nth(2).getByRole('button', { name: 'Not tested today' }).click();
     await mas.locator('.entry').nth(3).getByRole('button', { name: 'Not tested today' }).click();
     await section(page, 'Range of motion').getByRole('button', { name: 'Not tested today' }).click();
@@ -190,7 +190,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
     // R2 and the quality are missing from the half-filled Tardieu row; the second muscle is blank.
     const items = await summary.getByRole('link').allTextContents();
     expect(items).toEqual([
-      'Modified Ashworth, left knee flexors (hamstrings): no value yet: record one, or tap "Not tested today"',
+      'Modified Ashworth, left knee extensors (quadriceps): no value yet: record one, or tap "Not tested today"',
       'Tardieu, left rectus femoris / quadriceps: needed for a Tardieu entry',
       'Tardieu, left rectus femoris / quadriceps: needed for a Tardieu entry',
     ]);
@@ -203,6 +203,46 @@ describe('a follow-up home visit carries the last visit forward', () => {
     // A link in the summary moves focus to its field.
     await summary.getByRole('link').nth(1).click();
     expect(await page.evaluate(() => document.activeElement?.id)).toBe('tardieu-0-r2Deg');
+    await context.close();
+  });
+
+  it('opens a saved visit and amends it with a reason, audited with the old and new value', async () => {
+    const context = await newAppContext(browser, { viewport: tablet });
+    const page = await context.newPage();
+    await setUpDevice(page, { demo: false });
+    await addPatient(page);
+    await openVisit(page, new Taps());
+    await firstVisitByHand(page, new Taps());
+    await page.getByRole('button', { name: 'Save assessment' }).click();
+    await page.getByText('Assessment saved.').waitFor();
+
+    await page.getByRole('link', { name: /Open or amend the visit of/ }).click();
+    await page.getByRole('heading', { name: /Amend a visit/ }).waitFor();
+    const mas = section(page, 'Modified Ashworth');
+    // The saved grades are in the form: hip adductors (catalogue order first) was 1.
+    const hip = mas.locator('.entry').nth(0);
+    expect(await hip.getByRole('radio', { name: '1', exact: true }).isChecked()).toBe(true);
+    expect(await section(page, 'Range of motion').getByLabel('Angle (°)').inputValue()).toBe('118');
+    await hip.getByRole('radio', { name: '3', exact: true }).click();
+    await page.getByRole('button', { name: 'Save the amendment' }).click();
+    await page.locator('#issue-summary').getByRole('link', { name: /Reason for the amendment/ }).waitFor();
+    expect(await page.evaluate(() => document.activeElement?.id)).toBe('amendReason');
+    await page.getByLabel('Reason for the amendment').fill('grade entered on the wrong side of the scale');
+    await screenshot(page, 'visit-amend-tablet');
+    await page.getByRole('button', { name: 'Save the amendment' }).click();
+    await page.getByText(/Amendment saved/).waitFor();
+    // Still one visit line.
+    await expect(page.getByRole('link', { name: /Open or amend the visit of/ }).count()).resolves.toBe(1);
+
+    type Audit = { action: string; table: string; note: string | null; before: { value?: { grade: string } } | null; after: { value?: { grade: string } } | null };
+    const amended = (await tableRows<Audit>(page, 'audit')).filter((e) => e.note === 'amended: grade entered on the wrong side of the scale');
+    expect(amended.map((e) => `${e.action} ${e.table}`).sort()).toEqual(['update assessments', 'update observations']);
+    const grade = amended.find((e) => e.table === 'observations')!;
+    expect(grade.before?.value?.grade).toBe('1');
+    expect(grade.after?.value?.grade).toBe('3');
+
+    await page.getByRole('link', { name: /Open or amend the visit of/ }).click();
+    await page.getByText(/grade entered on the wrong side of the scale/).waitFor();
     await context.close();
   });
 });

@@ -142,3 +142,47 @@ export function chooseProtocol(kept: KeptProtocol | undefined, assessments: read
 
 /** The device-local key under which a patient's protocol is kept. */
 export const protocolStateKey = (patientId: string) => `local:visit-protocol-${patientId.toLowerCase()}`;
+
+/** "YYYY-MM-DDTHH:MM" in the device's time zone, as the form's date and time fields hold it. */
+export function localDateTime(iso: string): string {
+  const d = new Date(iso);
+  const two = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${two(d.getMonth() + 1)}-${two(d.getDate())}T${two(d.getHours())}:${two(d.getMinutes())}`;
+}
+
+/** The form of a saved visit, to amend it: its conditions and every live form observation, filled. */
+export function draftFromVisit(visit: Assessment, observations: readonly Observation[], empty: AssessmentDraft): AssessmentDraft {
+  const own = observations.filter((o) => o.assessmentId === visit.id && !o.deleted);
+  const draft = draftFromProtocol(visit.patientId, localDateTime(visit.performedAt), visitProtocol([visit], own), empty);
+  const c = visit.conditions;
+  Object.assign(draft, {
+    setting: visit.setting,
+    position: c.position ?? '',
+    minutesSinceMedication: c.minutesSinceMedication === null ? '' : String(c.minutesSinceMedication),
+    painNrs: c.painNrs === null ? '' : String(c.painNrs),
+  });
+  const valueOf = (measureCode: string, siteCode: string, side: string, mode: string | null = null) =>
+    own.find((o) => seriesKey(o) === seriesKey({ measureCode, siteCode, side: side as Observation['side'], mode: mode as Observation['mode'] }))?.value;
+  for (const row of draft.mas) {
+    const v = valueOf('mas', row.siteCode, row.side);
+    if (v?.kind === 'ordinal') row.grade = v.grade;
+  }
+  for (const row of draft.tardieu) {
+    const v = valueOf('tardieu', row.siteCode, row.side);
+    if (v?.kind === 'tardieu') Object.assign(row, { r1Deg: String(v.r1Deg), r2Deg: String(v.r2Deg), quality: v.quality });
+  }
+  for (const row of draft.rom) {
+    const v = valueOf('rom', row.siteCode, row.side, row.mode);
+    if (v?.kind === 'angle') row.angleDeg = String(v.angleDeg);
+  }
+  const rating = (code: string) => {
+    const v = valueOf(code, 'whole-body', 'none');
+    return v?.kind === 'rating' ? v.value : null;
+  };
+  draft.pennFrequency = rating('penn-spasm-frequency');
+  draft.spasmSeverity = rating('spasm-severity');
+  return draft;
+}
+
+/** The measures the visit form holds (an amendment never touches other observations of the visit). */
+export const VISIT_FORM_MEASURES: readonly string[] = FORM_MEASURES;
