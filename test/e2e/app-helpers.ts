@@ -115,3 +115,16 @@ export async function tableRows<T = Record<string, unknown>>(page: Page, table: 
     table,
   );
 }
+
+/**
+ * Marks every test laid out from the patient's last visit "Not tested today", so that a test can
+ * add and fill its own rows on a patient with history (the carried rows would otherwise ask for values).
+ */
+export async function markCarriedTestsNotTested(page: Page): Promise<void> {
+  const buttons = page.getByRole('button', { name: 'Not tested today' });
+  const count = await buttons.count();
+  for (let i = 0; i < count; i++) {
+    const button = buttons.nth(i);
+    if ((await button.getAttribute('aria-pressed')) !== 'true') await button.click();
+  }
+}

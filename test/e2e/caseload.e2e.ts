@@ -3,8 +3,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
-import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, phone, runScriptInPage, screenshot } from './harness';
+import { setUpDevice, unlockVault } from './app-helpers';
+import { launchChromium, newAppContext, phone, runScriptInPage, screenshot, setTextScale, smallPhone } from './harness';
 
 let browser: Browser;
 let bundle: string;
@@ -46,6 +46,34 @@ describe('caseload with 5,000 patients', () => {
     await page.getByText('30 of 5000 patients').waitFor();
     expect(await page.locator('a.row .code', { hasText: '3222-2222' }).count()).toBe(1);
     for (const code of await page.locator('a.row .code').allTextContents()) expect(code.startsWith('3222-222')).toBe(true);
+    await context.close();
+  });
+
+  it('reads at 360 px with names shown, at 100 % and 200 % text: no row printed over the next', async () => {
+    const context = await newAppContext(browser, { viewport: smallPhone });
+    const page = await context.newPage();
+    await setUpDevice(page);
+    await page.goto('/patients');
+    await unlockVault(page);
+    await page.locator('a.row .name').first().waitFor();
+    /** Rows whose content is taller than their slot, or whose slots overlap. */
+    const overlaps = () =>
+      page.evaluate(() => {
+        const problems: string[] = [];
+        const items = Array.from(document.querySelectorAll<HTMLElement>('ul[aria-label="Patients"] > li'));
+        for (const li of items) {
+          const cell = li.firstElementChild as HTMLElement | null;
+          if (cell && cell.scrollHeight > li.clientHeight + 1) problems.push(`row ${li.getAttribute('aria-posinset')}: content ${cell.scrollHeight} px in a ${li.clientHeight} px row`);
+        }
+        const boxes = items.map((li) => li.getBoundingClientRect()).sort((a, b) => a.top - b.top);
+        for (let i = 1; i < boxes.length; i++) if (boxes[i]!.top < boxes[i - 1]!.bottom - 0.5) problems.push(`rows ${i} and ${i + 1} overlap`);
+        return problems;
+      });
+    expect(await overlaps()).toEqual([]);
+    await screenshot(page, 'caseload-names-360');
+    await setTextScale(page, 2);
+    await expect.poll(overlaps, { timeout: 10_000 }).toEqual([]);
+    await screenshot(page, 'caseload-names-360-text-200');
     await context.close();
   });
 });

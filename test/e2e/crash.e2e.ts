@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { inject } from 'vitest';
-import { setUpDevice, tableRows } from './app-helpers';
+import { markCarriedTestsNotTested, setUpDevice, tableRows } from './app-helpers';
 import { baseUrl, tablet } from './harness';
 
 const profile = mkdtempSync(join(tmpdir(), 'kinnote-crash-'));
@@ -183,8 +183,9 @@ describe('browser killed with SIGKILL, restarted on the same profile', () => {
       let page = await launch();
       await openForm(page);
       const mas = page.locator('section', { has: page.getByRole('heading', { name: 'Modified Ashworth' }) });
+      await markCarriedTestsNotTested(page);
       await mas.getByRole('button', { name: 'Add a muscle group' }).click();
-      await mas.getByRole('radio', { name: '1+', exact: true }).check();
+      await mas.locator('.entry').last().getByRole('radio', { name: '1+', exact: true }).check();
       await minutesField(page).fill(String(marker));
       await page.getByRole('button', { name: 'Save assessment' }).click();
       await delay(waitMs);

@@ -301,8 +301,11 @@ export function generateDemoScenario(options: DemoOptions): DemoScenario {
           const full = TARDIEU_FULL_RANGE_DEG[site] ?? 90;
           const r2 = clamp(Math.round(full - contractureDeg * (full / 145) + rng.normal(0, 3)), 5, 180);
           const r1 = clamp(Math.round(r2 - full * (0.05 + 0.12 * Math.max(0, tone)) + rng.normal(0, 4)), 0, r2);
+          // Ankle sites read from neutral (0° = foot at 90° to the leg), the others from the muscle's
+          // shortest position: the ankle's range from full plantarflexion (−50°) is shifted to neutral.
+          const fromNeutral = site.startsWith('ankle') ? -50 : 0;
           const quality = tone < 1 ? 1 : tone < 2.2 ? 2 : site.startsWith('ankle') && tone > 2.8 ? 3 : 2;
-          observe('tardieu', site, side, { kind: 'tardieu', r1Deg: r1, r2Deg: r2, quality, spasticityAngleDeg: r2 - r1 });
+          observe('tardieu', site, side, { kind: 'tardieu', r1Deg: r1 + fromNeutral, r2Deg: r2 + fromNeutral, quality, spasticityAngleDeg: r2 - r1 });
         }
       }
       for (const rom of profile.rom) {

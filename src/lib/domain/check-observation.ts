@@ -43,9 +43,11 @@ export function checkObservation(obs: Observation): ValidationIssue[] {
     }
     case 'tardieu': {
       if (value.kind !== 'tardieu') break;
-      const { min, max } = measure.angleLimits;
-      inRange('value.r1Deg', value.r1Deg, min, max, 'deg');
-      inRange('value.r2Deg', value.r2Deg, min, max, 'deg');
+      // Per site where the site has its own limits (the ankle: those of ROM ankle dorsiflexion).
+      const { min, max } = site?.limits ?? measure.angleLimits;
+      const unit = site?.limits ? `deg at the ${site.label.toLowerCase()} (${site.angleReference ?? 'see the site'})` : 'deg';
+      inRange('value.r1Deg', value.r1Deg, min, max, unit);
+      inRange('value.r2Deg', value.r2Deg, min, max, unit);
       if (value.r1Deg > value.r2Deg) issues.push({ path: 'value.r1Deg', message: 'R1 (fast catch) cannot exceed R2 (slow passive range)' });
       if (!measure.qualityGrades.some((g) => g.rank === value.quality)) issues.push({ path: 'value.quality', message: `${value.quality} is not a quality grade 0–5` });
       if (Math.abs(value.spasticityAngleDeg - (value.r2Deg - value.r1Deg)) > 1e-9) {

@@ -20,15 +20,30 @@ const MUSCLE_GROUPS: readonly MeasureSite[] = [
   { code: 'ankle-plantarflexors', label: 'Ankle plantarflexors' },
 ];
 
+/**
+ * Tardieu angles (R1, R2) are read from the position of minimal stretch of the muscle (its
+ * shortest position, 0°), except at the ankle, where 0° is the foot at 90° to the leg and the
+ * angle is dorsiflexion, negative short of neutral (convention as recalled from the scale's
+ * description, FROM MEMORY: no copy found with the search tool; the NINDS CDE field "Tardieu Scale
+ * muscle reaction angle measurement" (cprn.org copy, VERIFIED page) gives degrees of arc but no
+ * reference position). At the ankle the limits are those of the ROM row's ankle dorsiflexion, so
+ * the two rows accept the same angles for the same joint.
+ */
+const FROM_SHORTEST = "0° = the muscle's shortest position (minimal stretch); the angle is the range moved from there";
+const ANKLE_DORSIFLEXION = ROM_SITES.find((s) => s.code === 'ankle-dorsiflexion');
+const ANKLE_TARDIEU = {
+  angleReference: '0° = foot at 90° to the leg; positive = dorsiflexion, negative = short of neutral (plantarflexed), as in the range-of-motion row',
+  ...(ANKLE_DORSIFLEXION?.limits ? { limits: { ...ANKLE_DORSIFLEXION.limits, basis: `as ROM ankle dorsiflexion: ${ANKLE_DORSIFLEXION.limits.basis}` } } : {}),
+};
 const TARDIEU_SITES: readonly MeasureSite[] = [
-  { code: 'elbow-flexors', label: 'Elbow flexors' },
-  { code: 'wrist-flexors', label: 'Wrist flexors' },
-  { code: 'finger-flexors', label: 'Finger flexors' },
-  { code: 'hip-adductors', label: 'Hip adductors' },
-  { code: 'knee-flexors', label: 'Hamstrings' },
-  { code: 'knee-extensors', label: 'Rectus femoris / quadriceps' },
-  { code: 'ankle-gastrocnemius', label: 'Gastrocnemius (knee extended)' },
-  { code: 'ankle-soleus', label: 'Soleus (knee flexed)' },
+  { code: 'elbow-flexors', label: 'Elbow flexors', angleReference: FROM_SHORTEST },
+  { code: 'wrist-flexors', label: 'Wrist flexors', angleReference: FROM_SHORTEST },
+  { code: 'finger-flexors', label: 'Finger flexors', angleReference: FROM_SHORTEST },
+  { code: 'hip-adductors', label: 'Hip adductors', angleReference: FROM_SHORTEST },
+  { code: 'knee-flexors', label: 'Hamstrings', angleReference: FROM_SHORTEST },
+  { code: 'knee-extensors', label: 'Rectus femoris / quadriceps', angleReference: FROM_SHORTEST },
+  { code: 'ankle-gastrocnemius', label: 'Gastrocnemius (knee extended)', ...ANKLE_TARDIEU },
+  { code: 'ankle-soleus', label: 'Soleus (knee flexed)', ...ANKLE_TARDIEU },
 ];
 
 const WHOLE_PERSON: readonly MeasureSite[] = [{ code: 'whole-body', label: 'Whole body' }];
@@ -94,7 +109,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
     code: 'tardieu',
     label: 'Modified Tardieu Scale',
     description:
-      'R1: angle of catch at the fast (V3) stretch; R2: passive range at the slow (V1) stretch; quality of muscle reaction 0–5; spasticity angle R2 − R1. Angles are the range reached from the muscle’s shortest position.',
+      'R1: angle of catch at the fast (V3) stretch; R2: passive range at the slow (V1) stretch; quality of muscle reaction 0–5; spasticity angle R2 − R1. Angles from the muscle’s shortest position, except at the ankle (0° = foot at 90° to the leg; see each site).',
     kind: 'tardieu',
     unit: 'deg',
     improvement: 'lower',

@@ -43,6 +43,11 @@ export interface MeasureSite {
   readonly label: string;
   /** Valid range at this site when it differs from the measure's (joint motions). */
   readonly limits?: { readonly min: number; readonly max: number; readonly basis: string };
+  /**
+   * Where 0° is for angles at this site, in words shown beside the angle fields (Tardieu: from the
+   * muscle's shortest position, except at the ankle, where 0° is the foot at 90° to the leg).
+   */
+  readonly angleReference?: string;
   /** Overrides the measure's error reference at this site. */
   readonly reference?: ErrorReference;
 }

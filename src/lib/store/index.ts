@@ -3,7 +3,7 @@
 export { liveQuery } from 'dexie';
 export { StoreError, describeIssues, toStoreError, type StoreErrorCode, type StoreIssue } from './store-error';
 export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreSettings } from './open-store';
-export { CHANGED_ELSEWHERE, IdentityRepository, ObservationRepository, Repository, type EditOptions, type Input, type Patch, type WritableTable, type WriteOptions } from './repository';
+export { CHANGED_ELSEWHERE, IdentityRepository, ObservationRepository, Repository, type EditOptions, type Input, type Patch, type PreparedChange, type WritableTable, type WriteOptions } from './repository';
 export type { Actor, StoreContext } from './store-context';
 export type { AssessmentRow, EventRow, IdentityRow, Row, RowTables } from './rows';
 export { SCHEMA_VERSIONS, LATEST_SCHEMA_VERSION, declareSchema, type SchemaVersion } from './schema';
@@ -31,6 +31,7 @@ export { requestPersistentStorage, storageUsage, type StorageManagerLike } from 
 export { demoBundle, loadDemoCaseload } from './demo-caseload';
 export { CASELOAD_SUMMARIES_TABLE, type CaseloadPatient, type CaseloadSummaryRow } from './caseload-summaries';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
+export { amendAssessment, type AmendedObservation } from './amend-assessment';
 export { readLocalState, writeLocalState } from './local-state';
 export {
   PHONE_REANALYSIS_NOTICE,

@@ -200,6 +200,48 @@ export class Repository<K extends WritableTable> {
     options: EditOptions,
     patch: Patch<K>,
   ): Promise<Row<K>> {
+    const prepared = await this.#prepareChange(id, action, apply, options, patch, null);
+    try {
+      await this.ctx.db.transaction('rw', writeTables(this.table, options), async (tx) => {
+        await this.writePrepared(prepared);
+        await discardDraftInTransaction(this.ctx.db, options.draftId);
+        await settleCaseloadSummaries(this.ctx.db, tx);
+      });
+    } catch (error) {
+      throw toStoreError(error, `saving ${this.table} ${id}`);
+    }
+    return prepared.row;
+  }
+
+  /**
+   * Validates, stamps and seals a change of one record (an update with `patch`, or a delete) and
+   * builds its audit entry (with `note`, e.g. the reason of an amendment) without writing, so that
+   * several records change in one transaction (see amendAssessment). Write it with writePrepared
+   * inside a transaction over this table and 'audit'. Throws like update().
+   */
+  async prepareChange(id: string, action: 'update' | 'delete', patch: Patch<K>, options: EditOptions = {}, note: string | null = null): Promise<PreparedChange<K>> {
+    const apply = action === 'delete' ? (current: RecordTables[K]) => ({ ...current, deleted: true }) : (current: RecordTables[K]) => ({ ...current, ...patch });
+    return this.#prepareChange(id, action, apply, options, action === 'delete' ? {} : patch, note);
+  }
+
+  /** Writes a prepared change inside the caller's transaction; VersionConflict when the record moved on. */
+  async writePrepared(prepared: PreparedChange<K>): Promise<void> {
+    const now = await this.dexieTable.get(prepared.id);
+    if (!now || (now as { updatedAt: string }).updatedAt !== prepared.readUpdatedAt) {
+      throw new StoreError('VersionConflict', `${this.table} ${prepared.id}: ${CHANGED_ELSEWHERE} (changed while saving)`);
+    }
+    await this.dexieTable.put(prepared.row);
+    await this.ctx.db.table('audit').add(prepared.audit);
+  }
+
+  async #prepareChange(
+    id: string,
+    action: 'update' | 'delete' | 'restore',
+    apply: (current: RecordTables[K]) => RecordTables[K],
+    options: EditOptions,
+    patch: Patch<K>,
+    note: string | null,
+  ): Promise<PreparedChange<K>> {
     const expectedUpdatedAt = options.expectedUpdatedAt;
     const actor = requireActor(this.ctx);
     for (const key of ['id', 'createdAt', 'updatedAt', 'deviceId', 'clinicianId', 'deleted']) {
@@ -228,23 +270,18 @@ export class Repository<K extends WritableTable> {
       for (const f of codec.sealedFields) kept[f] = (current as Record<string, unknown>)[f];
       row = kept as Row<K>;
     }
-    const audit = auditEntry(this.ctx, at, action, this.table, id, auditSnapshot(this.table, current as never), auditSnapshot(this.table, row as never));
-    try {
-      await this.ctx.db.transaction('rw', writeTables(this.table, options), async (tx) => {
-        const now = await this.dexieTable.get(id);
-        if (!now || (now as { updatedAt: string }).updatedAt !== currentUpdatedAt) {
-          throw new StoreError('VersionConflict', `${this.table} ${id}: ${CHANGED_ELSEWHERE} (changed while saving)`);
-        }
-        await this.dexieTable.put(row);
-        await this.ctx.db.table('audit').add(audit);
-        await discardDraftInTransaction(this.ctx.db, options.draftId);
-        await settleCaseloadSummaries(this.ctx.db, tx);
-      });
-    } catch (error) {
-      throw toStoreError(error, `saving ${this.table} ${id}`);
-    }
-    return row;
+    const audit = auditEntry(this.ctx, at, action, this.table, id, auditSnapshot(this.table, current as never), auditSnapshot(this.table, row as never), note);
+    return { id, row, audit, readUpdatedAt: currentUpdatedAt };
   }
+}
+
+/** A change validated and stamped, with its audit entry, not yet written (see prepareChange). */
+export interface PreparedChange<K extends WritableTable> {
+  readonly id: string;
+  readonly row: Row<K>;
+  readonly audit: AuditEntry;
+  /** The record's updatedAt when it was read: the write is refused if it moved on. */
+  readonly readUpdatedAt: string;
 }
 
 /** The tables a write touches; drafts only when one is removed, so writes nest in narrower transactions. */

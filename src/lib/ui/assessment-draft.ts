@@ -24,10 +24,12 @@ export interface AssessmentDraft {
   position: NonNullable<Assessment['conditions']['position']> | '';
   minutesSinceMedication: string;
   painNrs: string;
-  mas: Array<{ key: string; siteCode: string; side: 'left' | 'right'; grade: string | null }>;
-  tardieu: Array<{ key: string; siteCode: string; side: 'left' | 'right'; r1Deg: string; r2Deg: string; quality: number | null }>;
+  /** Rows; `carried` rows come from the visit protocol (site and side fixed so the series continue). */
+  mas: Array<{ key: string; siteCode: string; side: 'left' | 'right'; grade: string | null; carried?: boolean }>;
+  tardieu: Array<{ key: string; siteCode: string; side: 'left' | 'right'; r1Deg: string; r2Deg: string; quality: number | null; carried?: boolean }>;
   rom: Array<{
     key: string;
+    carried?: boolean;
     siteCode: string;
     side: 'left' | 'right';
     mode: RomMode;
@@ -37,6 +39,8 @@ export interface AssessmentDraft {
   pennFrequency: number | null;
   spasmSeverity: number | null;
   notes: string;
+  /** Keys of rows marked "Not tested today": saved nowhere, and never an issue. */
+  notTested?: string[];
 }
 
 export function emptyDraft(patientId: string, performedAtLocal: string): AssessmentDraft {
@@ -54,6 +58,7 @@ export function emptyDraft(patientId: string, performedAtLocal: string): Assessm
     pennFrequency: null,
     spasmSeverity: null,
     notes: '',
+    notTested: [],
   };
 }
 
@@ -79,7 +84,8 @@ function siteLabel(measureCode: string, siteCode: string): string {
 
 /**
  * Turns the form into observations, checking each against the measure catalogue (ranges and
- * physiological limits). Rows left blank are skipped, not refused; a half-filled row is an issue.
+ * physiological limits). Every row needs a value or an explicit "Not tested today" (a blank row is
+ * an issue, so that a test is never dropped from the visit unnoticed); a half-filled row is an issue.
  */
 export function draftObservations(draft: AssessmentDraft): { observations: ObservationDraft[]; issues: DraftIssue[] } {
   const observations: ObservationDraft[] = [];
@@ -112,8 +118,14 @@ export function draftObservations(draft: AssessmentDraft): { observations: Obser
     observations.push(obs);
   };
 
+  const skipped = new Set(draft.notTested ?? []);
+  const blank = (field: string) => issues.push({ field, message: 'no value yet: record one, or tap "Not tested today"' });
   draft.mas.forEach((row, i) => {
-    if (row.grade === null) return;
+    if (skipped.has(row.key)) return;
+    if (row.grade === null) {
+      blank(`mas.${i}.grade`);
+      return;
+    }
     add(`mas.${i}`, {
       measureCode: 'mas',
       siteCode: row.siteCode,
@@ -125,9 +137,13 @@ export function draftObservations(draft: AssessmentDraft): { observations: Obser
   });
 
   draft.tardieu.forEach((row, i) => {
+    if (skipped.has(row.key)) return;
     const r1 = parseNumber(row.r1Deg);
     const r2 = parseNumber(row.r2Deg);
-    if (r1 === null && r2 === null && row.quality === null) return;
+    if (r1 === null && r2 === null && row.quality === null) {
+      blank(`tardieu.${i}.r1Deg`);
+      return;
+    }
     const missing: string[] = [];
     if (r1 === null) missing.push('r1Deg');
     if (r2 === null) missing.push('r2Deg');
@@ -149,8 +165,12 @@ export function draftObservations(draft: AssessmentDraft): { observations: Obser
   });
 
   draft.rom.forEach((row, i) => {
+    if (skipped.has(row.key)) return;
     const angle = parseNumber(row.angleDeg);
-    if (angle === null) return;
+    if (angle === null) {
+      blank(`rom.${i}.angleDeg`);
+      return;
+    }
     if (Number.isNaN(angle)) {
       issues.push({ field: `rom.${i}.angleDeg`, message: 'not a number' });
       return;

@@ -1,0 +1,188 @@
+import { findMeasure, type Assessment, type Instrument, type Observation, type ObservationValue, type RomMode } from '$lib/domain';
+import { seriesKey } from '$lib/stats';
+import type { AssessmentDraft } from './assessment-draft';
+
+/**
+ * A patient's visit protocol: the tests of the last visit (measure, site, side, ROM mode and
+ * instrument), laid out ready in the next visit's form with their previous values, so that the
+ * same muscles continue their series instead of silently starting new ones.
+ */
+export interface ProtocolTest {
+  readonly measureCode: string;
+  readonly siteCode: string;
+  readonly side: Observation['side'];
+  readonly mode: RomMode | null;
+  readonly instrument: Instrument | null;
+}
+
+/** Measures the visit form lays out as rows; instrument readings (pendulum) come from their own flows. */
+const FORM_MEASURES = ['mas', 'tardieu', 'rom', 'penn-spasm-frequency', 'spasm-severity'] as const;
+
+/** Calendar day of an assessment in the device's time zone (visits are days as the therapist sees them). */
+function localDay(iso: string): string {
+  const d = new Date(iso);
+  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
+}
+
+/**
+ * The tests of the patient's last visit: every live form observation of the live assessments on the
+ * day of the latest assessment that holds any (same-day assessments saved separately in earlier
+ * versions count as one visit). Ordered by measure (as in the form), then by catalogue site order,
+ * left before right. Empty when the patient has no history.
+ */
+export function visitProtocol(assessments: readonly Assessment[], observations: readonly Observation[]): ProtocolTest[] {
+  const live = observations.filter((o) => !o.deleted && (FORM_MEASURES as readonly string[]).includes(o.measureCode));
+  const withForm = new Set(live.map((o) => o.assessmentId));
+  const candidates = assessments.filter((a) => !a.deleted && withForm.has(a.id));
+  if (candidates.length === 0) return [];
+  const latest = candidates.reduce((a, b) => (Date.parse(b.performedAt) > Date.parse(a.performedAt) ? b : a));
+  const day = localDay(latest.performedAt);
+  const visitIds = new Set(candidates.filter((a) => localDay(a.performedAt) === day).map((a) => a.id));
+  const tests = new Map<string, ProtocolTest>();
+  for (const o of live) {
+    if (!visitIds.has(o.assessmentId)) continue;
+    const key = seriesKey(o);
+    if (!tests.has(key)) tests.set(key, { measureCode: o.measureCode, siteCode: o.siteCode, side: o.side, mode: o.mode, instrument: o.instrument });
+  }
+  const order = (t: ProtocolTest) => {
+    const measureIndex = (FORM_MEASURES as readonly string[]).indexOf(t.measureCode);
+    const siteIndex = findMeasure(t.measureCode)?.sites.findIndex((s) => s.code === t.siteCode) ?? 0;
+    const sideIndex = t.side === 'left' ? 0 : t.side === 'right' ? 1 : 2;
+    return [measureIndex, siteIndex, sideIndex, t.mode === 'active' ? 1 : 0];
+  };
+  return [...tests.values()].sort((a, b) => {
+    const x = order(a);
+    const y = order(b);
+    for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return (x[i] as number) - (y[i] as number);
+    return 0;
+  });
+}
+
+/** The latest live observation of every series (keyed by seriesKey), for "last time" beside each row. */
+export function lastObservations(observations: readonly Observation[]): Map<string, Observation> {
+  const last = new Map<string, Observation>();
+  for (const o of observations) {
+    if (o.deleted) continue;
+    const key = seriesKey(o);
+    const held = last.get(key);
+    if (!held || Date.parse(o.takenAt) > Date.parse(held.takenAt)) last.set(key, o);
+  }
+  return last;
+}
+
+/** A value in words for "last time": "1+", "R1 −10° · R2 15° · quality 2", "118°", "2". */
+export function describeValue(value: ObservationValue): string {
+  const deg = (x: number) => `${String(x).replace('-', '−')}°`;
+  switch (value.kind) {
+    case 'ordinal':
+      return value.grade;
+    case 'tardieu':
+      return `R1 ${deg(value.r1Deg)} · R2 ${deg(value.r2Deg)} · quality ${value.quality}`;
+    case 'angle':
+      return deg(value.angleDeg);
+    default:
+      return String(value.value);
+  }
+}
+
+/**
+ * A new visit's form with the protocol's tests laid out (carried rows: site, side, mode and
+ * instrument fixed, so the series continue) and no values: the therapist records today's.
+ */
+export function draftFromProtocol(patientId: string, performedAtLocal: string, protocol: readonly ProtocolTest[], empty: AssessmentDraft): AssessmentDraft {
+  const draft: AssessmentDraft = { ...empty, patientId, performedAtLocal, mas: [], tardieu: [], rom: [], notTested: [] };
+  protocol.forEach((t, i) => {
+    const key = `carried-${i}`;
+    const side = t.side === 'right' ? 'right' : 'left';
+    if (t.measureCode === 'mas') draft.mas.push({ key, siteCode: t.siteCode, side, grade: null, carried: true });
+    else if (t.measureCode === 'tardieu') draft.tardieu.push({ key, siteCode: t.siteCode, side, r1Deg: '', r2Deg: '', quality: null, carried: true });
+    else if (t.measureCode === 'rom') {
+      draft.rom.push({ key, siteCode: t.siteCode, side, mode: t.mode ?? 'passive', instrument: t.instrument ?? 'universal-goniometer', angleDeg: '', carried: true });
+    }
+  });
+  return draft;
+}
+
+/** The protocol as kept on this device after a save: the visit it followed, and its tests. */
+export interface KeptProtocol {
+  readonly afterAssessmentId: string;
+  readonly tests: readonly ProtocolTest[];
+}
+
+/**
+ * The protocol a saved visit leaves for the next: every row of the form, including those marked
+ * "Not tested today" (they stay in the protocol), without rows the therapist removed; the spasm
+ * ratings when recorded.
+ */
+export function protocolFromDraft(draft: AssessmentDraft): ProtocolTest[] {
+  const tests: ProtocolTest[] = [
+    ...draft.mas.map((r) => ({ measureCode: 'mas', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
+    ...draft.tardieu.map((r) => ({ measureCode: 'tardieu', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
+    ...draft.rom.map((r) => ({ measureCode: 'rom', siteCode: r.siteCode, side: r.side, mode: r.mode, instrument: r.instrument })),
+  ];
+  if (draft.pennFrequency !== null) tests.push({ measureCode: 'penn-spasm-frequency', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
+  if (draft.spasmSeverity !== null) tests.push({ measureCode: 'spasm-severity', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
+  const unique = new Map(tests.map((t) => [seriesKey(t), t]));
+  return [...unique.values()];
+}
+
+/**
+ * The protocol for a new visit: the one kept after the latest visit when it is still the latest
+ * live visit (so tests "not tested today" come back next time), else the tests of the last visit as
+ * recorded (a visit saved on another device, or none kept).
+ */
+export function chooseProtocol(kept: KeptProtocol | undefined, assessments: readonly Assessment[], observations: readonly Observation[]): ProtocolTest[] {
+  const live = assessments.filter((a) => !a.deleted);
+  const keptVisit = kept ? live.find((a) => a.id === kept.afterAssessmentId) : undefined;
+  if (kept && keptVisit && live.every((a) => Date.parse(a.performedAt) <= Date.parse(keptVisit.performedAt) || !observations.some((o) => o.assessmentId === a.id && !o.deleted && (FORM_MEASURES as readonly string[]).includes(o.measureCode)))) {
+    return [...kept.tests];
+  }
+  return visitProtocol(assessments, observations);
+}
+
+/** The device-local key under which a patient's protocol is kept. */
+export const protocolStateKey = (patientId: string) => `local:visit-protocol-${patientId.toLowerCase()}`;
+
+/** "YYYY-MM-DDTHH:MM" in the device's time zone, as the form's date and time fields hold it. */
+export function localDateTime(iso: string): string {
+  const d = new Date(iso);
+  const two = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${two(d.getMonth() + 1)}-${two(d.getDate())}T${two(d.getHours())}:${two(d.getMinutes())}`;
+}
+
+/** The form of a saved visit, to amend it: its conditions and every live form observation, filled. */
+export function draftFromVisit(visit: Assessment, observations: readonly Observation[], empty: AssessmentDraft): AssessmentDraft {
+  const own = observations.filter((o) => o.assessmentId === visit.id && !o.deleted);
+  const draft = draftFromProtocol(visit.patientId, localDateTime(visit.performedAt), visitProtocol([visit], own), empty);
+  const c = visit.conditions;
+  Object.assign(draft, {
+    setting: visit.setting,
+    position: c.position ?? '',
+    minutesSinceMedication: c.minutesSinceMedication === null ? '' : String(c.minutesSinceMedication),
+    painNrs: c.painNrs === null ? '' : String(c.painNrs),
+  });
+  const valueOf = (measureCode: string, siteCode: string, side: string, mode: string | null = null) =>
+    own.find((o) => seriesKey(o) === seriesKey({ measureCode, siteCode, side: side as Observation['side'], mode: mode as Observation['mode'] }))?.value;
+  for (const row of draft.mas) {
+    const v = valueOf('mas', row.siteCode, row.side);
+    if (v?.kind === 'ordinal') row.grade = v.grade;
+  }
+  for (const row of draft.tardieu) {
+    const v = valueOf('tardieu', row.siteCode, row.side);
+    if (v?.kind === 'tardieu') Object.assign(row, { r1Deg: String(v.r1Deg), r2Deg: String(v.r2Deg), quality: v.quality });
+  }
+  for (const row of draft.rom) {
+    const v = valueOf('rom', row.siteCode, row.side, row.mode);
+    if (v?.kind === 'angle') row.angleDeg = String(v.angleDeg);
+  }
+  const rating = (code: string) => {
+    const v = valueOf(code, 'whole-body', 'none');
+    return v?.kind === 'rating' ? v.value : null;
+  };
+  draft.pennFrequency = rating('penn-spasm-frequency');
+  draft.spasmSeverity = rating('spasm-severity');
+  return draft;
+}
+
+/** The measures the visit form holds (an amendment never touches other observations of the visit). */
+export const VISIT_FORM_MEASURES: readonly string[] = FORM_MEASURES;
