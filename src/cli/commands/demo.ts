@@ -1,6 +1,7 @@
 import { resolve } from 'node:path';
 import { DEMO_DEFAULT_END_DATE } from '../../lib/demo';
-import { demoBundle, serializeBundle } from '../../lib/store';
+import { serializeBundle } from '../../lib/store';
+import { demoBundle } from '../../lib/store/demo-caseload';
 import { optionDate, parseOptions, RefusedInput, type CliCommand } from '../command';
 import { writeOutputFile } from '../output-file';
 

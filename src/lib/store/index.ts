@@ -28,7 +28,8 @@ export { exportBackup, exportBackupText, type ExportOptions } from './export-bac
 export { importBackup, readBackup, type MergeConflict, type MergeReport, type ReadBackupOptions, type TableCounts } from './import-backup';
 export { checkReferences, type OutsideLookup } from './check-references';
 export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
-export { demoBundle, loadDemoCaseload } from './demo-caseload';
+// demo-caseload.ts is imported by its own path (not re-exported here), so the demo generator stays
+// out of the first screen's JavaScript: see DEVELOPERS.md, first-load budget.
 export { CASELOAD_SUMMARIES_TABLE, type CaseloadPatient, type CaseloadSummaryRow } from './caseload-summaries';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { amendAssessment, type AmendedObservation } from './amend-assessment';
@@ -40,13 +41,13 @@ export {
   dismissPhoneReanalysisNotice,
   phoneReanalysisPending,
   readPhoneReanalysisNotice,
-  runPendingPhoneReanalysis,
   type PhoneReanalysisNotice,
   type ReanalyseRecording,
   type ReanalysisNoticeChange,
   type ReanalysisNoticeFlag,
   type RecordingReanalysis,
 } from './phone-reanalysis';
+// phone-reanalysis-run.ts (the schema-7 step) is imported by its own path, loaded only when pending.
 export { setAssessmentDeleted } from './assessment-tombstone';
 export {
   DRAFTS_TABLE,

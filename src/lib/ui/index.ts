@@ -1,4 +1,3 @@
 // Public face of src/lib/ui: shared Svelte components and page-side helpers.
 export { default as UpdateBanner } from './UpdateBanner.svelte';
-export { default as ReanalysisNotice } from './ReanalysisNotice.svelte';
 export { updateWatch } from './update-watch.svelte';

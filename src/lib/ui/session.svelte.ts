@@ -5,7 +5,6 @@ import {
   dismissPhoneReanalysisNotice,
   phoneReanalysisPending,
   readPhoneReanalysisNotice,
-  runPendingPhoneReanalysis,
   StoreError,
   type Actor,
   type KinnoteStore,
@@ -115,7 +114,7 @@ class Session {
   async #reanalyse(store: KinnoteStore): Promise<void> {
     try {
       if (await phoneReanalysisPending(store)) {
-        const { reanalyseSavedRecording } = await import('$lib/sensors');
+        const [{ reanalyseSavedRecording }, { runPendingPhoneReanalysis }] = await Promise.all([import('$lib/sensors'), import('$lib/store/phone-reanalysis-run')]);
         const notice = await runPendingPhoneReanalysis(store, reanalyseSavedRecording);
         if (notice && notice.recordingsChanged > 0) this.changed();
       }

@@ -5,7 +5,8 @@ import { join } from 'node:path';
 import Papa from 'papaparse';
 import { runCli } from '../../../src/cli/main';
 import { SeededRandom } from '../../../src/lib/demo';
-import { demoBundle, encryptBundleText, serializeBundle } from '../../../src/lib/store';
+import { encryptBundleText, serializeBundle } from '../../../src/lib/store';
+import { demoBundle } from '../../../src/lib/store/demo-caseload';
 
 const scratch = mkdtempSync(join(tmpdir(), 'kinnote-cohort-'));
 

@@ -5,7 +5,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../../../src/cli/main';
-import { demoBundle, serializeBundle } from '../../../src/lib/store';
+import { serializeBundle } from '../../../src/lib/store';
+import { demoBundle } from '../../../src/lib/store/demo-caseload';
 
 const scratch = mkdtempSync(join(tmpdir(), 'kinnote-refusals-'));
 const fixtures = join(process.cwd(), 'test', 'fixtures');

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { TABLE_NAMES, validateRecord, type Observation } from '../../../src/lib/domain';
 import { DEMO_FICTION_NOTICE, SeededRandom, generateDemoScenario } from '../../../src/lib/demo';
-import { demoBundle, serializeBundle } from '../../../src/lib/store';
+import { serializeBundle } from '../../../src/lib/store';
+import { demoBundle } from '../../../src/lib/store/demo-caseload';
 
 const DAY_MS = 86_400_000;
 

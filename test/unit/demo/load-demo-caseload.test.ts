@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { loadDemoCaseload } from '../../../src/lib/store';
+import { loadDemoCaseload } from '../../../src/lib/store/demo-caseload';
 import { dumpAll, freshStore, steppingClock } from '../store/store-helpers';
 
 describe('loadDemoCaseload', () => {

@@ -13,8 +13,8 @@ import {
   dismissPhoneReanalysisNotice,
   openStore,
   readPhoneReanalysisNotice,
-  runPendingPhoneReanalysis,
 } from '../../../src/lib/store';
+import { runPendingPhoneReanalysis } from '../../../src/lib/store/phone-reanalysis-run';
 import { OLD_VALUES, actor, buildV6, ids, stamps, type Name } from './phone-reanalysis-fixture';
 
 const valueOf = (v: ObservationValue) => ('value' in v ? v.value : 'angleDeg' in v ? v.angleDeg : NaN);

@@ -6,7 +6,7 @@
 import { randomBytes } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { joinTeam, syncNow } from '../../../src/lib/sync';
-import { loadDemoCaseload } from '../../../src/lib/store';
+import { loadDemoCaseload } from '../../../src/lib/store/demo-caseload';
 import { createApp, migrate, openPostgres, TeamService } from '../../../src/server';
 import { newPostgresDatabase, pgDump, secretsIn } from '../server/pg-dump';
 import { freshStore, steppingClock } from '../store/store-helpers';

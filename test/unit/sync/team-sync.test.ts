@@ -110,7 +110,7 @@ describe('kinnote cohort --server', () => {
     const { tmpdir } = await import('node:os');
     const { join } = await import('node:path');
     const { runCli } = await import('../../../src/cli/main');
-    const { loadDemoCaseload } = await import('../../../src/lib/store');
+    const { loadDemoCaseload } = await import('../../../src/lib/store/demo-caseload');
     const { startTeamServer } = await import('../../../src/server');
     const db = await openTemplatePglite();
     await migrate(db);

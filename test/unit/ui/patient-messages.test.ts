@@ -4,7 +4,10 @@
 import { describe, expect, it } from 'vitest';
 import { EMPTY_DOSE } from '../../../src/lib/domain';
 import { doseParts } from '../../../src/lib/programme';
-import { PATIENT_LANGUAGES, PATIENT_MESSAGES } from '../../../src/lib/ui/programme/patient-messages';
+import { ENGLISH_MESSAGES, PATIENT_LANGUAGE_NAMES, PATIENT_LANGUAGES, loadPatientMessages } from '../../../src/lib/ui/programme/patient-messages';
+import { SPANISH_MESSAGES } from '../../../src/lib/ui/programme/patient-messages-es';
+
+const PATIENT_MESSAGES = { en: ENGLISH_MESSAGES, es: SPANISH_MESSAGES };
 
 const line = (language: 'en' | 'es', dose: typeof EMPTY_DOSE) => doseParts(dose).map(PATIENT_MESSAGES[language].dosePart).join(' · ');
 
@@ -23,6 +26,12 @@ describe('patient messages', () => {
     });
     // Only words that are the same in both languages may match.
     expect(same).toEqual([]);
+  });
+
+  it('loads each catalogue on demand, and names each language in itself', async () => {
+    expect(await loadPatientMessages('es')).toBe(SPANISH_MESSAGES);
+    expect(await loadPatientMessages('en')).toBe(ENGLISH_MESSAGES);
+    for (const language of PATIENT_LANGUAGES) expect(PATIENT_LANGUAGE_NAMES[language]).toBe(PATIENT_MESSAGES[language].languageName);
   });
 
   it('words doses in each language (hand-written lines)', () => {

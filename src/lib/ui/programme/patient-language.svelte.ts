@@ -1,4 +1,4 @@
-import { PATIENT_MESSAGES, isPatientLanguage, type PatientLanguage, type PatientMessages } from './patient-messages';
+import { ENGLISH_MESSAGES, isPatientLanguage, loadPatientMessages, type PatientLanguage, type PatientMessages } from './patient-messages';
 
 const KEY = 'kinnote.patient-language';
 
@@ -27,18 +27,44 @@ function fromBrowser(): PatientLanguage {
  * browser's language. Therapist screens stay English.
  */
 class PatientLanguageState {
-  current = $state<PatientLanguage>(readSaved() ?? fromBrowser());
+  #chosen = $state<PatientLanguage>(readSaved() ?? fromBrowser());
+  #catalogues = $state.raw<Partial<Record<PatientLanguage, PatientMessages>>>({ en: ENGLISH_MESSAGES });
+
+  constructor() {
+    void this.#load(this.#chosen);
+  }
+
+  /** The language chosen on this phone (its catalogue may still be loading). */
+  get chosen(): PatientLanguage {
+    return this.#chosen;
+  }
+
+  /** The language shown: the chosen one once its catalogue has loaded, English until then (and if it cannot load). */
+  get current(): PatientLanguage {
+    return this.#catalogues[this.#chosen] ? this.#chosen : 'en';
+  }
 
   get messages(): PatientMessages {
-    return PATIENT_MESSAGES[this.current];
+    return this.#catalogues[this.current] ?? ENGLISH_MESSAGES;
   }
 
   choose(language: PatientLanguage): void {
-    this.current = language;
+    this.#chosen = language;
+    void this.#load(language);
     try {
       localStorage.setItem(KEY, language);
     } catch {
       // Private mode without storage: the choice lasts until the page is closed.
+    }
+  }
+
+  async #load(language: PatientLanguage): Promise<void> {
+    if (this.#catalogues[language]) return;
+    try {
+      const messages = await loadPatientMessages(language);
+      this.#catalogues = { ...this.#catalogues, [language]: messages };
+    } catch {
+      // The catalogue could not load (a broken cache): the screens stay in English, still usable.
     }
   }
 }
