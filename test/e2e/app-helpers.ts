@@ -1,5 +1,6 @@
 // Steps shared by the browser tests: first-run set-up, the demo caseload, canvas checks.
 import type { Page } from 'playwright-core';
+import { expect } from 'vitest';
 
 export const TEST_PASSPHRASE = 'correct horse battery staple';
 
@@ -126,5 +127,16 @@ export async function markCarriedTestsNotTested(page: Page): Promise<void> {
   for (let i = 0; i < count; i++) {
     const button = buttons.nth(i);
     if ((await button.getAttribute('aria-pressed')) !== 'true') await button.click();
+  }
+}
+
+/** Unfolds every folded group of the patient overview (a long overview folds its biggest groups). */
+export async function openOverviewGroups(page: Page): Promise<void> {
+  // The table fills once the patient's records are read: wait for its rows before looking for folds.
+  await page.locator('table.overview tbody tr').first().waitFor();
+  const folded = page.locator('table.overview button.group-open[aria-expanded="false"]');
+  for (let n = await folded.count(); n > 0; n = await folded.count()) {
+    await folded.first().click();
+    await expect.poll(() => folded.count(), { message: 'waiting for an overview group to unfold' }).toBeLessThan(n);
   }
 }

@@ -7,7 +7,7 @@ import { analyseMotionRecording, parseMotionCsv } from '../../src/lib/sensors';
 import { phonePendulumCases, simulatePhonePendulum } from '../reference/sensors/phone-pendulum-simulator';
 import { axisAngle, multiply, SHIN_SCREEN_OUT, staticDeviceMotion, NO_ERRORS } from '../reference/sensors/device-motion-simulator';
 import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
-import { openFirstPatient, setUpDevice } from './app-helpers';
+import { openFirstPatient, openOverviewGroups, setUpDevice } from './app-helpers';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -134,8 +134,9 @@ describe('pendulum test with the phone', () => {
     await page.getByRole('button', { name: 'Save to patient record' }).click();
     await page.getByText(/^Saved to the patient's record/).waitFor({ timeout: 20_000 });
     await page.goto(patientPath);
-    // The overview table's row of the measure (one cell per visit).
-    const row = page.locator('table.overview tbody tr', { hasText: 'Pendulum relaxation index (R2)' });
+    // The overview table's row of the measure (one cell per visit; the pendulum indices are grouped).
+    await openOverviewGroups(page);
+    const row = page.locator('table.overview tbody tr:not(.group)').filter({ hasText: /relaxation index \(R2\)/i });
     await row.first().waitFor();
     const text = (await row.first().textContent()) ?? '';
     const values = Array.from(text.matchAll(/\d+\.\d+/g), (m) => Number(m[0]));
@@ -256,7 +257,8 @@ describe('phone inclinometer', () => {
     const angle = Number(/Saved ([\d.]+)°/.exec(saved ?? '')?.[1]);
     expect(Math.abs(angle - 95)).toBeLessThan(1);
     await page.goto(patientPath);
-    const row = page.locator('table.overview tbody tr', { hasText: 'Right knee flexion (passive) · Range of motion' });
+    await openOverviewGroups(page);
+    const row = page.locator('table.overview tbody tr:not(.group)').filter({ hasText: 'Right knee flexion (passive)' }).filter({ hasText: 'Range of motion' });
     await row.waitFor();
     expect(await row.textContent()).toContain(`${angle}°`);
     await context.close();
