@@ -30,7 +30,7 @@ function firstLoadBudget(): Plugin {
       const load = firstLoad(chunks, root);
       const problem = budgetProblem(load);
       if (problem) this.error(problem);
-      console.log(`[first-load budget] ${(load.gzipBytes / 1024).toFixed(1)} KB gzip of ${(FIRST_LOAD_BUDGET_BYTES / 1024).toFixed(0)} KB in ${load.files.length} files; no uPlot, no jsQR`);
+      console.log(`[first-load budget] ${(load.gzipBytes / 1024).toFixed(1)} KB gzip of ${(FIRST_LOAD_BUDGET_BYTES / 1024).toFixed(0)} KB in ${load.files.length} files; no uPlot, no jsQR, no pdf-lib`);
     },
   };
 }

@@ -48,6 +48,7 @@ export { eventContext, patientObservationsCsv, PATIENT_CSV_COLUMNS, type Patient
 export { localDateTime, type LocalDateTime } from './local-date-time';
 export {
   clinicianLabel,
+  defaultReportEvent,
   referralReport,
   ReferralReportError,
   REPORT_CAUTIONS,
@@ -62,4 +63,7 @@ export {
   type ReportVerdict,
   type ReportVisit,
 } from './referral-report';
-export { reportChartGeometry, type ChartBox, type ChartGeometry } from './report-chart-geometry';
+export { REPORT_CHART_AXIS_PX, REPORT_CHART_BOX, reportChartGeometry, type ChartBox, type ChartGeometry } from './report-chart-geometry';
+export * from './report-wording';
+// The report's PDF (referral-report-pdf.ts) is not exported here: it brings pdf-lib (~200 KB gzip), so the
+// page imports it by its own path, on demand.

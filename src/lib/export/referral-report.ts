@@ -147,6 +147,15 @@ export const REPORT_CAUTIONS: readonly string[] = [
   'Readings taken in another position, at another time after medication or by another rater may not be comparable.',
 ];
 
+/**
+ * The event a report covers by default: the latest botulinum toxin injection, else the latest event;
+ * null when the patient has none (then the report covers a period). Tombstones ignored.
+ */
+export function defaultReportEvent<E extends Pick<ClinicalEvent, 'id' | 'kind' | 'occurredOn' | 'deleted'>>(events: readonly E[]): E | null {
+  const byDate = events.filter((e) => !e.deleted).sort((a, b) => (a.occurredOn < b.occurredOn ? 1 : a.occurredOn > b.occurredOn ? -1 : 0));
+  return byDate.find((e) => e.kind === 'botulinum-toxin-injection') ?? byDate[0] ?? null;
+}
+
 function checkDay(value: string, field: string): void {
   if (!DAY_PATTERN.test(value) || Number.isNaN(Date.parse(`${value}T00:00:00Z`)) || new Date(`${value}T00:00:00Z`).toISOString().slice(0, 10) !== value) {
     throw new ReferralReportError(`referral report: ${field} "${value}" is not a calendar day (YYYY-MM-DD)`);

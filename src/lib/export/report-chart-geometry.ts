@@ -20,6 +20,10 @@ export interface ChartGeometry {
   readonly bottomLabel: string;
 }
 
+/** The box of a report chart (both the page's SVG and the PDF draw in it) and the room at its left for the value labels ("178.5°", "1+"). */
+export const REPORT_CHART_BOX: ChartBox = { widthPx: 150, heightPx: 44, padPx: 6 };
+export const REPORT_CHART_AXIS_PX = 34;
+
 const round = (value: number) => Math.round(value * 100) / 100;
 
 /**
