@@ -1,6 +1,5 @@
-/** Offers text as a file download (an object URL on an <a download>), entirely on the device. */
-export function downloadText(fileName: string, text: string, type: string): void {
-  const blob = new Blob([text], { type });
+/** Offers a file as a download (an object URL on an <a download>), entirely on the device. */
+export function downloadBlob(fileName: string, blob: Blob): void {
   const url = URL.createObjectURL(blob);
   const a = document.createElement('a');
   a.href = url;
@@ -9,4 +8,9 @@ export function downloadText(fileName: string, text: string, type: string): void
   a.click();
   a.remove();
   setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
+
+/** Offers text as a file download, entirely on the device. */
+export function downloadText(fileName: string, text: string, type: string): void {
+  downloadBlob(fileName, new Blob([text], { type }));
 }
