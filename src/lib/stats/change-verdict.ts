@@ -1,3 +1,4 @@
+import { formatFixed } from '../domain';
 import type { Baseline } from './select-baseline';
 import { StatsInputError } from './stats-input-error';
 
@@ -63,9 +64,10 @@ function gradeLabel(grades: readonly OrdinalGrade[], rank: number, where: string
   return grade.label;
 }
 
+// A change that rounds to zero is written "0", never "-0" or "+0" (a 104.8° → 104.5° swing reads "0°").
 function signed(value: number, decimals: number): string {
-  const text = value.toFixed(decimals);
-  return value > 0 ? `+${text}` : text;
+  const text = formatFixed(value, decimals);
+  return Number(text) > 0 ? `+${text}` : text;
 }
 
 /**

@@ -46,6 +46,9 @@ describe('changeVerdict', () => {
     expect(changeVerdict({ ...base, followUp: 14.1 }).verdict).toBe('no-change');
     expect(changeVerdict({ ...base, followUp: 14 }).verdict).toBe('worsened');
     expect(changeVerdict({ ...base, followUp: 25 }).text).toMatch(/no change beyond measurement error/i);
+    // A change that rounds to zero is "0", not "-0" or "+0" (toFixed keeps the sign of -0.3).
+    expect(changeVerdict({ ...base, mdc: null, followUp: 19.96 }).text).toMatch(/\(0\.0 deg\)/);
+    expect(changeVerdict({ ...base, mdc: null, followUp: 20.04 }).text).toMatch(/\(0\.0 deg\)/);
   });
 
   it('lower is better (Modified Ashworth): a fall of one grade with a reference MDC of 1 grade', () => {
