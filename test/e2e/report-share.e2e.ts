@@ -4,11 +4,11 @@
 // closing the sheet is no error; a refused share falls back to a download and says why. The files
 // are read back with poppler (pdfinfo, pdftotext) and two are rendered to images to look at.
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Download, Page } from 'playwright-core';
-import { setUpDevice } from './app-helpers';
+import { setUpDevice, unlockVault } from './app-helpers';
 import { launchChromium, newAppContext, screenshot, screenshotDir, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
 
 type ShareMode = 'absent' | 'accept' | 'abort' | 'refuse';
@@ -18,6 +18,7 @@ interface SharedFile {
   size: number;
   head: string;
   title: string;
+  base64: string;
 }
 
 let browser: Browser;
@@ -48,7 +49,10 @@ beforeAll(async () => {
       configurable: true,
       value: async (data: ShareData) => {
         for (const f of data.files ?? []) {
-          w.__shared.push({ name: f.name, type: f.type, size: f.size, head: await f.slice(0, 5).text(), title: data.title ?? '' });
+          const bytes = new Uint8Array(await f.arrayBuffer());
+          let binary = '';
+          for (const b of bytes) binary += String.fromCharCode(b);
+          w.__shared.push({ name: f.name, type: f.type, size: f.size, head: await f.slice(0, 5).text(), title: data.title ?? '', base64: btoa(binary) });
         }
         if (mode === 'abort') throw new DOMException('Share canceled', 'AbortError');
         if (mode === 'refuse') throw new DOMException('Must be handling a user gesture to perform a share request.', 'NotAllowedError');
@@ -174,4 +178,30 @@ describe('report share action', () => {
     await expect.poll(() => status().textContent()).toMatch(/did not take the file \(NotAllowedError: .*\); kinnote-report-.*\.pdf .* was downloaded instead/);
     await page.locator('div.controls').screenshot({ path: join(screenshotDir, 'report-share-refused-controls.png') });
   }, 60_000);
+
+  it('the shared PDF holds the name only when names are unlocked and the box is ticked', async () => {
+    await openReport(reportPaths[0]!, 'accept');
+    await unlockVault(page);
+    await page.locator('article.report').waitFor();
+    const box = page.getByLabel("Include the patient's name and date of birth");
+    await expect.poll(() => box.isEnabled()).toBe(true);
+    const sharedText = async (n: number): Promise<string> => {
+      await page.getByRole('button', { name: 'Share as PDF' }).click();
+      await expect.poll(async () => ((await page.evaluate(() => (window as unknown as { __shared: unknown[] }).__shared)) as SharedFile[]).length).toBe(n);
+      const shared = ((await page.evaluate(() => (window as unknown as { __shared: unknown[] }).__shared)) as SharedFile[])[n - 1]!;
+      const file = join(outDir, `shared-${n}.pdf`);
+      writeFileSync(file, Buffer.from(shared.base64, 'base64'));
+      expect(shared.name).not.toMatch(/\s/);
+      return pdfFacts(file).text;
+    };
+    const unticked = await sharedText(1);
+    await box.check();
+    const name = ((await page.locator('article.report .who strong:not(.code)').textContent()) ?? '').trim();
+    expect(name).toMatch(/\S+ \S+/);
+    expect(unticked).not.toContain(name);
+    expect(unticked).not.toContain(name.split(' ').pop()!);
+    const ticked = await sharedText(2);
+    expect(ticked).toContain(name);
+    await box.uncheck();
+  }, 90_000);
 });
