@@ -6,6 +6,7 @@ import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pdfSafeText, SYMBOL_SPELLINGS } from '../../../src/lib/export/pdf-safe-text';
 import { referralReportPdf } from '../../../src/lib/export/referral-report-pdf';
@@ -137,6 +138,11 @@ describe('pdfSafeText against Windows-1252 (the code page of PDF WinAnsiEncoding
     expect(result.text).toBe(expected);
     expect(result.simplified).toEqual(simplified);
     for (const ch of result.text) expect(winAnsi.has(ch.codePointAt(0)!), ch).toBe(true);
+  });
+  it("pdf-lib's Helvetica writes exactly these characters (the set the builder passes to pdfSafeText)", async () => {
+    const doc = await PDFDocument.create();
+    const font = await doc.embedFont(StandardFonts.Helvetica);
+    expect([...font.getCharacterSet()].sort((a, b) => a - b)).toEqual([...winAnsi].sort((a, b) => a - b));
   });
   it('every deliberate spelling is itself in Windows-1252', () => {
     for (const spelling of Object.values(SYMBOL_SPELLINGS)) for (const ch of spelling) expect(winAnsi.has(ch.codePointAt(0)!), ch).toBe(true);
