@@ -11,7 +11,7 @@ import type { Browser, BrowserContext, Download, Page } from 'playwright-core';
 import { setUpDevice, unlockVault } from './app-helpers';
 import { launchChromium, newAppContext, screenshot, screenshotDir, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
 
-type ShareMode = 'absent' | 'accept' | 'abort' | 'refuse';
+type ShareMode = 'absent' | 'accept' | 'abort' | 'refuse' | 'no-file';
 interface SharedFile {
   name: string;
   type: string;
@@ -41,7 +41,15 @@ beforeAll(async () => {
     const proto = Navigator.prototype as unknown as Record<string, unknown>;
     delete proto.share;
     delete proto.canShare;
-    if (mode === 'absent') return;
+    if (mode === 'no-file') {
+      // A browser that cannot make the File: the PDF cannot be handed over, and the page must say so.
+      (window as unknown as { File: unknown }).File = class {
+        constructor() {
+          throw new TypeError('File is not available here (test)');
+        }
+      };
+    }
+    if (mode === 'absent' || mode === 'no-file') return;
     const w = window as unknown as { __shared: unknown[] };
     w.__shared = [];
     Object.defineProperty(navigator, 'canShare', { configurable: true, value: (data: ShareData) => (data.files ?? []).length > 0 });
@@ -164,7 +172,7 @@ describe('report share action', () => {
     await page.setViewportSize(tablet);
   }, 60_000);
 
-  it('closing the share sheet (AbortError) is no error and sends nothing; a refused share (NotAllowedError) downloads instead and says why', async () => {
+  it('closing the share sheet (AbortError) is no error and sends nothing; a refused share (NotAllowedError) downloads instead and says why; a file that cannot be made is an alert', async () => {
     await openReport(reportPaths[0]!, 'abort');
     let downloads = 0;
     const onDownload = () => downloads++;
@@ -180,6 +188,17 @@ describe('report share action', () => {
     expect(download.suggestedFilename()).toMatch(/^kinnote-report-.*\.pdf$/);
     await expect.poll(() => status().textContent()).toMatch(/did not take the file \(NotAllowedError: .*\); kinnote-report-.*\.pdf .* was downloaded instead/);
     await page.locator('div.controls').screenshot({ path: join(screenshotDir, 'report-share-refused-controls.png') });
+
+    // A failure to make the file is said plainly, as an alert, and nothing is downloaded.
+    await openReport(reportPaths[0]!, 'no-file');
+    let failedDownloads = 0;
+    const onFailedDownload = () => failedDownloads++;
+    page.on('download', onFailedDownload);
+    await page.getByRole('button', { name: 'Download PDF' }).click();
+    await expect.poll(() => page.getByRole('alert').textContent()).toMatch(/^Could not make the PDF: .*File is not available here \(test\).*Nothing was sent/);
+    page.off('download', onFailedDownload);
+    expect(failedDownloads).toBe(0);
+    expect(await page.getByRole('button', { name: 'Download PDF' }).isEnabled()).toBe(true);
   }, 60_000);
 
   it('the shared PDF holds the name only when names are unlocked and the box is ticked', async () => {
