@@ -17,5 +17,7 @@ export function visitContents(observations: ReadonlyArray<Pick<Observation, 'mea
     if (o.instrument) instruments.add(INSTRUMENT_WORDS[o.instrument] ?? o.instrument);
     names.set(name, instruments);
   }
-  return [...names].map(([name, instruments]) => (instruments.size > 0 ? `${name} (${[...instruments].join(', ')})` : name)).join(' · ');
+  // Where instruments are named they replace the label's own note on the method ("Range of motion (goniometry)").
+  const plain = (label: string) => label.replace(/\s*\([^)]*\)$/, '');
+  return [...names].map(([name, instruments]) => (instruments.size > 0 ? `${plain(name)} (${[...instruments].join(', ')})` : name)).join(' · ');
 }
