@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { axisAngle, multiply, NO_ERRORS, SHIN_SCREEN_OUT, staticDeviceMotion } from '../reference/sensors/device-motion-simulator';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -100,7 +100,13 @@ describe('instruments inside the visit', () => {
     }, undefined, { timeout: 10_000, polling: 100 });
     await page.reload();
     await page.getByText(/Draft restored from/).waitFor();
-    await instruments.getByText(/^Pendulum from a file, left knee: R2 1\.66/).waitFor();
+    try {
+      await instruments.getByText(/^Pendulum from a file, left knee: R2 1\.66/).waitFor({ timeout: 8000 });
+    } catch (e) {
+      const drafts = await tableRows<{ id: string; form: string; savedAtMs: number; content: { readings?: unknown[] } }>(page, 'drafts');
+      console.log('DEBUGFAIL', await page.locator('main').textContent().catch(() => ''), JSON.stringify(drafts.map((d) => [d.id, d.form, d.savedAtMs, d.content.readings?.length])));
+      throw e;
+    }
     expect(await mas.getByRole('radio', { name: '1+', exact: true }).isChecked()).toBe(true);
 
     // 2. A phone inclinometer reading, inside the same visit: knee bent 95° from the start position.
@@ -121,6 +127,16 @@ describe('instruments inside the visit', () => {
     await instruments.getByText(new RegExp(`^Inclinometer, right knee flexion \\(passive\\): ${angle.toFixed(1)}°`)).waitFor();
     await screenshot(page, 'visit-instruments-360');
     expect(await seriousAxeViolations(page)).toEqual([]);
+    // The phone pendulum panel inside the visit at 360 px with text at 200 %: it reflows (then closed again).
+    await setTextScale(page, 2);
+    await instruments.getByRole('button', { name: 'Pendulum with this phone' }).click();
+    await instruments.getByRole('button', { name: 'Start' }).waitFor();
+    expect(await rootFontPx(page), 'text size really doubled').toBe(32);
+    const layout = (await reflowProblems(page)).join('\n');
+    await screenshot(page, 'visit-instruments-phone-panel-360-text200');
+    expect(layout).toBe('');
+    await instruments.getByRole('button', { name: 'Pendulum with this phone' }).click();
+    await setTextScale(page, 1);
     await page.setViewportSize(tablet);
     await screenshot(page, 'visit-instruments-1024');
 
