@@ -1,0 +1,84 @@
+import { DeviceMotionSource, angleBetweenDeg, axisAngleToVerticalDeg, requestMotionPermission, steadyReading, type MotionProblem, type SteadyReading } from '$lib/sensors';
+
+/**
+ * The phone inclinometer as page state, by the two-position method: a steady reading in the start
+ * position (zero), another in the end position; the joint angle is the turn of gravity between them.
+ */
+export class InclinometerReader {
+  running = $state(false);
+  problem = $state<MotionProblem | null>(null);
+  problemDetail = $state('');
+  reading = $state.raw<SteadyReading | null>(null);
+  segmentDeg = $state<number | null>(null);
+  zero = $state.raw<SteadyReading | null>(null);
+  end = $state.raw<SteadyReading | null>(null);
+  jointDeg = $state<number | null>(null);
+  message = $state('');
+
+  #source: DeviceMotionSource | null = null;
+  #frame = 0;
+
+  async start(): Promise<void> {
+    // First thing in the tap: Safari grants motion access only during a user gesture.
+    const permission = await requestMotionPermission();
+    if (!permission.ok) {
+      this.problem = permission.problem;
+      this.problemDetail = permission.detail;
+      return;
+    }
+    this.problem = null;
+    this.problemDetail = '';
+    const source = new DeviceMotionSource();
+    this.#source = source;
+    source.start({
+      onSample: () => this.#scheduleFrame(),
+      onProblem: (p) => {
+        this.problem = p;
+        this.running = false;
+        source.stop();
+      },
+    });
+    this.running = true;
+  }
+
+  setZero(): void {
+    if (!this.reading?.steady) {
+      this.message = 'Hold the phone still against the segment until it says "steady", then try again.';
+      return;
+    }
+    this.zero = this.reading;
+    this.end = null;
+    this.jointDeg = null;
+    this.message = 'Zero set. Now move the joint to the end position, hold the phone still there and tap "Measure end position".';
+  }
+
+  setEnd(): void {
+    const zero = this.zero;
+    if (!zero) return;
+    const r = this.reading;
+    if (!r?.steady) {
+      this.message = 'Hold the phone still in the end position until it says "steady", then try again.';
+      return;
+    }
+    this.end = r;
+    this.jointDeg = angleBetweenDeg(zero.meanX, zero.meanY, zero.meanZ, r.meanX, r.meanY, r.meanZ);
+    this.message = 'Joint angle measured (average of the last second in each position).';
+  }
+
+  dispose(): void {
+    this.#source?.stop();
+    if (this.#frame) cancelAnimationFrame(this.#frame);
+  }
+
+  #scheduleFrame(): void {
+    if (this.#frame) return;
+    this.#frame = requestAnimationFrame(() => {
+      this.#frame = 0;
+      if (!this.#source) return;
+      const view = this.#source.buffer.view();
+      const r = steadyReading(view, view.timeMs.length);
+      this.reading = r;
+      if (r.samples > 0) this.segmentDeg = axisAngleToVerticalDeg(r.meanX, r.meanY, r.meanZ, 'y');
+    });
+  }
+}

@@ -1,0 +1,72 @@
+import type { KinnoteStore } from '$lib/store';
+import type { AssessmentDraft } from './assessment-draft';
+import { DraftKeeper, type DraftChoice } from './draft-keeper';
+import { readingsFromDraft, type VisitReading } from './visit-readings';
+
+/**
+ * What the visit form's draft keeps: the form, the notes as last sealed (kept as they are while the
+ * vault is locked), and the instrument readings taken in this visit (saved with it, all or nothing).
+ */
+export interface KeptVisit {
+  readonly form: AssessmentDraft;
+  readonly sealed: unknown;
+  readonly readings: readonly VisitReading[];
+}
+
+type DraftVault = KinnoteStore['vault'];
+
+/**
+ * The visit form's draft keeper (one per tab, form "assessment" or "assessment-amend"): notes are
+ * kept only sealed; readings as plain JSON. `onSealed` hears the notes as last sealed, for the next write.
+ */
+export function visitDraftKeeper(options: {
+  patientId: string;
+  amendId: string | null;
+  vault: () => DraftVault | null;
+  onSealed: (sealed: unknown) => void;
+  onError: (error: unknown) => void;
+}): DraftKeeper<KeptVisit> {
+  const { patientId } = options;
+  return new DraftKeeper<KeptVisit>({
+    form: options.amendId ? 'assessment-amend' : 'assessment',
+    subjectId: options.amendId ?? patientId,
+    encode: async ({ form, sealed, readings }) => {
+      const { notes, ...rest } = form;
+      const vault = options.vault();
+      let kept = sealed;
+      if (vault?.status === 'unlocked') kept = notes ? await vault.seal(notes, `draft:${patientId}`) : null;
+      options.onSealed(kept);
+      return { draft: rest, sealedNotes: kept, readings };
+    },
+    decode: async (content) => {
+      const c = content as { draft?: Omit<AssessmentDraft, 'notes'>; sealedNotes?: unknown; readings?: unknown } | null;
+      if (c?.draft?.version !== 1 || c.draft.patientId !== patientId) return null;
+      let notes = '';
+      const vault = options.vault();
+      if (c.sealedNotes && vault?.status === 'unlocked') {
+        try {
+          notes = await vault.open(c.sealedNotes as Parameters<DraftVault['open']>[0], `draft:${patientId}`);
+        } catch {
+          notes = '';
+        }
+      }
+      return { form: { ...c.draft, notes } as AssessmentDraft, sealed: c.sealedNotes ?? null, readings: readingsFromDraft(c.readings) };
+    },
+    onError: options.onError,
+  });
+}
+
+/** One line for the choice between drafts: where it comes from, when it was kept, how many values it holds. */
+export function describeVisitDraft(choice: DraftChoice<KeptVisit>): string {
+  const at = new Date(choice.savedAtMs).toLocaleString();
+  const f = choice.value.form;
+  const filled =
+    f.mas.filter((r) => r.grade !== null).length +
+    f.tardieu.length +
+    f.rom.filter((r) => r.angleDeg !== '').length +
+    (f.pennFrequency === null ? 0 : 1) +
+    (f.spasmSeverity === null ? 0 : 1) +
+    choice.value.readings.length;
+  const where = choice.origin === 'open-tab' ? 'open in another tab' : 'left by a closed tab or an interrupted session';
+  return `Draft ${where}, last kept ${at} (${filled} value${filled === 1 ? '' : 's'})`;
+}

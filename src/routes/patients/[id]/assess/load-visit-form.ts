@@ -1,0 +1,44 @@
+import type { Assessment, Observation, Patient } from '$lib/domain';
+import { readLocalState, type KinnoteStore } from '$lib/store';
+import { emptyDraft, type AssessmentDraft } from '$lib/ui/assessment-draft';
+import { chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, protocolStateKey, type KeptProtocol } from '$lib/ui/visit-protocol';
+
+export interface VisitFormStart {
+  readonly lastBySeries: Map<string, Observation>;
+  /** The form as laid out: the saved visit (amending) or the patient's protocol (a new visit). */
+  readonly laidOut: AssessmentDraft;
+  readonly amendedUpdatedAt: string;
+  readonly amendHistory: Array<{ at: string; note: string }>;
+}
+
+/** The patient (redacted), or null when not on this device. */
+export async function loadPatient(store: KinnoteStore, patientId: string): Promise<Patient | null> {
+  const row = await store.patients.get(patientId);
+  return row ? (store.patients.redact(row) as Patient | null) : null;
+}
+
+/**
+ * Everything the visit form starts from: last time's values, and the tests laid out. Amending, the
+ * saved visit's values (and "last time" from before it); else the patient's visit protocol. Throws
+ * when the visit to amend is not on this device.
+ */
+export async function loadVisitForm(store: KinnoteStore, patientId: string, amendId: string | null, performedAtLocal: string): Promise<VisitFormStart> {
+  const [assessmentRows, observationRows, kept] = await Promise.all([
+    store.assessments.byPatient(patientId),
+    store.observations.byPatient(patientId),
+    readLocalState(store, protocolStateKey(patientId)) as Promise<KeptProtocol | undefined>,
+  ]);
+  const visits = assessmentRows.map((a) => store.assessments.redact(a)).filter((a): a is Assessment => a !== null);
+  const observations = observationRows as Observation[];
+  const amended = amendId ? visits.find((a) => a.id === amendId && !a.deleted) : undefined;
+  if (amendId && !amended) throw new Error('that visit is not on this device (deleted, or another patient)');
+  const lastBySeries = lastObservations(amended ? observations.filter((o) => Date.parse(o.takenAt) < Date.parse(amended.performedAt)) : observations);
+  if (!amended) {
+    const laidOut = draftFromProtocol(patientId, performedAtLocal, chooseProtocol(kept, visits, observations), emptyDraft(patientId, performedAtLocal));
+    return { lastBySeries, laidOut, amendedUpdatedAt: '', amendHistory: [] };
+  }
+  const amendHistory = (await store.audit.forRecord('assessments', amended.id))
+    .filter((e) => e.note?.startsWith('amended: '))
+    .map((e) => ({ at: e.createdAt, note: (e.note as string).slice('amended: '.length) }));
+  return { lastBySeries, laidOut: draftFromVisit(amended, observations, emptyDraft(patientId, '')), amendedUpdatedAt: amended.updatedAt, amendHistory };
+}

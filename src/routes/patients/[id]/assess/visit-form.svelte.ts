@@ -1,0 +1,80 @@
+import { tick } from 'svelte';
+import { findMeasure, findSite, type Observation } from '$lib/domain';
+import { seriesKey } from '$lib/stats';
+import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue } from '$lib/ui/assessment-draft';
+import { repeatedReadings, type VisitReading } from '$lib/ui/visit-readings';
+import { lastTimeText, localNow } from './visit-words';
+
+
+/**
+ * The visit form's state, shared by its sections: the values typed, the instrument readings taken in
+ * this visit, what is wrong with them, and last time's value of each test.
+ */
+export class VisitForm {
+  readonly patientId: string;
+  readonly amendId: string | null;
+  draft = $state<AssessmentDraft>() as AssessmentDraft;
+  readings = $state.raw<readonly VisitReading[]>([]);
+  amendReason = $state('');
+  showIssues = $state(false);
+  /** The latest observation of each series, for "last time" beside each row. */
+  // eslint-disable-next-line svelte/prefer-svelte-reactivity -- replaced whole (raw state), never changed in place
+  lastBySeries = $state.raw(new Map<string, Observation>());
+  #keyCounter = 0;
+
+  constructor(patientId: string, amendId: string | null) {
+    this.patientId = patientId;
+    this.amendId = amendId;
+    this.draft = emptyDraft(patientId, localNow());
+  }
+
+  readonly checked = $derived.by(() => {
+    const form = draftObservations(this.draft);
+    const issues: DraftIssue[] = [...form.issues];
+    for (const r of repeatedReadings(this.readings, form.observations)) issues.push({ field: `reading-${r.key}`, message: r.message });
+    if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: 'say why the visit is amended (kept in the audit)' });
+    return { observations: form.observations, issues };
+  });
+
+  issueFor(field: string): DraftIssue[] {
+    return this.checked.issues.filter((i) => i.field === field || i.field.startsWith(`${field}.`));
+  }
+  invalid(field: string): boolean {
+    return this.showIssues && this.issueFor(field).length > 0;
+  }
+
+  /** "Last time" for a row: the latest value of its series, with its date. */
+  lastTime(measureCode: string, siteCode: string, side: string, mode: string | null = null): string {
+    const o = this.lastBySeries.get(seriesKey({ measureCode, siteCode, side: side as Observation['side'], mode: mode as Observation['mode'] }));
+    return lastTimeText(o);
+  }
+
+  isSkipped(key: string): boolean {
+    return (this.draft.notTested ?? []).includes(key);
+  }
+  toggleSkipped(key: string): void {
+    const list = this.draft.notTested ?? [];
+    this.draft.notTested = list.includes(key) ? list.filter((k) => k !== key) : [...list, key];
+  }
+
+  nextKey(): string {
+    this.#keyCounter += 1;
+    return `${Date.now().toString(36)}-${this.#keyCounter}`;
+  }
+
+  /** Adds a row to a section; focus moves to its first control (not left on the button). */
+  async addRow(section: 'mas' | 'tardieu' | 'rom'): Promise<void> {
+    const key = this.nextKey();
+    const siteCode = catalogueSites(section)[0]?.code ?? '';
+    if (section === 'mas') this.draft.mas.push({ key, siteCode, side: 'left', grade: null });
+    else if (section === 'tardieu') this.draft.tardieu.push({ key, siteCode, side: 'left', r1Deg: '', r2Deg: '', quality: null });
+    else this.draft.rom.push({ key, siteCode, side: 'left', mode: 'passive', instrument: 'universal-goniometer', angleDeg: '' });
+    await tick();
+    document.getElementById(`site-${key}`)?.focus();
+  }
+}
+
+export function siteName(measureCode: string, siteCode: string): string {
+  const m = findMeasure(measureCode);
+  return (m && findSite(m, siteCode)?.label) ?? siteCode;
+}

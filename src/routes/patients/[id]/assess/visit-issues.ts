@@ -1,0 +1,44 @@
+import type { DraftIssue } from '$lib/ui/assessment-draft';
+import { siteName, type VisitForm } from './visit-form.svelte';
+
+// Every issue names its field and links to it: "rom.2.angleDeg" → the element with id "rom-2-angleDeg",
+// or the nearest enclosing row ("rom-2") when the field has no control of its own.
+export const fieldId = (field: string) => field.replaceAll('.', '-');
+
+function issueTarget(field: string): HTMLElement | null {
+  const parts = field.split('.');
+  for (let n = parts.length; n > 0; n--) {
+    const el = document.getElementById(fieldId(parts.slice(0, n).join('.')));
+    if (el) return el;
+  }
+  return null;
+}
+
+const NAMED: Record<string, string> = {
+  painNrs: 'Pain now',
+  minutesSinceMedication: 'Minutes since medication',
+  performedAtLocal: 'Date and time',
+  amendReason: 'Reason for the amendment',
+  pennFrequency: 'Penn spasm frequency',
+  spasmSeverity: 'Spasm severity',
+};
+
+/** The field an issue is about, in words: "Range of motion, left knee flexion". */
+export function issueLabel(form: VisitForm, issue: DraftIssue): string {
+  const [section, index] = issue.field.split('.');
+  if (section?.startsWith('reading-')) return 'Instrument reading';
+  const i = Number(index);
+  const draft = form.draft;
+  const row = section === 'mas' ? draft.mas[i] : section === 'tardieu' ? draft.tardieu[i] : section === 'rom' ? draft.rom[i] : undefined;
+  const measure = { mas: 'Modified Ashworth', tardieu: 'Tardieu', rom: 'Range of motion' }[section as 'mas'];
+  if (row && measure) return `${measure}, ${row.side} ${siteName(section as string, row.siteCode).toLowerCase()}`;
+  return NAMED[issue.field] ?? issue.field;
+}
+
+/** Moves focus to the field's control (or its row) and scrolls it into view. */
+export function focusField(field: string): void {
+  const el = issueTarget(field);
+  const control = el?.matches('input, select, textarea') ? el : el?.querySelector<HTMLElement>('input:not([type=radio]), select, input[type=radio], button');
+  (control ?? el)?.focus();
+  el?.scrollIntoView({ block: 'center' });
+}
