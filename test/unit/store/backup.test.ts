@@ -143,7 +143,7 @@ describe('backup export and import', () => {
     expect(await dumpAll(b)).toEqual(before);
     // The same bundle re-indented, or with its members in another order, is no other bundle.
     const parsed = JSON.parse(text) as BackupBundle;
-    const reordered = JSON.stringify({ tables: parsed.tables, ...parsed }, null, 2);
+    const reordered = JSON.stringify(Object.assign({ tables: parsed.tables }, parsed), null, 2);
     expect(reordered.startsWith('{\n  "tables"')).toBe(true);
     const report = await importBackup(b, reordered);
     expect(report.counts.patients.inserted).toBe(1);
