@@ -25,8 +25,10 @@ export async function run(print: (line: string) => void): Promise<void> {
     type Rate = { total: number; stored: number; seconds: number; perSecond: number };
     const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: (n: number) => Promise<Rate> }).bulkInsertPrevious(n), 20_000)) as Rate;
     print(`Chromium ${browser.version()} IndexedDB bulk insert, previous path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
+    let ceilingOnePerRow = Number.NaN;
     for (const perRow of [1, 50]) {
       const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
+      if (perRow === 1) ceilingOnePerRow = ceiling.perSecond;
       print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / previous.perSecond).toFixed(2)}× previous`);
     }
     // STORE_BENCH_OBSERVATIONS: one smaller size on a loaded machine (printed with each figure).
@@ -39,6 +41,20 @@ export async function run(print: (line: string) => void): Promise<void> {
       print(
         `Chromium IndexedDB bulk insert (repository, validated, stamped, one batch audit entry per 5,000): ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s` +
           ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / previous.perSecond).toFixed(2)}× previous`,
+      );
+    }
+    // Backup import (parse, verify, merge, one transaction) of a file written by the app's export.
+    // Previous path (a75ca3f) in this page on 2026-12-03, load 13-19: 20,000 observations in 16.3-18.1 s.
+    for (const total of sizes) {
+      const r = (await page.evaluate((n) => (globalThis as unknown as { importBench: (n: number) => Promise<unknown> }).importBench(n), total)) as {
+        stored: number;
+        importSeconds: number;
+        bytes: number;
+      };
+      const scaled = (r.importSeconds * 100_000) / total;
+      print(
+        `Chromium backup import into an empty store: ${r.stored.toLocaleString('en')} observations (${(r.bytes / 1e6).toFixed(1)} MB) in ${r.importSeconds.toFixed(2)} s = ${scaled.toFixed(1)} s per 100,000` +
+          ` · goal < 10 s per 100,000: ${(10 / scaled).toFixed(2)}× of goal · plain IndexedDB at one stored value per observation allows at best ${(100_000 / ceilingOnePerRow).toFixed(1)} s`,
       );
     }
   } finally {

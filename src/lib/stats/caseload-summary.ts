@@ -1,6 +1,6 @@
 import type { Observation } from '../domain';
 import type { LocalMdc } from './choose-mdc';
-import { outcomeSeries } from './outcome-series';
+import { latestVerdicts } from './outcome-series';
 
 /** What the caseload needs of an assessment (a stored row, notes sealed or not, will do). */
 export interface SummaryAssessment {
@@ -28,7 +28,8 @@ export interface CaseloadSummary {
  * inputs as the patient's own page (outcomeSeries with the first assessment as baseline, the team's
  * adopted local MDCs, each assessment's assessor for the rater design). Pass that patient's
  * assessments (tombstones included: an observation's assessor is still its assessor) and
- * observations (tombstones are skipped here). Cost: outcomeSeries over the observations. Never throws.
+ * observations (tombstones are skipped here). Cost: latestVerdicts (a sort and one verdict per
+ * series), not the full outcomeSeries. Never throws.
  */
 export function caseloadSummary(
   assessments: readonly SummaryAssessment[],
@@ -43,7 +44,9 @@ export function caseloadSummary(
     const t = Date.parse(a.performedAt);
     if (lastMs === null || t > lastMs) lastMs = t;
   }
-  const series = outcomeSeries(
+  // Only each series' latest verdict is needed: latestVerdicts runs outcomeSeries' own code without
+  // the trends and earlier points' judgements (which made a long series' summary quadratic).
+  const series = latestVerdicts(
     observations.filter((o) => !o.deleted),
     { baselineRule: { kind: 'first' }, localMdc, assessorByAssessment },
   );

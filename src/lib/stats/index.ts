@@ -56,7 +56,7 @@ export { chooseMdc, comparisonDesign, mdcSourceLine, ORDINAL_STEP_MDC, type Comp
 export { seriesKey } from './series-key';
 export { adoptedLocalMdc, type AdoptableStudy } from './adopted-local-mdc';
 export { caseloadSummary, caseloadSummaryBasis, type CaseloadSummary, type SummaryAssessment } from './caseload-summary';
-export { outcomeSeries, seriesTitle, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
+export { latestVerdicts, outcomeSeries, seriesTitle, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
 
 // Small numeric helpers shared with callers that work on typed arrays
 export { compensatedSum } from './compensated-sum';

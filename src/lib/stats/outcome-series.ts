@@ -107,6 +107,21 @@ export function seriesTitle(measure: Measure, siteCode: string, side: Observatio
  * Tombstoned observations are left out. Series are ordered by measure catalogue order, then title.
  */
 export function outcomeSeries(observations: readonly Observation[], options: OutcomeOptions): OutcomeSeries[] {
+  return buildSeries(observations, options, 'full');
+}
+
+/**
+ * Each series' title and latest verdict only (what the caseload's improved/worsened flags need),
+ * by the very code outcomeSeries runs, in the same order, without judging every earlier point and
+ * without the trend (Theil–Sen and Mann–Kendall cost O(n²) in the series length). Cost: a sort
+ * and one verdict per series. `verdict` is always the `verdict` outcomeSeries gives that series.
+ */
+export function latestVerdicts(observations: readonly Observation[], options: OutcomeOptions): { readonly key: string; readonly title: string; readonly verdict: ChangeVerdict | null }[] {
+  return buildSeries(observations, options, 'latest').map(({ key, title, verdict }) => ({ key, title, verdict }));
+}
+
+/** 'latest': judgements left empty and trend null (only latestVerdicts sees such series). */
+function buildSeries(observations: readonly Observation[], options: OutcomeOptions, detail: 'full' | 'latest'): OutcomeSeries[] {
   const groups = new Map<string, Observation[]>();
   for (const obs of observations) {
     if (obs.deleted || !findMeasure(obs.measureCode)) continue;
@@ -168,13 +183,14 @@ export function outcomeSeries(observations: readonly Observation[], options: Out
           : null;
       return { mdc: choice.mdc, mdcNote: choice.note, verdict };
     };
-    const judgements = points.map((_, i) => judge(i).verdict);
-    const { mdc, mdcNote } = judge(points.length - 1);
+    const last = judge(points.length - 1);
+    const judgements = detail === 'full' ? points.map((_, i) => (i === points.length - 1 ? last : judge(i)).verdict) : [];
+    const { mdc, mdcNote } = last;
     const title = seriesTitle(measure, first.siteCode, first.side, first.mode);
-    const verdict = judgements[points.length - 1] ?? null;
+    const verdict = last.verdict;
 
     let trend: OutcomeTrend | null = null;
-    if (points.length >= 3 && timesDay[timesDay.length - 1]! > timesDay[0]!) {
+    if (detail === 'full' && points.length >= 3 && timesDay[timesDay.length - 1]! > timesDay[0]!) {
       if (ordinal) {
         const ts = theilSen(timesDay, values);
         let mk: MannKendall | null;

@@ -129,12 +129,16 @@ const EnvelopeSchema = v.object({
  * says it was omitted (InvalidBundle, with issues naming table, index, id and field). Never returns
  * a partly valid bundle. References between records are checked by checkReferences.
  *
+ * `sourceText`, the text `parsed` came from, saves serialising the body again when the file is
+ * exactly what serializeBundle writes (checksummedTextAsWritten); any other text that parses to a
+ * bundle with the right checksum (re-indented, keys reordered) is still accepted, at that cost.
+ *
  * The checksum is an integrity check, not an authenticity check: it catches damage, but anyone can
  * recompute it after editing the file. Authenticity comes only from the encrypted form (AES-GCM's
  * tag under a key derived from the passphrase: only someone who knows it could have written the
  * file) or from a signature, which plain bundles do not carry.
  */
-export async function verifyBundle(parsed: unknown, nowMs: number): Promise<VerifiedBundle> {
+export async function verifyBundle(parsed: unknown, nowMs: number, sourceText?: string): Promise<VerifiedBundle> {
   if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) {
     throw new StoreError('InvalidBundle', 'not a Kinnote backup: the file is not a JSON object');
   }
@@ -149,14 +153,17 @@ export async function verifyBundle(parsed: unknown, nowMs: number): Promise<Veri
     throw new StoreError('InvalidBundle', `invalid backup: ${describeIssues(issues)}`, { issues });
   }
   const { checksum, ...body } = parsed as BackupBundle;
-  let text: string;
-  try {
-    text = canonicalJson(body);
-  } catch (cause) {
-    throw new StoreError('InvalidBundle', `invalid backup: ${(cause as Error).message}`, { cause });
-  }
-  if ((await sha256Hex(text)) !== checksum.value) {
-    throw new StoreError('TamperedBundle', 'the backup does not match its checksum: it was altered or damaged, so nothing was imported');
+  const asWritten = sourceText === undefined ? null : checksummedTextAsWritten(sourceText, checksum.value);
+  if (asWritten === null || (await sha256Hex(asWritten)) !== checksum.value) {
+    let text: string;
+    try {
+      text = canonicalJson(body);
+    } catch (cause) {
+      throw new StoreError('InvalidBundle', `invalid backup: ${(cause as Error).message}`, { cause });
+    }
+    if ((await sha256Hex(text)) !== checksum.value) {
+      throw new StoreError('TamperedBundle', 'the backup does not match its checksum: it was altered or damaged, so nothing was imported');
+    }
   }
 
   const issues: StoreIssue[] = [];
@@ -208,6 +215,27 @@ export async function verifyBundle(parsed: unknown, nowMs: number): Promise<Veri
     throw new StoreError('InvalidBundle', `invalid backup, nothing imported: ${describeIssues(issues)}`, { issues });
   }
   return { header, checksum: checksum.value, tables };
+}
+
+/**
+ * The text the checksum covers, cut from the file itself when the file is in the form
+ * serializeBundle writes: canonical JSON whose first member (keys sorted) is the checksum, then the
+ * body's members, then optional whitespace. Null when the text does not start that way.
+ *
+ * Why hashing the file's own characters is as strong as serialising the parsed body again: the
+ * checksum is SHA-256 over canonicalJson(body). If the cut text hashes to it, it is (short of a
+ * SHA-256 collision) that very canonical text, so parsing it gives the body the writer hashed; and
+ * the parsed bundle is the checksum member plus exactly those members. A file re-indented or edited
+ * fails the comparison and is then checked the slow way, by serialising what was parsed. For a
+ * 100,000-observation backup this saves a 58 MB serialisation (in Chromium's profile, the
+ * canonical serialisation and its encoding were 60 % of the verification).
+ */
+export function checksummedTextAsWritten(sourceText: string, checksumValue: string): string | null {
+  const prefix = `{"checksum":{"algorithm":"SHA-256","value":"${checksumValue}"},`;
+  if (!sourceText.startsWith(prefix)) return null;
+  let end = sourceText.length;
+  while (end > prefix.length && ' \t\n\r'.includes(sourceText[end - 1] as string)) end--;
+  return `{${sourceText.slice(prefix.length, end)}`;
 }
 
 /**

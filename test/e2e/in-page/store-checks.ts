@@ -350,3 +350,27 @@ export async function caseloadReadTimes(): Promise<{ patients: number; observati
   return { patients: patients.length, observations: observations.length, previousMs: t1 - t0, storedMs: t2 - t1, storedAgainMs: t3 - t2, same: strip(previous) === strip(stored) };
 }
 (globalThis as unknown as { caseloadReadTimes: typeof caseloadReadTimes }).caseloadReadTimes = caseloadReadTimes;
+
+/**
+ * Backup import, for the bench: `total` observations written through the bulk path into one store,
+ * exported as backup text, then imported into an empty store (parse, verify, merge, one write
+ * transaction). Returns the import's duration and what was stored.
+ */
+export async function importBench(total: number): Promise<{ total: number; stored: number; exportSeconds: number; importSeconds: number; bytes: number }> {
+  const source = await freshStore('kinnote-browser-bench-import-a');
+  await seed(source, total);
+  const t0 = performance.now();
+  const text = await exportBackupText(source, { protectedContent: 'omit' });
+  const t1 = performance.now();
+  source.close();
+  await Dexie.delete('kinnote-browser-bench-import-a');
+  const target = await freshStore('kinnote-browser-bench-import-b');
+  const t2 = performance.now();
+  await importBackup(target, text);
+  const t3 = performance.now();
+  const stored = await target.db.table('observations').count();
+  target.close();
+  await Dexie.delete('kinnote-browser-bench-import-b');
+  return { total, stored, exportSeconds: (t1 - t0) / 1000, importSeconds: (t3 - t2) / 1000, bytes: text.length };
+}
+(globalThis as unknown as { importBench: typeof importBench }).importBench = importBench;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { TABLE_NAMES } from '../../../src/lib/domain';
+import { TABLE_NAMES, ordinalValue } from '../../../src/lib/domain';
 import {
   canonicalJson,
   exportBackup,
@@ -124,6 +124,58 @@ describe('backup export and import', () => {
     await expect(readBackup('{"format":"kinnote-backup","formatVer')).rejects.toMatchObject({ code: 'InvalidBundle' });
     await expect(readBackup('[]')).rejects.toMatchObject({ code: 'InvalidBundle' });
     a.close();
+  });
+
+  it('checks the checksum on the file text as written, and on any other text of the same bundle', async () => {
+    const a = await freshStore();
+    const { patient } = await seedPatient(a);
+    const text = await exportBackupText(a, { protectedContent: 'omit' });
+    const b = await freshStore();
+    const before = await dumpAll(b);
+    // One digit of the birth year changed in the text (the checksum member left as it was).
+    const edited = text.replace('"birthYear":1961', '"birthYear":1962');
+    expect(edited).not.toBe(text);
+    await expect(importBackup(b, edited)).rejects.toMatchObject({ code: 'TamperedBundle' });
+    // A second "tables" member appended after the body: JSON.parse keeps the last one.
+    const appended = `${text.trimEnd().slice(0, -1)},"tables":${JSON.stringify({ ...(JSON.parse(text) as BackupBundle).tables, patients: [] })}}`;
+    expect(() => JSON.parse(appended) as unknown).not.toThrow();
+    await expect(importBackup(b, appended)).rejects.toMatchObject({ code: 'TamperedBundle' });
+    expect(await dumpAll(b)).toEqual(before);
+    // The same bundle re-indented, or with its members in another order, is no other bundle.
+    const parsed = JSON.parse(text) as BackupBundle;
+    const reordered = JSON.stringify(Object.assign({ tables: parsed.tables }, parsed), null, 2);
+    expect(reordered.startsWith('{\n  "tables"')).toBe(true);
+    const report = await importBackup(b, reordered);
+    expect(report.counts.patients.inserted).toBe(1);
+    expect((await b.patients.get(patient.id))!.birthYear).toBe(1961);
+    a.close();
+    b.close();
+  });
+
+  it('merges a large bundle into a store holding part of it: present, absent, newer and older rows told apart', async () => {
+    const a = await freshStore();
+    const { patient, assessment } = await seedPatient(a);
+    const input = (grade: string) => ({
+      patientId: patient.id, assessmentId: assessment.id, takenAt: assessment.performedAt, measureCode: 'mas', siteCode: 'elbow-flexors',
+      side: 'left' as const, mode: null, instrument: null, value: ordinalValue('mas', grade), traceId: null,
+    });
+    const first = await a.observations.createMany(Array.from({ length: 300 }, () => input('1')));
+    const b = await freshStore();
+    await importBackup(b, await exportBackupText(a, { protectedContent: 'omit' }));
+    // A: 40 new observations and one edit; B (clock 5 minutes ahead) edits another one later.
+    await a.observations.createMany(Array.from({ length: 40 }, () => input('2')));
+    await a.observations.update(first[10]!.id, { value: ordinalValue('mas', '3') });
+    Object.assign(b.context, { now: ((n: () => number) => () => n() + 300_000)(b.context.now) });
+    await b.observations.update(first[20]!.id, { value: ordinalValue('mas', '4') });
+    const report = await importBackup(b, await exportBackupText(a, { protectedContent: 'omit' }));
+    // 341 in the bundle: 40 new, 2 edited on one side, the other 299 (the seed observation among them) alike.
+    expect(report.counts.observations).toEqual({ inserted: 40, replaced: 1, unchanged: 299, keptLocal: 1 });
+    expect((await b.observations.get(first[10]!.id))!.value).toMatchObject({ grade: '3' });
+    expect((await b.observations.get(first[20]!.id))!.value).toMatchObject({ grade: '4' });
+    expect(await b.db.table('observations').count()).toBe(341);
+    expect(report.conflicts.map((c) => [c.recordId, c.winner]).sort()).toEqual([[first[10]!.id, 'incoming'], [first[20]!.id, 'local']].sort());
+    a.close();
+    b.close();
   });
 
   it('exports one patient with what hangs on them', async () => {
