@@ -33,6 +33,8 @@ export { requestPersistentStorage, storageUsage, type StorageManagerLike } from 
 export { CASELOAD_SUMMARIES_TABLE, type CaseloadPatient, type CaseloadSummaryRow } from './caseload-summaries';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { amendAssessment, type AmendedObservation } from './amend-assessment';
+export { amendEvent } from './amend-event';
+export { AMENDMENT_NOTE_PREFIX, amendmentNote, amendmentsOf, changedFields, type AmendedField, type Amendment } from './amendments';
 export { readLocalState, writeLocalState } from './local-state';
 export {
   PHONE_REANALYSIS_NOTICE,
