@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { amendAssessment, amendEvent, amendmentsOf, changedFields, setAssessmentDeleted, StoreError } from '../../../src/lib/store';
+import { amendAssessment, setAssessmentDeleted, StoreError } from '../../../src/lib/store';
+import { amendEvent } from '../../../src/lib/store/amend-event';
+import { amendmentsOf, changedFields } from '../../../src/lib/store/amendments';
 import { dumpAll, freshStore, seedPatient } from './store-helpers';
 
 async function injection() {
