@@ -2,7 +2,7 @@
 // old and new values), delete with undo; a true "amended" mark that a delete and undo does not set.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
-import { setUpDevice, tableRows } from './app-helpers';
+import { setUpDevice, tableRows, unlockVault } from './app-helpers';
 import { join } from 'node:path';
 import { launchChromium, screenshotDir, newAppContext, reflowProblems, rootFontPx, waitForSettledPage, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
@@ -124,7 +124,7 @@ describe('events are amended and deleted like visits', () => {
     await casting().getByRole('button', { name: /Open or amend/ }).click();
     await editor.getByRole('button', { name: 'Delete event' }).click();
     await events.getByText(/Deleted the serial casting of/).waitFor();
-    expect(await casting().count()).toBe(0);
+    await expect.poll(() => casting().count()).toBe(0);
     await events.getByRole('button', { name: 'Undo' }).click();
     await casting().waitFor();
     expect(await casting().innerText()).not.toMatch(/amended/);
@@ -138,6 +138,22 @@ describe('events are amended and deleted like visits', () => {
     await visits.getByRole('link', { name: /Open or amend the visit of/ }).waitFor();
     expect(await visits.locator('li').first().innerText()).not.toMatch(/amended|changed since saved/);
     expect(new URL(page.url()).pathname).toBe(path);
+
+    // Visit notes are amended the same way (names unlocked in place): the audit says they changed, never what they say.
+    await unlockVault(page);
+    await visits.getByRole('link', { name: /Open or amend the visit of/ }).click();
+    await page.locator('textarea#notes').fill('Invented: calf tight after the drive');
+    await page.getByLabel('Reason for the amendment').fill('note left out at the visit');
+    await page.getByRole('button', { name: 'Save the amendment' }).click();
+    await page.getByText('Amendment saved; the audit keeps the old values and the reason.').waitFor();
+    await expect.poll(() => visits.locator('li').first().innerText()).toMatch(/· amended/);
+    const noteAudit = (await tableRows<Audit>(page, 'audit')).filter((e) => e.note === 'amended: note left out at the visit');
+    expect(noteAudit.map((e) => `${e.action} ${e.table}`)).toEqual(['update assessments']);
+    expect(noteAudit[0]!.before!.notesSealed).toBeNull();
+    expect(noteAudit[0]!.after!.notesSealed).toBe('[sealed]');
+    expect(JSON.stringify(await tableRows(page, 'audit'))).not.toMatch(/calf tight/);
+    await visits.getByRole('link', { name: /Open or amend the visit of/ }).click();
+    await expect.poll(() => page.locator('textarea#notes').inputValue()).toBe('Invented: calf tight after the drive');
     await context.close();
   });
 
