@@ -45,7 +45,6 @@ describe('the first screen and unlocking in place', () => {
       await page.goto('/');
       await page.getByRole('heading', { name: 'Caseload', level: 1 }).waitFor();
       expect(path(page)).toBe('/patients');
-      // Back goes nowhere odd: Home was replaced, not stacked.
       // The Home link still shows Home (the start is decided once, at launch).
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Home' }).click();
       await page.getByRole('heading', { name: 'Your caseload' }).waitFor();
