@@ -23,15 +23,16 @@ export async function setUpDevice(page: Page, options: { demo: boolean } = { dem
 }
 
 /**
- * Unlocks names and notes from the header link (the key lives only in memory, so every full page
- * load starts locked), then returns to the page it came from.
+ * Unlocks names and notes from the header's button (the key lives only in memory, so every full page
+ * load starts locked): a dialog over the page, which stays where it was.
  */
 export async function unlockVault(page: Page): Promise<void> {
-  await page.getByRole('link', { name: /Locked/ }).click();
-  await page.getByLabel('Passphrase', { exact: true }).fill(TEST_PASSPHRASE);
-  await page.getByRole('button', { name: 'Unlock' }).click();
-  await page.getByText('Unlocked: names and notes are readable').waitFor();
-  await page.goBack();
+  await page.getByRole('banner').getByRole('button', { name: /Locked/ }).click();
+  const dialog = page.getByRole('dialog', { name: 'Unlock names and notes' });
+  await dialog.getByLabel('Passphrase', { exact: true }).fill(TEST_PASSPHRASE);
+  await dialog.getByRole('button', { name: 'Unlock' }).click();
+  await dialog.waitFor({ state: 'detached' });
+  await page.getByRole('banner').getByRole('button', { name: 'Lock' }).waitFor();
 }
 
 /**

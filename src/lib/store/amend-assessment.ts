@@ -1,3 +1,4 @@
+import { amendmentNote } from './amendments';
 import { settleCaseloadSummaries } from './caseload-summaries';
 import type { KinnoteStore } from './open-store';
 import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
@@ -12,7 +13,9 @@ const seriesOf = (o: Pick<AmendedObservation, 'measureCode' | 'siteCode' | 'side
 const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
 
 /**
- * Amends a saved visit with a reason: the assessment's fields in `assessmentPatch`, and its form
+ * Amends a saved visit with a reason: the assessment's fields in `assessmentPatch` (with `notes`
+ * only when the vault is unlocked: Locked otherwise; the audit keeps notes as a sealed marker, never
+ * their text), and its form
  * observations brought to `observations` (matched by measure, site, side and mode: a changed value
  * or instrument is an update, a missing one a tombstone, a new one a create). Observations of other
  * measures (`keepMeasures`, e.g. pendulum indices with their traces) are never touched. Every
@@ -33,13 +36,17 @@ export async function amendAssessment(
   },
   options: WriteOptions = {},
 ): Promise<{ changed: number }> {
-  const reason = change.reason.trim();
-  if (reason === '') throw new StoreError('ValidationFailed', 'an amendment needs a reason', { issues: [{ record: `assessments ${assessmentId}`, path: 'reason', message: 'say why the visit is amended' }] });
-  const note = `amended: ${reason}`;
+  const note = amendmentNote(change.reason, `assessments ${assessmentId}`);
   const current = await store.assessments.get(assessmentId);
   if (!current || current.deleted) throw new StoreError('NotFound', `assessments ${assessmentId} not found`);
   const performedAt = change.assessmentPatch.performedAt ?? current.performedAt;
-  const assessmentChange = await store.assessments.prepareChange(assessmentId, 'update', change.assessmentPatch, { expectedUpdatedAt: change.expectedUpdatedAt }, note);
+  // Notes are sealed, and the audit holds only a marker for them: unchanged text is not sealed again.
+  let patch = change.assessmentPatch;
+  if ('notes' in patch && (await store.assessments.open(current)).notes === (patch.notes ?? null)) {
+    const { notes: _unchanged, ...rest } = patch;
+    patch = rest;
+  }
+  const assessmentChange = await store.assessments.prepareChange(assessmentId, 'update', patch, { expectedUpdatedAt: change.expectedUpdatedAt }, note);
 
   const stored = (await store.observations.byPatient(current.patientId)).filter((o) => o.assessmentId === assessmentId && change.formMeasures.includes(o.measureCode));
   const wanted = new Map(change.observations.map((o) => [seriesOf(o), o]));

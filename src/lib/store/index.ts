@@ -33,6 +33,9 @@ export { requestPersistentStorage, storageUsage, type StorageManagerLike } from 
 export { CASELOAD_SUMMARIES_TABLE, type CaseloadPatient, type CaseloadSummaryRow } from './caseload-summaries';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { amendAssessment, type AmendedObservation } from './amend-assessment';
+// amend-event.ts and amendments.ts (amending events, the amended mark read from the audit) are imported
+// by their own paths: only the patient page needs them, and the first screen's JavaScript stays within
+// its budget (see DEVELOPERS.md, first-load budget).
 export { readLocalState, writeLocalState } from './local-state';
 export {
   PHONE_REANALYSIS_NOTICE,

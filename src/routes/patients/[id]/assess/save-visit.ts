@@ -29,10 +29,13 @@ export async function saveNewVisit(
   await writeLocalState(store, protocolStateKey(patientId), kept).catch(() => undefined);
 }
 
-/** Saves an amendment of a visit's form values with its reason (readings and notes stay as saved). */
+/**
+ * Saves an amendment of a visit's form values with its reason (readings stay as saved). Notes are changed
+ * only when `notes` is given (they were read, names unlocked): a locked form never blanks them.
+ */
 export async function saveAmendment(
   store: KinnoteStore,
-  input: { amendId: string; expectedUpdatedAt: string; reason: string; draft: AssessmentDraft; observations: readonly ObservationDraft[]; draftId: string | null },
+  input: { amendId: string; expectedUpdatedAt: string; reason: string; draft: AssessmentDraft; observations: readonly ObservationDraft[]; draftId: string | null; notes?: string | null },
 ): Promise<void> {
   const { draft } = input;
   await amendAssessment(
@@ -41,7 +44,12 @@ export async function saveAmendment(
     {
       expectedUpdatedAt: input.expectedUpdatedAt,
       reason: input.reason,
-      assessmentPatch: { performedAt: new Date(draft.performedAtLocal).toISOString(), setting: draft.setting, conditions: draftConditions(draft) },
+      assessmentPatch: {
+        performedAt: new Date(draft.performedAtLocal).toISOString(),
+        setting: draft.setting,
+        conditions: draftConditions(draft),
+        ...(input.notes === undefined ? {} : { notes: input.notes }),
+      },
       observations: input.observations,
       formMeasures: VISIT_FORM_MEASURES,
     },

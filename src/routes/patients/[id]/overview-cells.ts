@@ -1,0 +1,70 @@
+// What the patient overview shows of each outcome series: cells, group marks, chart input and plain sentences.
+import type { ProgressChartInput } from '$lib/charts';
+import { EVENT_KIND_LABELS, type ClinicalEvent } from '$lib/domain';
+import type { OutcomeSeries } from '$lib/stats';
+import type { OverviewGroup } from '$lib/ui/overview-groups';
+
+export interface OverviewCell {
+  readonly text: string;
+  /** The verdict mark when the visit's change from baseline reaches the MDC. */
+  readonly beyond: 'improved' | 'worsened' | null;
+}
+
+/** Each visit's value of a series, by assessment id. */
+export function cellsOf(s: OutcomeSeries): Map<string, OverviewCell> {
+  const out = new Map<string, OverviewCell>();
+  s.points.forEach((p, i) => {
+    const v = s.judgements[i]?.verdict;
+    const text = s.measure.kind === 'tardieu' ? `${p.value}°` : p.text;
+    out.set(p.assessmentId, { text, beyond: v === 'improved' || v === 'worsened' ? v : null });
+  });
+  return out;
+}
+
+/** How many of a folded group's rows reach the MDC at one visit, each way. */
+export function groupMarks(g: OverviewGroup<OutcomeSeries>, assessmentId: string): { improved: number; worsened: number } {
+  let improved = 0;
+  let worsened = 0;
+  for (const r of g.rows) {
+    const beyond = cellsOf(r.series).get(assessmentId)?.beyond;
+    if (beyond === 'improved') improved++;
+    else if (beyond === 'worsened') worsened++;
+  }
+  return { improved, worsened };
+}
+
+/** Visits that hold a measurement, latest first (the overview's columns). */
+export function overviewVisits(series: readonly OutcomeSeries[]): Array<{ id: string; timeMs: number }> {
+  const seen = new Map<string, number>();
+  for (const s of series) for (const p of s.points) if (!seen.has(p.assessmentId)) seen.set(p.assessmentId, p.timeMs);
+  return [...seen].map(([id, timeMs]) => ({ id, timeMs })).sort((a, b) => b.timeMs - a.timeMs);
+}
+
+export function chartInput(s: OutcomeSeries, events: readonly ClinicalEvent[]): ProgressChartInput {
+  return {
+    title: `${s.title}${s.measure.kind === 'tardieu' ? ' · spasticity angle R2 − R1' : ''}`,
+    unitLabel: s.unitLabel,
+    timesMs: Float64Array.from(s.points, (p) => p.timeMs),
+    values: Float64Array.from(s.points, (p) => p.value),
+    ...(s.ordinalLabels ? { ordinalLabels: s.ordinalLabels } : {}),
+    baseline: s.baseline ? (s.baseline.low + s.baseline.high) / 2 : null,
+    mdc: s.mdc?.value ?? null,
+    events: events.filter((e) => !e.deleted).map((e) => ({ timeMs: Date.parse(`${e.occurredOn}T12:00:00Z`), label: EVENT_KIND_LABELS[e.kind] })),
+    trend: s.trend ? { slopePerDay: s.trend.slopePerDay, intercept: s.trend.intercept, t0Ms: s.trend.t0Ms } : null,
+  };
+}
+
+export function baselineText(s: OutcomeSeries): string {
+  if (!s.baseline) return '–';
+  const label = (v: number) => (s.ordinalLabels ? (s.ordinalLabels[v] ?? String(v)) : `${+v.toFixed(2)}${s.unitLabel}`);
+  return s.baseline.low === s.baseline.high ? label(s.baseline.low) : `${label(s.baseline.low)}–${label(s.baseline.high)}`;
+}
+
+export function trendText(s: OutcomeSeries): string {
+  if (!s.trend) return 'Trend: needs three assessments';
+  if (s.trend.slopePer30Days === 0 && s.trend.method === 'theil-sen') return 'Trend: no steady drift across visits (most pairs of visits have the same grade, so the median slope is 0).';
+  const per = s.ordinalLabels ? ' grade steps' : s.unitLabel;
+  const method = s.trend.method === 'theil-sen' ? 'Theil–Sen' : 'least squares';
+  const sign = s.trend.slopePer30Days > 0 ? '+' : '';
+  return `Trend (${method}): ${sign}${s.trend.slopePer30Days.toFixed(2)}${per} per month`;
+}
