@@ -59,7 +59,8 @@ export { caseloadSummary, caseloadSummaryBasis, type CaseloadSummary, type Summa
 export { outcomeSeries, seriesTitle, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
 
 // Small numeric helpers shared with callers that work on typed arrays
-export { compensatedSum } from './compensated-sum';
+export { CompensatedAccumulator, compensatedSum } from './compensated-sum';
 export { selectInPlace } from './select-in-place';
 export { insertionSortRange } from './insertion-sort-range';
 export { roundHalfEven } from './round-half-even';
+export { roundTo } from './round-to';
