@@ -8,11 +8,11 @@ export { motionTiming, LOW_RATE_HZ, type MotionTiming } from './motion-timing';
 export { principalAxis, type PrincipalAxis } from './principal-axis';
 export {
   reconstructKneeAngle,
-  wrap180,
   MOUNTING_TILT_BOUND_DEG,
   type KneeAngleOptions,
   type KneeAngleReconstruction,
 } from './reconstruct-knee-angle';
+export { wrap180 } from './vector3';
 export { analyseMotionRecording, type MotionPendulumResult } from './analyse-motion-recording';
 export { axisAngleToVerticalDeg, angleBetweenDeg, type DeviceAxis } from './inclination';
 export { steadyReading, type SteadyLimits, type SteadyReading } from './steady-hold';
