@@ -17,6 +17,7 @@ export {
   type DisclosurePlan,
   type PatientView,
 } from './prepare-disclosure';
+export { disclosureFromRequest, uniformFromBytes, type CohortDisclosureRequest } from './disclosure-from-request';
 export { longCsvChunks, longCsvHeader } from './long-csv';
 export { wideCsvChunks, wideCsvHeader } from './wide-csv';
 export { SUMMARY_CSV_HEADER, summaryCsvChunks } from './summary-csv';

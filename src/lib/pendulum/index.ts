@@ -5,7 +5,7 @@ export { ANGLE_CUTOFF_HZ, MIN_SAMPLE_RATE_HZ } from './uniform-grid';
 export { PEAK_COUNT_MARGIN_DEG } from './swing-peaks';
 export { DOMINANT_AREA_RATIO } from './side-areas';
 export type { PendulumTraceInput, PendulumOptions } from './analyse-pendulum-trace';
-export { analysePendulumCsv } from './analyse-pendulum-csv';
+export { analysePendulumCsv, parseAndAnalysePendulumCsv, type PendulumCsvResult } from './analyse-pendulum-csv';
 export { parsePendulumCsv } from './parse-pendulum-csv';
 export { ANGLE_LIMITS_DEG } from '../domain';
 export type { PendulumTrace } from './parse-pendulum-csv';
