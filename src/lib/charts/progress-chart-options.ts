@@ -36,7 +36,7 @@ export function progressChartData(input: ProgressChartInput): uPlot.AlignedData 
 }
 
 /** The y range: covers values, baseline ± MDC and trend, padded; an ordinal scale shows every grade. */
-export function progressYRange(input: ProgressChartInput): [number, number] {
+function progressYRange(input: ProgressChartInput): [number, number] {
   if (input.ordinalLabels) return [-0.5, input.ordinalLabels.length - 0.5];
   let lo = Infinity;
   let hi = -Infinity;

@@ -43,7 +43,6 @@ export type {
   EvidenceStatus,
   ImprovementDirection,
   Measure,
-  MeasureKind,
   MeasureSite,
   MeasurementErrorFigure,
   NumericMeasure,

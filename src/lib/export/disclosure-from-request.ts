@@ -18,7 +18,7 @@ export type CohortDisclosureRequest =
  * const uniform = uniformFromBytes((n) => crypto.getRandomValues(new Uint8Array(n)));
  * uniform(); // e.g. 0.7316…
  */
-export function uniformFromBytes(randomBytes: RandomBytes): () => number {
+function uniformFromBytes(randomBytes: RandomBytes): () => number {
   return () => {
     const bytes = randomBytes(8);
     const view = new DataView(bytes.buffer, bytes.byteOffset, 8);

@@ -1,5 +1,3 @@
-import type { PendulumFitIndices } from './pendulum-result';
-
 /**
  * The pendulum's damped-cosine model θ(t) = θrest + A·e^(−λt)·cos(ωt + φ), λ = 1/τ, at t seconds from
  * release: the one place the model is written (the fit's residuals and Jacobian, the chart's fitted
@@ -26,10 +24,3 @@ export function dampedCosineFitDeg(fit: DampedCosineParameters, tS: number): num
   return dampedCosineDeg(fit.restDeg, fit.amplitudeDeg, 1 / fit.tauS, fit.omegaRadS, fit.phaseRad, tS);
 }
 
-/** The curve of a converged fit that reports every parameter, else null (nothing to draw). */
-export function convergedCurve(fit: PendulumFitIndices | null | undefined): DampedCosineParameters | null {
-  if (!fit || !fit.converged) return null;
-  const { restDeg, amplitudeDeg, tauS, omegaRadS, phaseRad } = fit;
-  if (restDeg === null || amplitudeDeg === null || tauS === null || omegaRadS === null || phaseRad === null) return null;
-  return { restDeg, amplitudeDeg, tauS, omegaRadS, phaseRad };
-}

@@ -36,7 +36,7 @@ export function emgStage(timeS: Float64Array, emgUv: Float64Array, grid: Uniform
  * Baseline and thresholds from the silent stretches, the swing phases, and the bursts in them.
  * Null (with a warning) when less than 0.1 s precedes the release.
  */
-export function emgSummary(envelope: Float64Array, fs: number, swing: SwingForEmg, k: number, warnings: string[]): PendulumEmgIndices | null {
+function emgSummary(envelope: Float64Array, fs: number, swing: SwingForEmg, k: number, warnings: string[]): PendulumEmgIndices | null {
   const { releaseIndex, rest } = swing;
   const baselineEnd = Math.floor(releaseIndex - 0.05 * fs);
   const baselineStart = Math.max(0, Math.floor(releaseIndex - 1.05 * fs));

@@ -23,7 +23,7 @@ export type {
 } from './pendulum-result';
 // Building blocks, exported for reuse (sensors) and for their own tests.
 export { butterworthLowPass } from './butterworth-low-pass';
-export { zeroPhaseFilter, defaultPadLength } from './zero-phase-filter';
+export { zeroPhaseFilter } from './zero-phase-filter';
 export { resampleLinear } from './resample-linear';
 export { uniformSampleRate } from './uniform-sample-rate';
 export type { SampleTiming } from './uniform-sample-rate';
@@ -36,7 +36,7 @@ export { detectRest, REST_WINDOW_S } from './detect-rest';
 export type { RestPlateau } from './detect-rest';
 export { integrateGyro } from './integrate-gyro';
 export { fitDampedCosine } from './fit-damped-cosine';
-export { convergedCurve, dampedCosineDeg, dampedCosineFitDeg, type DampedCosineParameters } from './damped-cosine';
+export { dampedCosineDeg, dampedCosineFitDeg, type DampedCosineParameters } from './damped-cosine';
 export type { DampedCosineFit, DampedCosineStart } from './fit-damped-cosine';
-export { emgEnvelope, EMG_HIGH_PASS_HZ, EMG_ENVELOPE_HZ } from './emg-envelope';
+export { emgEnvelope } from './emg-envelope';
 export { quickselect, medianInPlace } from './quickselect';
