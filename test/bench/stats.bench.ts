@@ -18,22 +18,12 @@ import {
   type MeasureScale,
 } from '../../src/lib/stats';
 import { formatMs, medianOfSorted, timeRuns } from './timing';
+import { mulberry32 } from '../support/seeded-random';
 
 const patients = 5000;
 const measures = 8;
 const assessments = 24;
 const seriesCount = patients * measures;
-
-function mulberry32(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const ashworth: MeasureScale = {
   kind: 'ordinal',

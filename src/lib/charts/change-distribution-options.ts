@@ -40,7 +40,7 @@ export function changeHistogram(input: ChangeDistributionInput): { centres: Floa
 }
 
 /** Whole numbers inside a range, thinned to at most about 12 ticks. */
-export function wholeSteps([lo, hi]: readonly [number, number]): number[] {
+function wholeSteps([lo, hi]: readonly [number, number]): number[] {
   const first = Math.ceil(lo);
   const last = Math.floor(hi);
   const every = Math.max(1, Math.ceil((last - first + 1) / 12));

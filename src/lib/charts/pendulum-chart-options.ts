@@ -1,17 +1,11 @@
 import type uPlot from 'uplot';
 import { formatFixed } from '$lib/domain';
-import type { PendulumAnalysis } from '$lib/pendulum';
+import { dampedCosineFitDeg, type DampedCosineParameters, type PendulumAnalysis } from '$lib/pendulum';
 import { minMaxDecimate } from './min-max-decimate';
 import { chartColours, chartDashes } from './palette';
 
 /** The fitted curve's parameters; drawn only when the fit converged and gives its phase. */
-export interface FittedCurve {
-  readonly restDeg: number;
-  readonly amplitudeDeg: number;
-  readonly tauS: number;
-  readonly omegaRadS: number;
-  readonly phaseRad: number;
-}
+export type FittedCurve = DampedCosineParameters;
 
 /** Seconds of the settled leg shown after rest onset. */
 export const PENDULUM_REST_SHOWN_S = 1;
@@ -34,8 +28,7 @@ export function pendulumChartData(analysis: PendulumAnalysis, fit: FittedCurve |
     const t = (i - s.releaseIndex) / fs;
     xs[j] = t;
     ys[j] = s.angleDeg[i] as number;
-    fitted[j] =
-      fit && t >= 0 ? fit.restDeg + fit.amplitudeDeg * Math.exp(-t / fit.tauS) * Math.cos(fit.omegaRadS * t + fit.phaseRad) : null;
+    fitted[j] = fit && t >= 0 ? dampedCosineFitDeg(fit, t) : null;
   }
   return [xs, ys, fitted];
 }

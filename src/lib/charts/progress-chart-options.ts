@@ -22,7 +22,13 @@ export interface ProgressChartInput {
 
 const dayMs = 86_400_000;
 
-/** Builds uPlot data columns: x in seconds (uPlot's time unit), values, and the trend evaluated at each x. */
+/**
+ * Builds uPlot data columns: x in seconds (uPlot's time unit), values, and the trend evaluated at each x.
+ *
+ * @example
+ * const [xs, ys] = progressChartData({ title: 'Elbow flexors, MAS', unitLabel: '', timesMs: Float64Array.of(Date.UTC(2025, 0, 6)), values: Float64Array.of(3) });
+ * xs[0]; // 1736121600 (seconds); ys[0]; // 3
+ */
 export function progressChartData(input: ProgressChartInput): uPlot.AlignedData {
   const n = input.timesMs.length;
   const xs = new Float64Array(n);
@@ -36,7 +42,7 @@ export function progressChartData(input: ProgressChartInput): uPlot.AlignedData 
 }
 
 /** The y range: covers values, baseline ± MDC and trend, padded; an ordinal scale shows every grade. */
-export function progressYRange(input: ProgressChartInput): [number, number] {
+function progressYRange(input: ProgressChartInput): [number, number] {
   if (input.ordinalLabels) return [-0.5, input.ordinalLabels.length - 0.5];
   let lo = Infinity;
   let hi = -Infinity;

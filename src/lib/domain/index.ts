@@ -1,6 +1,7 @@
 // Public face of src/lib/domain: other folders import only this file.
 // Pure TypeScript: records, their valibot schemas, the measure catalogue and UUIDv7 ids.
 export { DomainValidationError, type ValidationIssue } from './domain-error';
+export { ANGLE_LIMITS_DEG, RecordingInputError } from './recording-input-error';
 export { formatFixed } from './format-fixed';
 export { createUuidV7Generator, formatUuidV7, isUuidV7, uuidV7Time, type RandomBytes } from './uuid-v7';
 export {
@@ -42,7 +43,6 @@ export type {
   EvidenceStatus,
   ImprovementDirection,
   Measure,
-  MeasureKind,
   MeasureSite,
   MeasurementErrorFigure,
   NumericMeasure,

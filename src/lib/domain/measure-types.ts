@@ -1,8 +1,5 @@
 import type { Instrument, RomMode } from './observation';
 
-/** How the measure's values are held and compared. */
-export type MeasureKind = 'ordinal' | 'tardieu' | 'angle' | 'index' | 'count' | 'rating';
-
 /** Which way a change is an improvement; 'none' where neither direction is clearly better. */
 export type ImprovementDirection = 'lower' | 'higher' | 'none';
 

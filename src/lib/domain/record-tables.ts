@@ -95,6 +95,11 @@ export function isTableName(name: string): name is TableName {
  * observations the measure catalogue and for audit entries their table name, snapshot size and the
  * absence of protected text (checkAuditEntry). Returns the issues, each with a dot path; never
  * throws. Cost: O(size of the record).
+ *
+ * @example
+ * const result = validateRecord('observations', draft);
+ * if (!result.ok) result.issues; // [{ path, message }, …]: each field at fault and why
+ * else result.record; // the typed Observation
  */
 export function validateRecord<K extends TableName>(
   table: K,

@@ -66,6 +66,11 @@ export function cohortFileName(kind: CohortFileKind, filters: CohortFilters, now
  * wide and summary CSV, FHIR R4 Bundle). Pass an index from buildCohortIndex to reuse it, or the
  * records. Nothing is written yet: each file's `chunks()` produces its text on demand.
  * Throws CohortExportError for bad filters or options.
+ *
+ * @example
+ * const prepared = await prepareCohortExport(tables, { filters: { measureCode: 'mas' }, disclosure: disclosureFromRequest({ kind: 'deidentified', dates: 'days-from-baseline' }, randomBytes) });
+ * prepared.files.map((f) => f.fileName); // long, wide and summary CSV and the FHIR bundle
+ * await runCohortExport(prepared, { onChunk: (file, text) => write(file, text) });
  */
 export async function prepareCohortExport(source: CohortRecords | CohortIndex, options: CohortExportOptions): Promise<PreparedCohortExport> {
   const index = 'series' in source ? source : buildCohortIndex(source);

@@ -13,11 +13,11 @@ export const KINNOTE_MEASURE_SYSTEM = 'urn:kinnote:measure';
 export const KINNOTE_SITE_SYSTEM = 'urn:kinnote:site';
 export const KINNOTE_GRADE_SYSTEM_PREFIX = 'urn:kinnote:grade:';
 export const KINNOTE_TARDIEU_PART_SYSTEM = 'urn:kinnote:tardieu-part';
-export const KINNOTE_METHOD_SYSTEM = 'urn:kinnote:method';
+const KINNOTE_METHOD_SYSTEM = 'urn:kinnote:method';
 export const KINNOTE_EXPORT_TAG_SYSTEM = 'urn:kinnote:export';
-export const KINNOTE_LATERALITY_EXTENSION = 'urn:kinnote:extension:laterality';
+const KINNOTE_LATERALITY_EXTENSION = 'urn:kinnote:extension:laterality';
 export const KINNOTE_PSEUDONYM_SYSTEM = 'urn:kinnote:export-pseudonym';
-export const KINNOTE_PATIENT_CODE_SYSTEM = 'urn:kinnote:patient-code';
+const KINNOTE_PATIENT_CODE_SYSTEM = 'urn:kinnote:patient-code';
 export const UCUM = 'http://unitsofmeasure.org';
 
 interface Coding {
@@ -27,7 +27,7 @@ interface Coding {
 }
 
 /** meta.tag codings that say what the export did to the data. */
-export function exportTags(plan: DisclosurePlan): Coding[] {
+function exportTags(plan: DisclosurePlan): Coding[] {
   if (plan.kind === 'identified') return [{ system: KINNOTE_EXPORT_TAG_SYSTEM, code: 'identified', display: 'Identified export: real names, dates of birth and dates' }];
   const tags: Coding[] = [{ system: KINNOTE_EXPORT_TAG_SYSTEM, code: 'deidentified', display: 'De-identified: keyed-hash pseudonyms, birth years in 5-year bands, no free text' }];
   if (plan.dateMode === 'days-from-baseline') {
@@ -76,7 +76,7 @@ function valueElements(measure: Measure, value: Observation['value']): Record<st
 }
 
 /** The FHIR R4 Observation for one observation (de-identified or identified per the plan). */
-export function fhirObservation(plan: DisclosurePlan, view: PatientView, measure: Measure, o: Observation, day: number, tags: readonly Coding[]): Record<string, unknown> {
+function fhirObservation(plan: DisclosurePlan, view: PatientView, measure: Measure, o: Observation, day: number, tags: readonly Coding[]): Record<string, unknown> {
   const site = findSite(measure, o.siteCode);
   const sideText = o.side === 'none' ? '' : `, ${o.side}`;
   const method = [o.mode, o.instrument].filter((x): x is NonNullable<typeof x> => x !== null);

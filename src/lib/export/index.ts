@@ -7,7 +7,7 @@ export type { CohortCondition, CohortFilters, CohortRecords, CohortSetting, Coho
 export { buildCohortIndex, type CohortIndex, type CohortSeries, type DatedEvent } from './cohort-index';
 export { countCohort, selectCohort, type Cohort, type CohortCount, type CohortPair } from './select-cohort';
 export { measureQuantities, type MeasureQuantity } from './measure-quantities';
-export { groupKey, pairChange, pairMdc, summariseCohort, type CohortGroupSummary, type CohortSummary, type PairChange, type SummariseOptions } from './summarise-cohort';
+export { groupKey, pairChange, summariseCohort, type CohortGroupSummary, type CohortSummary, type PairChange, type SummariseOptions } from './summarise-cohort';
 export {
   birthYearBand,
   prepareDisclosure,
@@ -17,6 +17,7 @@ export {
   type DisclosurePlan,
   type PatientView,
 } from './prepare-disclosure';
+export { disclosureFromRequest, type CohortDisclosureRequest } from './disclosure-from-request';
 export { longCsvChunks, longCsvHeader } from './long-csv';
 export { wideCsvChunks, wideCsvHeader } from './wide-csv';
 export { SUMMARY_CSV_HEADER, summaryCsvChunks } from './summary-csv';

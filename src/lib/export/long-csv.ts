@@ -53,7 +53,7 @@ export function longCsvHeader(plan: DisclosurePlan): string[] {
 }
 
 /** Appends the value columns (value, grade, grade_rank, r1_deg, r2_deg, quality, spasticity_angle_deg). */
-export function valueCells(value: Observation['value'], out: Cell[]): void {
+function valueCells(value: Observation['value'], out: Cell[]): void {
   switch (value.kind) {
     case 'ordinal':
       out.push(null, value.grade, value.rank, null, null, null, null);

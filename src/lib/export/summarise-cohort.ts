@@ -79,7 +79,7 @@ export function pairChange(pair: CohortPair, quantity: MeasureQuantity, mdc: Mdc
  * The MDC of one pair and quantity: chooseMdc (the one rule shared with a patient's page) asked about
  * this pair's baseline and follow-up observations, their instruments and assessors. Never throws.
  */
-export function pairMdc(pair: CohortPair, quantity: MeasureQuantity, primary: boolean, localMdc: readonly LocalMdc[]): MdcChoice {
+function pairMdc(pair: CohortPair, quantity: MeasureQuantity, primary: boolean, localMdc: readonly LocalMdc[]): MdcChoice {
   const s = pair.series;
   return chooseMdc({
     measureCode: s.measure.code,

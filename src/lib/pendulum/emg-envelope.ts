@@ -2,9 +2,9 @@ import { butterworthLowPass } from './butterworth-low-pass';
 import { zeroPhaseFilter } from './zero-phase-filter';
 
 /** High-pass corner that removes movement artefact and offset before rectifying (Hz). */
-export const EMG_HIGH_PASS_HZ = 20;
+const EMG_HIGH_PASS_HZ = 20;
 /** Low-pass corner that smooths the rectified signal into an envelope (Hz). */
-export const EMG_ENVELOPE_HZ = 6;
+const EMG_ENVELOPE_HZ = 6;
 
 /**
  * Linear envelope of one raw EMG channel: remove the mean, high-pass at 20 Hz (2nd-order

@@ -1,3 +1,5 @@
+import { dampedCosineDeg } from './damped-cosine';
+
 /** Result of fitting θ(t) = θrest + A·e^(−t/τ)·cos(ωt + φ). */
 export interface DampedCosineFit {
   /** True when Levenberg–Marquardt met its stopping test with a decaying, oscillating solution. */
@@ -141,7 +143,7 @@ function sumOfSquares(t: Float64Array, y: Float64Array, from: number, to: number
   let sum = 0;
   for (let i = from; i < to; i += stride) {
     const tt = t[i] - t0;
-    const r = y[i] - (rest + a * Math.exp(-lambda * tt) * Math.cos(omega * tt + phase));
+    const r = y[i] - dampedCosineDeg(rest, a, lambda, omega, phase, tt);
     sum += r * r;
   }
   return sum;
@@ -168,7 +170,7 @@ function normalEquations(
     const e = Math.exp(-lambda * tt);
     const c = Math.cos(omega * tt + phase);
     const s = Math.sin(omega * tt + phase);
-    const r = y[i] - (rest + a * e * c);
+    const r = y[i] - dampedCosineDeg(rest, a, lambda, omega, phase, tt);
     row[0] = 1;
     row[1] = e * c;
     row[2] = -tt * a * e * c;

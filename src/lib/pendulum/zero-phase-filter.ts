@@ -45,7 +45,7 @@ export function zeroPhaseFilter(
 }
 
 /** Three times the number of filter coefficients per side, as scipy's sosfiltfilt does by default. */
-export function defaultPadLength(sos: Float64Array): number {
+function defaultPadLength(sos: Float64Array): number {
   const sections = sos.length / 6;
   let trailingZeros = 0;
   for (let s = 0; s < sections; s++) if (sos[s * 6 + 2] === 0 && sos[s * 6 + 5] === 0) trailingZeros++;

@@ -11,7 +11,7 @@ export function dayNumber(day: string): number {
 }
 
 /** The calendar date of a UTC day number. */
-export function dayFromNumber(n: number): string {
+function dayFromNumber(n: number): string {
   return new Date(n * MS_PER_DAY).toISOString().slice(0, 10);
 }
 

@@ -25,13 +25,6 @@ export function chiSquareCdf(x: number, df: number, upper = false): number {
   return regularizedGamma(df / 2, x / 2, upper);
 }
 
-/** Chi-square density. Throws StatsInputError for bad df. */
-export function chiSquarePdf(x: number, df: number): number {
-  checkDf(df, 'chiSquarePdf');
-  if (x < 0) return 0;
-  if (x === 0) return df < 2 ? Number.POSITIVE_INFINITY : df === 2 ? 0.5 : 0;
-  return Math.exp(logDensity(x, df));
-}
 
 /**
  * Chi-square quantile: the x with P(X ≤ x) = p.

@@ -53,7 +53,7 @@ export const ORDINAL_STEP_MDC: MdcProvenance = {
  * The instrument and rater design of a comparison: the one instrument of every compared observation
  * (null when they differ or none is stated), and 'same-rater' only when one known assessor took them all.
  */
-export function comparisonDesign(compared: readonly ComparedObservation[]): { instrument: Instrument | null; raters: 'same-rater' | 'different-raters' } {
+function comparisonDesign(compared: readonly ComparedObservation[]): { instrument: Instrument | null; raters: 'same-rater' | 'different-raters' } {
   let instrument: Instrument | null | undefined;
   let assessor: string | null | undefined;
   let sameRater = true;

@@ -39,12 +39,6 @@ export function fCdf(f: number, df1: number, df2: number, upper = false): number
   return tail(f, df1, df2, upper);
 }
 
-/** F density. Throws StatsInputError for bad df. */
-export function fPdf(f: number, df1: number, df2: number): number {
-  checkDf(df1, df2, 'fPdf');
-  if (f <= 0) return 0;
-  return Math.exp(logDensity(f, df1, df2));
-}
 
 /**
  * F quantile: the f with P(F ≤ f) = p.

@@ -4,10 +4,10 @@
 export { StatsInputError } from './stats-input-error';
 
 // Distributions
-export { normalCdf, normalPdf, normalQuantile } from './normal-distribution';
-export { studentTCdf, studentTPdf, studentTQuantile } from './student-t-distribution';
-export { chiSquareCdf, chiSquarePdf, chiSquareQuantile } from './chi-square-distribution';
-export { fCdf, fPdf, fQuantile } from './f-distribution';
+export { normalCdf, normalQuantile } from './normal-distribution';
+export { studentTCdf, studentTQuantile } from './student-t-distribution';
+export { chiSquareCdf, chiSquareQuantile } from './chi-square-distribution';
+export { fCdf, fQuantile } from './f-distribution';
 export { regularizedBeta } from './incomplete-beta';
 export { regularizedGamma } from './incomplete-gamma';
 export { logGamma, logBeta } from './log-gamma';
@@ -41,7 +41,7 @@ export { reliableChangeIndex, type ReliableChange } from './reliable-change-inde
 // Trends
 export { olsTrend, olsTrendInto, olsSlots, type OlsTrend } from './ols-trend';
 export { theilSen, theilSenInto, theilSenSlots, theilSenScratchLength, type TheilSen } from './theil-sen';
-export { mannKendall, mannKendallInto, mannKendallSlots, mannKendallScratchLength, type MannKendall } from './mann-kendall';
+export { mannKendall, mannKendallInto, mannKendallScratchLength, type MannKendall } from './mann-kendall';
 export { segmentedRegression, type SegmentedRegression, type SegmentEstimate } from './segmented-regression';
 
 // Cohort summaries
@@ -52,14 +52,15 @@ export { standardisedResponseMean } from './standardised-response-mean';
 export { cohortChangeSummary, type CohortChangeSummary } from './cohort-change-summary';
 
 // Series of one patient, ready for the patient page and its charts
-export { chooseMdc, comparisonDesign, mdcSourceLine, ORDINAL_STEP_MDC, type ComparedObservation, type LocalMdc, type MdcChoice, type MdcQuestion } from './choose-mdc';
+export { chooseMdc, mdcSourceLine, ORDINAL_STEP_MDC, type ComparedObservation, type LocalMdc, type MdcChoice, type MdcQuestion } from './choose-mdc';
 export { seriesKey } from './series-key';
 export { adoptedLocalMdc, type AdoptableStudy } from './adopted-local-mdc';
 export { caseloadSummary, caseloadSummaryBasis, type CaseloadSummary, type SummaryAssessment } from './caseload-summary';
 export { latestVerdicts, outcomeSeries, seriesTitle, type OutcomeOptions, type OutcomePoint, type OutcomeSeries, type OutcomeTrend } from './outcome-series';
 
 // Small numeric helpers shared with callers that work on typed arrays
-export { compensatedSum } from './compensated-sum';
+export { CompensatedAccumulator, compensatedSum } from './compensated-sum';
 export { selectInPlace } from './select-in-place';
 export { insertionSortRange } from './insertion-sort-range';
 export { roundHalfEven } from './round-half-even';
+export { roundTo } from './round-to';

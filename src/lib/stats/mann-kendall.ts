@@ -18,7 +18,7 @@ export interface MannKendall {
 }
 
 /** Slots of the `out` array filled by mannKendallInto; method slot: 1 exact, 0 normal-cc. */
-export const mannKendallSlots = { n: 0, s: 1, variance: 2, tau: 3, p: 4, exact: 5 } as const;
+const mannKendallSlots = { n: 0, s: 1, variance: 2, tau: 3, p: 4, exact: 5 } as const;
 
 const exactMaxN = 30;
 // cumulative[n][d] = P(D ≤ d) for the number of discordant pairs D among n untied points under H0.

@@ -17,10 +17,6 @@ export function normalCdf(x: number, upper = false): number {
   return z >= 0 ? erfcHalf : 1 - erfcHalf;
 }
 
-/** Standard normal density φ(x) = exp(−x²/2)/√(2π). */
-export function normalPdf(x: number): number {
-  return Math.exp(-0.5 * x * x) / sqrtTwoPi;
-}
 
 // Acklam's rational approximation of the normal quantile (relative error 1.15e-9), used as the
 // start for Halley refinement against the accurate CDF above.

@@ -105,6 +105,10 @@ export function seriesTitle(measure: Measure, siteCode: string, side: Observatio
  * the baseline (by `baselineRule`), the latest value, the change verdict against the MDC chosen by
  * chooseMdc (the one rule, shared with the cohort and every export) and a trend (least squares per 30 days; Theil–Sen with Mann–Kendall for ordinal grades).
  * Tombstoned observations are left out. Series are ordered by measure catalogue order, then title.
+ *
+ * @example
+ * const series = outcomeSeries(patientObservations, { baselineRule: { kind: 'first' } });
+ * series[0].points; // one point per assessment, each with its change from baseline and verdict against the MDC
  */
 export function outcomeSeries(observations: readonly Observation[], options: OutcomeOptions): OutcomeSeries[] {
   return buildSeries(observations, options, 'full');

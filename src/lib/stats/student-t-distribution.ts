@@ -32,11 +32,6 @@ export function studentTCdf(t: number, df: number, upper = false): number {
   return wantSmallSide ? tail : 1 - tail;
 }
 
-/** Student t density with `df` degrees of freedom. Throws StatsInputError for df ≤ 0. */
-export function studentTPdf(t: number, df: number): number {
-  checkDf(df, 'studentTPdf');
-  return Math.exp(logDensity(t, df));
-}
 
 /**
  * Student t quantile: the t with P(T ≤ t) = p, df > 0 (non-integer allowed).

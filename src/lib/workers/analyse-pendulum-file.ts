@@ -1,5 +1,6 @@
-import { analysePendulumText } from './analyse-pendulum-text';
+import { parseAndAnalysePendulumCsv, PendulumInputError } from '$lib/pendulum';
 import type { PendulumReply, PendulumRequest, PendulumResult } from './pendulum-protocol';
+import { workerWithFallback } from './worker-with-fallback';
 
 /** A refusal from the engine (file, row, reason), or a failure of the worker itself. */
 export class PendulumAnalysisError extends Error {
@@ -12,52 +13,37 @@ export class PendulumAnalysisError extends Error {
   }
 }
 
-let worker: Worker | null = null;
 let nextId = 1;
 const pending = new Map<number, { resolve: (a: PendulumResult) => void; reject: (e: Error) => void }>();
 
-function startWorker(): Worker | null {
-  if (worker) return worker;
-  if (typeof Worker === 'undefined') return null;
-  try {
-    worker = new Worker(new URL('./pendulum.worker.ts', import.meta.url), { type: 'module' });
-  } catch {
-    return null;
-  }
-  worker.onmessage = (event: MessageEvent<PendulumReply>) => {
-    const reply = event.data;
+const pendulumWorker = workerWithFallback<PendulumReply>(() => new Worker(new URL('./pendulum.worker.ts', import.meta.url), { type: 'module' }), {
+  reply: (reply) => {
     const waiter = pending.get(reply.id);
     if (!waiter) return;
     pending.delete(reply.id);
     if (reply.ok) waiter.resolve({ analysis: reply.analysis, raw: reply.raw });
     else waiter.reject(new PendulumAnalysisError(reply.message, reply.refused));
-  };
-  worker.onerror = (event) => {
-    // A broken worker fails its pending jobs; the next call falls back to the main thread.
-    for (const [, waiter] of pending) waiter.reject(new PendulumAnalysisError(event.message || 'the analysis worker failed', false));
+  },
+  // A broken worker fails its pending jobs; the next call falls back to the main thread.
+  broken: (message) => {
+    for (const [, waiter] of pending) waiter.reject(new PendulumAnalysisError(message || 'the analysis worker failed', false));
     pending.clear();
-    worker?.terminate();
-    worker = null;
-    workerBroken = true;
-  };
-  return worker;
-}
-
-let workerBroken = false;
+  },
+});
 
 /**
  * Analyses a pendulum recording (CSV text) in a Web Worker; falls back to the main thread where
  * workers are unavailable or have failed. Rejects with PendulumAnalysisError naming file, row, reason.
  */
 export function analysePendulumFile(csvText: string, fileName: string): Promise<PendulumResult> {
-  const target = workerBroken ? null : startWorker();
+  const target = pendulumWorker();
   if (!target) {
     return new Promise((resolve, reject) => {
       try {
-        resolve(analysePendulumText(csvText, fileName));
+        resolve(parseAndAnalysePendulumCsv(csvText, fileName));
       } catch (error) {
         const message = error instanceof Error ? error.message : String(error);
-        reject(new PendulumAnalysisError(message, (error as Error)?.name === 'PendulumInputError'));
+        reject(new PendulumAnalysisError(message, error instanceof PendulumInputError));
       }
     });
   }

@@ -1,7 +1,8 @@
 /// <reference lib="webworker" />
 // Runs cohort exports off the main thread: prepares the cohort, streams each file in ≈ 64 KiB
 // chunks into a Blob, posts progress after each chunk, and stops between chunks on cancel.
-import { runCohortExportJob, type CohortWorkerReply, type CohortWorkerRequest } from './cohort-export-client';
+import { runCohortExportJob } from './cohort-export-job';
+import type { CohortWorkerReply, CohortWorkerRequest } from './cohort-export-protocol';
 
 declare const self: DedicatedWorkerGlobalScope;
 

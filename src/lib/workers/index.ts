@@ -1,11 +1,9 @@
 // Public face of src/lib/workers: page-side clients of the Web Workers that run core modules.
 export { analysePendulumFile, PendulumAnalysisError } from './analyse-pendulum-file';
 export type { PendulumResult } from './pendulum-protocol';
+export { startCohortExport } from './cohort-export-client';
 export {
   CohortExportFailure,
-  buildCohortIndex,
-  countCohort,
-  startCohortExport,
   type CohortDisclosureRequest,
   type CohortExportCallbacks,
   type CohortExportFileResult,
@@ -14,4 +12,4 @@ export {
   type CohortExportRequest,
   type CohortExportResult,
   type PlainGroupSummary,
-} from './cohort-export-client';
+} from './cohort-export-protocol';

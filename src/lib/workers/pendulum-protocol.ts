@@ -1,4 +1,4 @@
-import type { PendulumAnalysis, PendulumTrace } from '$lib/pendulum';
+import type { PendulumCsvResult } from '$lib/pendulum';
 
 /** Messages between the page and the pendulum worker. */
 export interface PendulumRequest {
@@ -8,10 +8,7 @@ export interface PendulumRequest {
 }
 
 /** The analysis and the parsed raw columns (kept with the observations as the trace). */
-export interface PendulumResult {
-  readonly analysis: PendulumAnalysis;
-  readonly raw: PendulumTrace;
-}
+export type PendulumResult = PendulumCsvResult;
 
 export type PendulumReply =
   | ({ readonly id: number; readonly ok: true } & PendulumResult)

@@ -1,16 +1,16 @@
 /// <reference lib="webworker" />
 // Runs the pendulum engine off the main thread. Signals and raw columns travel back as transferred
 // buffers, so a long 1 kHz trace is not copied.
-import { PendulumInputError } from '$lib/pendulum';
-import { analysePendulumText, transferablesOf } from './analyse-pendulum-text';
+import { parseAndAnalysePendulumCsv, PendulumInputError } from '$lib/pendulum';
 import type { PendulumReply, PendulumRequest } from './pendulum-protocol';
+import { transferablesOf } from './pendulum-transfer';
 
 declare const self: DedicatedWorkerGlobalScope;
 
 self.onmessage = (event: MessageEvent<PendulumRequest>) => {
   const { id, csvText, fileName } = event.data;
   try {
-    const result = analysePendulumText(csvText, fileName);
+    const result = parseAndAnalysePendulumCsv(csvText, fileName);
     const reply: PendulumReply = { id, ok: true, ...result };
     self.postMessage(reply, transferablesOf(result));
   } catch (error) {

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { analysePendulumTrace } from '../../../src/lib/pendulum/index';
 import { GRAVITY_M_S2, HEALTHY_DAMPING_NMS_PER_RAD, HEALTHY_STIFFNESS_NM_PER_RAD, sampleTrace, simulatePendulum, winterFootAndLeg } from './simulator';
+import { relativeError } from '../../support/relative-error';
 
-const relative = (a: number, b: number): number => Math.abs(a - b) / Math.abs(b);
 
 describe('simulator physics', () => {
   it('uses Winter\'s "foot and leg" segment (REFERENCES §7b, DERIVED from §8a/8b, 70 kg, 1.75 m)', () => {
@@ -14,7 +14,7 @@ describe('simulator physics', () => {
       { input: 'gravityTorqueNmPerRad', expected: 10.93, tolerance: 1e-3 },
     ] as const;
     const segment = winterFootAndLeg(70, 1.75);
-    for (const f of fixtures) expect(relative(segment[f.input], f.expected)).toBeLessThan(f.tolerance);
+    for (const f of fixtures) expect(relativeError(segment[f.input], f.expected)).toBeLessThan(f.tolerance);
     expect(GRAVITY_M_S2).toBe(9.81);
   });
 
@@ -24,7 +24,7 @@ describe('simulator physics', () => {
     const expected = 2 * Math.PI * Math.sqrt(I / mgd);
     expect(expected).toBeCloseTo(1.243, 3); // REFERENCES §7b, DERIVED: 1.243 s
     // 5° amplitude lengthens the period by θ0²/16 ≈ 0.05 % (large-amplitude series, textbook).
-    expect(relative(sim.truth.firstPeriodS as number, expected)).toBeLessThan(1e-3);
+    expect(relativeError(sim.truth.firstPeriodS as number, expected)).toBeLessThan(1e-3);
     // Energy is conserved: the first flexion peak mirrors the start about the hanging angle.
     expect(sim.truth.firstPeakDeg).toBeCloseTo(95, 3);
   });
@@ -40,8 +40,8 @@ describe('simulator physics', () => {
     const { fit } = analysePendulumTrace({ timeS: sampled.timeS, angleDeg: sampled.angleDeg }).indices;
     expect(fit.converged).toBe(true);
     // 12° amplitude: the sin nonlinearity shifts ω by < 0.5 %; tolerances 1 % and 3 % (common practice).
-    expect(relative(fit.omegaRadS as number, omega)).toBeLessThan(0.01);
-    expect(relative(fit.tauS as number, tau)).toBeLessThan(0.03);
+    expect(relativeError(fit.omegaRadS as number, omega)).toBeLessThan(0.01);
+    expect(relativeError(fit.tauS as number, tau)).toBeLessThan(0.03);
     expect(fit.r2 as number).toBeGreaterThan(0.99);
   });
 });
@@ -63,7 +63,7 @@ describe('published values for relaxed legs', () => {
   });
 
   it('swings with a period near the typical 1.10 s of a healthy trace (omicsonline 2161-0673-S6-001 Fig. 1, VERIFIED caption; 5 % tolerance, common practice)', () => {
-    expect(relative(indices.firstPeriodS as number, 1.1)).toBeLessThan(0.05);
+    expect(relativeError(indices.firstPeriodS as number, 1.1)).toBeLessThan(0.05);
   });
 
   it('carries no caution for the relaxed leg', () => {

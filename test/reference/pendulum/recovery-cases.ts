@@ -14,13 +14,14 @@ import {
   type PendulumSimulationOptions,
   type SimulatedIndices,
 } from './simulator';
+import { deepFreeze } from '../../support/deep-freeze';
 
-export const LEGS: Record<string, PendulumSimulationOptions> = {
+export const LEGS: Record<string, PendulumSimulationOptions> = deepFreeze({
   relaxed: {},
   'extensor moderate': { reflex: reflexForSeverity('extensor', 'moderate'), startAngleDeg: 10, hangingAngleDeg: 80 },
   'extensor severe': { reflex: reflexForSeverity('extensor', 'severe'), startAngleDeg: 25, hangingAngleDeg: 95, holdS: 0.4 },
   'flexor moderate': { reflex: reflexForSeverity('flexor', 'moderate'), startAngleDeg: 35, hangingAngleDeg: 65, holdS: 2.5, timeOffsetS: 314.2 },
-};
+});
 
 export interface Condition {
   readonly rateHz: number;
@@ -28,7 +29,7 @@ export interface Condition {
   readonly gyroStartFromTruth?: boolean;
 }
 
-export const CONDITIONS: Record<string, Condition> = {
+export const CONDITIONS: Record<string, Condition> = deepFreeze({
   'clean 1000 Hz': { rateHz: 1000, make: (s) => s },
   'clean 50 Hz': { rateHz: 50, make: (s) => s },
   'clean 100 Hz': { rateHz: 100, make: (s) => s },
@@ -50,7 +51,7 @@ export const CONDITIONS: Record<string, Condition> = {
     make: (s, r) => toGyroOnly(s, { biasDps: -3, biasDriftDpsPerS: 0.1, noiseDps: 2 }, r),
     gyroStartFromTruth: true,
   },
-};
+});
 
 export interface Recovery {
   readonly truth: SimulatedIndices;

@@ -15,6 +15,7 @@
 //
 // The truth indices are computed from the simulator's own state (velocity sign changes, the analytic
 // equilibrium), not by the engine under test.
+import { mulberry32 } from '../../support/seeded-random';
 
 export const GRAVITY_M_S2 = 9.81;
 const DEG = Math.PI / 180;
@@ -287,17 +288,8 @@ function truthIndices(
 // ---------------------------------------------------------------------------------------------
 // Turning a clean trace into a recording: sampling, noise, drift, quantisation, spikes, gyro.
 
-/** Seeded uniform generator in [0, 1) (mulberry32, public-domain algorithm by Tommy Ettinger). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Seeded uniform generator in [0, 1): test/support's mulberry32, re-exported for the simulator's users. */
+export { mulberry32 };
 
 /** Standard normal deviate by Box–Muller from a uniform generator. */
 export function gaussian(rng: () => number): number {

@@ -17,6 +17,7 @@
 // fingerprinting; the 0.1 steps from memory), timing jitter.
 import { GRAVITY_M_S2, gaussian, mulberry32, type SimulatedTrace } from '../pendulum/simulator';
 import type { MotionRecording } from '../../../src/lib/sensors';
+import { deepFreeze } from '../../support/deep-freeze';
 
 const DEG = Math.PI / 180;
 
@@ -59,7 +60,7 @@ export function typicalPhoneErrors(rng: () => number): SensorErrors {
   };
 }
 
-export const NO_ERRORS: SensorErrors = {
+export const NO_ERRORS: SensorErrors = deepFreeze({
   gyroNoiseDps: 0,
   gyroBiasDps: [0, 0, 0],
   gyroDriftDpsPerS: 0,
@@ -68,7 +69,7 @@ export const NO_ERRORS: SensorErrors = {
   gyroStepDps: 0,
   accStepMs2: 0,
   jitterFraction: 0,
-};
+});
 
 /** Uniformly random rotation (Shoemake 1992, "Uniform random rotations", Graphics Gems III; from memory). */
 export function randomRotation(rng: () => number): Matrix3 {

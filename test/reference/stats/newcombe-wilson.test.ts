@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
 import { wilsonInterval } from '../../../src/lib/stats';
-import { relativeError } from '../../unit/stats/relative-error';
+import { relativeError } from '../../support/relative-error';
 
 describe('Wilson score interval', () => {
   // Newcombe RG (1998a), Statistics in Medicine 17:857–872, Table I, method 3 (VERIFIED, 4 dp).

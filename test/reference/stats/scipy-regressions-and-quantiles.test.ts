@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
 import { olsTrend, quantileSorted, segmentedRegression, standardisedResponseMean } from '../../../src/lib/stats';
-import { relativeError } from '../../unit/stats/relative-error';
+import { relativeError } from '../../support/relative-error';
 
 describe(`OLS trend (RECOMPUTED: ${recomputed.ols.source})`, () => {
   const c = recomputed.ols;

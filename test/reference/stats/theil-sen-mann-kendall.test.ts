@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
 import { mannKendall, theilSen, theilSenInto, theilSenSlots } from '../../../src/lib/stats';
-import { relativeError } from '../../unit/stats/relative-error';
+import { relativeError } from '../../support/relative-error';
 
 describe('Theil–Sen: example of Sen (1968)', () => {
   const x = new Float64Array([1, 2, 3, 4, 10, 12, 18]);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
 import { wilcoxonSignedRank } from '../../../src/lib/stats';
-import { relativeError } from '../../unit/stats/relative-error';
+import { relativeError } from '../../support/relative-error';
 
 // Darwin's maize height differences as in the scipy.stats.wilcoxon docstring (REFERENCES.md §5).
 const maize = [6, 8, 14, 16, 23, 24, 28, 29, 41, -48, 49, 56, 60, -67, 75];

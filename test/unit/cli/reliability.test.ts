@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from '../../../src/cli/main';
 import { parseCsvRecords as parseCsv } from '../../../src/lib/stats';
-import { relativeError } from '../stats/relative-error';
+import { relativeError } from '../../support/relative-error';
 
 const fixtureDir = join(process.cwd(), 'test/fixtures/stats');
 const scratchDir = mkdtempSync(join(tmpdir(), 'kinnote-reliability-'));

@@ -3,8 +3,8 @@
 import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { generateDemoScenario } from '../../../src/lib/demo';
-import { buildCohortIndex, collectText, prepareCohortExport } from '../../../src/lib/export';
-import { CohortExportFailure, countCohort, startCohortExport, type CohortExportPrepared } from '../../../src/lib/workers';
+import { buildCohortIndex, collectText, countCohort, prepareCohortExport } from '../../../src/lib/export';
+import { CohortExportFailure, startCohortExport, type CohortExportPrepared } from '../../../src/lib/workers';
 import { TEST_KEY } from './cohort-fixture';
 
 const demo = generateDemoScenario({ seed: 6 }).tables;

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { quantileSorted as ssQuantileSorted, sampleStandardDeviation, mean } from 'simple-statistics';
 import jStat from 'jstat';
 import { cohortChangeSummary, quantileSorted, standardisedResponseMean, wilcoxonSignedRank, StatsInputError } from '../../../src/lib/stats';
-import { gaussian, relativeError, seededRng } from './relative-error';
+import { relativeError } from '../../support/relative-error';
+import { gaussian, mulberry32 as seededRng } from '../../support/seeded-random';
 
 describe('cohortChangeSummary', () => {
   const rng = seededRng(77);

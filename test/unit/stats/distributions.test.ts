@@ -14,7 +14,7 @@ import {
   studentTQuantile,
   logGamma,
 } from '../../../src/lib/stats';
-import { relativeError } from './relative-error';
+import { relativeError } from '../../support/relative-error';
 
 type Fn = (...args: number[]) => number;
 const byName: Record<string, Fn> = {

@@ -10,7 +10,7 @@ import {
   semFromSdAndIcc,
   StatsInputError,
 } from '../../../src/lib/stats';
-import { relativeError } from './relative-error';
+import { relativeError } from '../../support/relative-error';
 
 const forms = ['1,1', '2,1', '3,1', '1,k', '2,k', '3,k'] as const;
 // Shrout & Fleiss (1979) Table 2 (REFERENCES.md §1a, VERIFIED).

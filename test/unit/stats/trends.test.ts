@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { linearRegression, rSquared } from 'simple-statistics';
 import { mannKendall, olsTrend, segmentedRegression, StatsInputError, theilSen, theilSenInto, theilSenScratchLength } from '../../../src/lib/stats';
-import { gaussian, relativeError, seededRng } from './relative-error';
+import { relativeError } from '../../support/relative-error';
+import { gaussian, mulberry32 as seededRng } from '../../support/seeded-random';
 
 function seededSeries(seed: number, n: number): { t: Float64Array; y: Float64Array } {
   const rng = seededRng(seed);

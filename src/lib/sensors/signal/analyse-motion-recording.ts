@@ -19,6 +19,10 @@ export interface MotionPendulumResult {
  * The engine's indices are returned unchanged except that the sensor's warnings (rate, dropped
  * samples, axis, gyro–gravity disagreement) are put before the engine's own.
  * Throws MotionInputError (file, row, reason) for input either stage refuses.
+ *
+ * @example
+ * const { analysis, reconstruction } = analyseMotionRecording(parseMotionCsv(text, 'phone.csv'), { fileName: 'phone.csv' });
+ * analysis.indices.relaxationIndex; // R2 of the swing, with the phone's warnings first in analysis.indices.warnings
  */
 export function analyseMotionRecording(recording: MotionRecording, options: KneeAngleOptions = {}): MotionPendulumResult {
   const file = options.fileName ?? 'recording';

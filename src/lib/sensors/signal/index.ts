@@ -1,6 +1,6 @@
 // Pure signal code of src/lib/sensors: no DOM, no clock, no storage. Runs in Node, workers and the page.
 export { MotionInputError } from './motion-input-error';
-export { rateAxisOrder, angularVelocityInOrder, type RateAxisOrder, type RateAxisOrderEvidence } from './rate-axis-order';
+export { rateAxisOrder, type RateAxisOrder, type RateAxisOrderEvidence } from './rate-axis-order';
 export { MOTION_CSV_COLUMNS, RATE_AXES_NOTE, STANDARD_GRAVITY_MS2, deviceAngularVelocity, motionSampleCount, type MotionRecording } from './motion-recording';
 export { parseMotionCsv } from './parse-motion-csv';
 export { formatMotionCsv, formatAngleTraceCsv } from './format-motion-csv';
@@ -8,11 +8,11 @@ export { motionTiming, LOW_RATE_HZ, type MotionTiming } from './motion-timing';
 export { principalAxis, type PrincipalAxis } from './principal-axis';
 export {
   reconstructKneeAngle,
-  wrap180,
   MOUNTING_TILT_BOUND_DEG,
   type KneeAngleOptions,
   type KneeAngleReconstruction,
 } from './reconstruct-knee-angle';
+export { wrap180 } from './vector3';
 export { analyseMotionRecording, type MotionPendulumResult } from './analyse-motion-recording';
 export { axisAngleToVerticalDeg, angleBetweenDeg, type DeviceAxis } from './inclination';
 export { steadyReading, type SteadyLimits, type SteadyReading } from './steady-hold';

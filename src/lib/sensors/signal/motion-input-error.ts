@@ -1,20 +1,8 @@
-/**
- * Input the sensor code refuses: a malformed motion CSV file, or a recording from which no knee
- * angle can be reconstructed (no motion, no still start). The message names the file, the row
- * (1-based line in the file, header = line 1) when one row is at fault, and the reason.
- */
-export class MotionInputError extends Error {
-  override readonly name = 'MotionInputError';
-  readonly fileName: string;
-  /** 1-based line in the file, or null when the reason concerns the whole recording. */
-  readonly line: number | null;
-  /** The reason alone, without file and row. */
-  readonly reason: string;
+import { RecordingInputError } from '../../domain';
 
-  constructor(fileName: string, line: number | null, reason: string) {
-    super(line === null ? `${fileName}: ${reason}` : `${fileName}: row ${line}: ${reason}`);
-    this.fileName = fileName;
-    this.line = line;
-    this.reason = reason;
-  }
-}
+/**
+ * Input the sensor code refuses: the domain's one recording-input error under the name the sensor
+ * code's callers know (file, row when one row is at fault, reason). `instanceof` works with either name.
+ */
+export const MotionInputError = RecordingInputError;
+export type MotionInputError = RecordingInputError;

@@ -24,7 +24,7 @@ const MIN_SPREAD_MS2 = 0.8;
  * 'current' (alpha, beta, gamma) as the current W3C text and today's browsers; 'legacy'
  * (beta, gamma, alpha), the older text's alpha-about-z reading.
  */
-export function angularVelocityInOrder(recording: MotionRecording, i: number, order: RateAxisOrder, out: Float64Array): Float64Array {
+function angularVelocityInOrder(recording: MotionRecording, i: number, order: RateAxisOrder, out: Float64Array): Float64Array {
   if (order === 'current') {
     out[0] = recording.rateAlphaDps[i];
     out[1] = recording.rateBetaDps[i];

@@ -1,11 +1,4 @@
-import { analysePendulumTrace, parsePendulumCsv } from '$lib/pendulum';
 import type { PendulumResult } from './pendulum-protocol';
-
-/** Parse, then analyse: the same steps in the worker and in the main-thread fallback. */
-export function analysePendulumText(csvText: string, fileName: string): PendulumResult {
-  const raw = parsePendulumCsv(csvText, fileName);
-  return { analysis: analysePendulumTrace(raw, { fileName }), raw };
-}
 
 /** Buffers a result can hand over to another thread without copying. */
 export function transferablesOf(result: PendulumResult): Transferable[] {
