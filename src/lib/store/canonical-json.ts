@@ -55,6 +55,9 @@ function collectKeys(value: unknown, keys: Set<string>): boolean {
   for (const key of Object.keys(record)) {
     const item = record[key];
     if (item === undefined) continue;
+    // A replacer list makes JSON.stringify read every listed key from every object, inherited ones
+    // included: "__proto__" would write an object's prototype where the key is absent. Slow path.
+    if (key === '__proto__') return false;
     keys.add(key);
     if (!collectKeys(item, keys)) return false;
   }

@@ -33,6 +33,10 @@ describe('canonicalJson', () => {
       }),
       { numRuns: 500 },
     );
+    // Found by the property above (seeded runs failed about 1 in 7): an own "__proto__" key beside an
+    // object without one; the fast path wrote that object's prototype as "__proto__":{}.
+    const withProto = JSON.parse('{"__proto__":null,"":{}}') as unknown;
+    expect(canonicalJson(withProto)).toBe(reference(withProto));
     // Same key at two depths with different siblings, and records as a store writes them.
     const rows = [{ z: 1, id: 'b', value: { z: 2, kind: 'ordinal', id: null } }, { id: 'a', value: { rank: 0 }, a: [] }];
     expect(canonicalJson(rows)).toBe(reference(rows));
