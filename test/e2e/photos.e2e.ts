@@ -142,13 +142,34 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     expect(await seriousAxeViolations(t)).toEqual([]);
     await screenshot(t, 'photos-therapist-1024');
 
+    // The patient's language is chosen at hand-over: English is the default.
+    const languages = t.getByRole('group', { name: "The patient's language" });
+    expect(await languages.getByRole('radio', { name: 'English' }).isChecked()).toBe(true);
     await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
     const code = (await t.getByTestId('handover-code').textContent())!.trim();
     await t.getByTestId('handover-photos').getByText(/The file carries 2 photos/).waitFor();
+    await t.getByTestId('handover-language').getByText('The phone will open in English.').waitFor();
     const file = await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'programme-with-photos.json');
-    handedOver = { file, code };
     await t.getByRole('button', { name: 'Show as QR codes' }).click();
     await t.getByTestId('qr-text-only').getByText(/QR codes carry the programme's text only, never photos/).waitFor();
+    // A second hand-over in Spanish, for the Spanish-speaking patient of the next test. Choosing
+    // another language drops the prepared file (it would open in the old language).
+    await languages.getByRole('radio', { name: 'Español' }).check();
+    await expect.poll(() => t.getByTestId('handover-code').count()).toBe(0);
+    await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
+    await t.getByTestId('handover-language').getByText('The phone will open in Español.').waitFor();
+    const spanishCode = (await t.getByTestId('handover-code').textContent())!.trim();
+    handedOver = { file: await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'programme-in-spanish.json'), code: spanishCode };
+    // The hand-over card on a 360 px screen with 200 % text.
+    await t.setViewportSize(smallPhone);
+    await setTextScale(t, 2);
+    await waitForSettledPage(t, 'the hand-over at 360 px and 200 % text');
+    expect((await reflowProblems(t)).join('\n'), 'hand-over at 360 px with 200 % text').toBe('');
+    expect(await seriousAxeViolations(t)).toEqual([]);
+    mkdirSync(join('test-output', 'screenshots'), { recursive: true });
+    await t.locator('section', { has: t.getByRole('heading', { name: "Hand over to the patient's phone" }) }).screenshot({ path: join('test-output', 'screenshots', 'handover-language-360-200.png') });
+    await setTextScale(t, 1);
+    await t.setViewportSize(tablet);
 
     // The patient's phone, 360 px wide, offline.
     const phoneContext = await newAppContext(browser, { viewport: smallPhone });
@@ -184,7 +205,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await therapistContext.close();
   }, 240_000);
 
-  it('speaks Spanish on every patient screen when the phone chooses it: lang="es", no English left, axe clean, reflows at 200 % text', async () => {
+  it('speaks Spanish on every patient screen, chosen on the phone or by the therapist at hand-over: lang="es", no English left, axe clean, reflows at 200 % text', async () => {
     expect(handedOver, 'the first test handed a programme over').not.toBeNull();
     const context = await newAppContext(browser, { viewport: smallPhone });
     const p = await context.newPage();
@@ -237,10 +258,17 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await p.getByRole('button', { name: 'Recibir mi programa' }).click();
     await p.getByRole('heading', { name: 'Recibir mi programa' }).waitFor();
     await checkScreen('receive');
+    // The phone is switched back to English: the therapist's choice in the file (Español) must
+    // then be what opens the patient's screens in Spanish.
+    await p.getByRole('button', { name: 'English' }).click();
+    await p.getByRole('heading', { name: 'Get my programme' }).waitFor();
+    expect(await p.evaluate(() => document.documentElement.lang)).toBe('en');
     await p.locator('#programme-file').setInputFiles(handedOver!.file);
-    await p.getByLabel('Código de tu terapeuta').fill(handedOver!.code);
-    await p.getByRole('button', { name: 'Abrir mi programa' }).click();
+    await p.getByLabel('Code from your therapist').fill(handedOver!.code);
+    await p.getByRole('button', { name: 'Open my programme' }).click();
     await p.getByText(/ya está en este teléfono/).waitFor({ timeout: 30_000 });
+    expect(await p.evaluate(() => document.documentElement.lang)).toBe('es');
+    expect(await p.getByRole('button', { name: 'Español' }).getAttribute('aria-pressed')).toBe('true');
 
     const menu = p.getByRole('navigation', { name: 'Main' });
     await menu.getByRole('link', { name: 'Hoy' }).click();
