@@ -71,6 +71,7 @@ async function savedDownload(page: Page, click: () => Promise<void>, name: strin
 }
 
 interface PhotoRow {
+  programmeId: string;
   exercise: number;
   position: number;
   type: string;
@@ -91,7 +92,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await setUpDevice(t, { demo: true });
 
     // A demo patient with a saved programme (the demo gives one to some patients).
-    const [demoProgramme] = await tableRows<{ patientId: string }>(t, 'homeProgrammes');
+    const [demoProgramme] = await tableRows<{ id: string; patientId: string }>(t, 'homeProgrammes');
     expect(demoProgramme, 'a demo patient with a programme').toBeDefined();
     await t.goto(`/patients/${demoProgramme!.patientId}/programme`);
     await t.getByRole('heading', { name: 'The programme' }).waitFor();
@@ -105,20 +106,33 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     writeFileSync(fakePicture, 'this is not really a PNG');
 
     const first = t.getByRole('group', { name: 'Exercise 1' });
+    const photosOfDemo = async () => (await tableRows<PhotoRow>(t, 'exercisePhotos')).filter((r) => r.programmeId === demoProgramme!.id);
+    // The demo programme comes with an invented drawing of its calf stretch, painted and encoded
+    // as WebP when the demo was loaded, so the hand-over with a photo can be shown from the demo.
+    await first.getByText('Photos (1 of 2)').waitFor();
+    const [drawn] = await photosOfDemo();
+    expect([drawn!.exercise, drawn!.position, drawn!.type]).toEqual([0, 1, 'image/webp']);
+    expect(byteLength(drawn!.bytes)).toBeLessThanOrEqual(150_000);
+    await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
+    await t.getByTestId('handover-photos').getByText(/The file carries 1 photo \(/).waitFor();
+    mkdirSync(join('test-output', 'screenshots'), { recursive: true });
+    await first.locator('img').first().screenshot({ path: join('test-output', 'screenshots', 'demo-drawing.png') });
+    // Room for the therapist's own photos.
+    await first.getByRole('button', { name: 'Remove photo 1' }).click();
     await first.getByText('Photos (0 of 2)').waitFor();
     // Bad files: a clear error naming the file, nothing kept.
     await t.locator('#photo-0-file').setInputFiles(notAPicture);
     await first.getByText(/"notes\.txt" is not a picture \(it is text\/plain\)/).waitFor();
     await t.locator('#photo-0-file').setInputFiles(fakePicture);
     await first.getByText(/"holiday\.png" could not be read as a picture/).waitFor({ timeout: 20_000 });
-    expect(await tableRows(t, 'exercisePhotos')).toEqual([]);
+    expect(await photosOfDemo()).toEqual([]);
 
     // Two good pictures at once; the camera input is there for the tablet's camera.
     expect(await t.locator('#photo-0-camera').getAttribute('capture')).toBe('environment');
     expect(await t.locator('#photo-0-camera').getAttribute('accept')).toBe('image/*');
     await t.locator('#photo-0-file').setInputFiles([big, small]);
     await first.getByText('Photos (2 of 2)').waitFor({ timeout: 60_000 });
-    const rows = await tableRows<PhotoRow>(t, 'exercisePhotos');
+    const rows = await photosOfDemo();
     expect(rows.map((r) => [r.exercise, r.position, r.type])).toEqual([
       [0, 1, 'image/webp'],
       [0, 2, 'image/webp'],
@@ -183,7 +197,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await p.getByLabel('Code from your therapist').fill(code);
     await p.getByRole('button', { name: 'Open my programme' }).click();
     await p.getByText(/is on this phone/).waitFor({ timeout: 30_000 });
-    const phoneRows = await tableRows<PhotoRow>(p, 'exercisePhotos');
+    const phoneRows = (await tableRows<PhotoRow>(p, 'exercisePhotos')).filter((r) => r.programmeId === demoProgramme!.id);
     expect(phoneRows.map((r) => [r.exercise, r.position, byteLength(r.bytes)])).toEqual(rows.map((r) => [r.exercise, r.position, byteLength(r.bytes)]));
 
     await p.getByRole('link', { name: "Go to today's exercises" }).click();
