@@ -44,7 +44,7 @@ export function calfStretchDrawing(): LineDrawing {
       { kind: 'path', points: [shoulder, [545, 225], [wallX - 4, 215]], stroke: INK, lineWidth: LIMB - 2 },
       { kind: 'circle', x: 505, y: 150, radius: 42, fill: INK },
       // Where the stretch is felt: the calf of the straight back leg.
-      { kind: 'circle', x: 262, y: 470, radius: 26, fill: 'rgba(200, 60, 40, 0.45)' },
+      { kind: 'circle', x: 292, y: 448, radius: 28, fill: 'rgba(200, 60, 40, 0.45)' },
     ],
   };
 }
