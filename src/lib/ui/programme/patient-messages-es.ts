@@ -133,22 +133,6 @@ export const SPANISH_MESSAGES: PatientMessages = {
   leaveRemoving: 'Borrando…',
   leaveReading: 'Leyendo lo que hay en este teléfono…',
   leaveKeep: 'Conservar mi programa y volver',
-  qrTooBig: 'Es demasiado grande para códigos QR. Comparte el archivo.',
-  qrImageAlt: (index, count, label) => `Código QR ${index} de ${count} del ${label}`,
-  qrCaption: (index, count) => `Código ${index} de ${count}`,
-  qrPrevious: 'Código anterior',
-  qrNext: 'Código siguiente',
-  qrDrawing: 'Dibujando los códigos QR…',
-  qrAllRead: 'Todos los códigos leídos.',
-  qrSomeRead: (have, of) => `${have} de ${of} códigos leídos.${have < of ? ' Muestra el código siguiente.' : ''}`,
-  qrPictureUnreadable: (file) => `No se pudo leer la imagen ${file}.`,
-  qrNoneFound: 'No se encontró ningún código QR en esa imagen. Inténtalo de nuevo, más cerca y con buena luz.',
-  qrNoCamera: 'Este navegador no puede usar la cámara aquí. Usa «Leer desde fotos» o abre el archivo.',
-  qrCameraRefused: 'No se pudo abrir la cámara (permiso denegado o sin cámara). Usa «Leer desde fotos» o abre el archivo.',
-  qrStopCamera: 'Detener la cámara',
-  qrScan: 'Escanear con la cámara',
-  qrFromPhotos: 'Leer desde fotos',
-  qrReportLabel: 'informe',
   dosePart: (part: DosePart): string => {
     switch (part.kind) {
       case 'hold':

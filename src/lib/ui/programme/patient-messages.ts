@@ -152,23 +152,6 @@ const en = {
   leaveRemoving: 'Removing…',
   leaveReading: 'Reading what is on this phone…',
   leaveKeep: 'Keep my programme and go back',
-  // QR codes (shown and read on the phone; the therapist's screens use the English)
-  qrTooBig: 'This is too large for QR codes. Share the file instead.',
-  qrImageAlt: (index: number, count: number, label: string) => `QR code ${index} of ${count} of the ${label}`,
-  qrCaption: (index: number, count: number) => `Code ${index} of ${count}`,
-  qrPrevious: 'Previous code',
-  qrNext: 'Next code',
-  qrDrawing: 'Drawing the QR codes…',
-  qrAllRead: 'All codes read.',
-  qrSomeRead: (have: number, of: number) => `${have} of ${of} codes read.${have < of ? ' Show the next code.' : ''}`,
-  qrPictureUnreadable: (file: string) => `Could not read the picture ${file}.`,
-  qrNoneFound: 'No QR code found in that picture. Try again, closer and in good light.',
-  qrNoCamera: 'This browser cannot use the camera here. Use "Read from photos" or open the file instead.',
-  qrCameraRefused: 'The camera could not be opened (permission refused or no camera). Use "Read from photos" or open the file instead.',
-  qrStopCamera: 'Stop the camera',
-  qrScan: 'Scan with the camera',
-  qrFromPhotos: 'Read from photos',
-  qrReportLabel: 'report',
   // Dose words
   dosePart: (part: DosePart): string => {
     switch (part.kind) {
@@ -196,9 +179,6 @@ const en = {
 export type PatientMessages = { readonly [K in keyof typeof en]: (typeof en)[K] extends string ? string : (typeof en)[K] };
 
 export { PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage };
-
-/** The words of the QR components (QrCodes, QrReader), which the patient's and the therapist's screens share. */
-export type QrMessages = Pick<PatientMessages, Extract<keyof PatientMessages, `qr${string}`>>;
 
 /** English, the source language: always loaded. */
 export const ENGLISH_MESSAGES: PatientMessages = en;
