@@ -71,6 +71,7 @@ async function savedDownload(page: Page, click: () => Promise<void>, name: strin
 }
 
 interface PhotoRow {
+  programmeId: string;
   exercise: number;
   position: number;
   type: string;
@@ -91,7 +92,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await setUpDevice(t, { demo: true });
 
     // A demo patient with a saved programme (the demo gives one to some patients).
-    const [demoProgramme] = await tableRows<{ patientId: string }>(t, 'homeProgrammes');
+    const [demoProgramme] = await tableRows<{ id: string; patientId: string }>(t, 'homeProgrammes');
     expect(demoProgramme, 'a demo patient with a programme').toBeDefined();
     await t.goto(`/patients/${demoProgramme!.patientId}/programme`);
     await t.getByRole('heading', { name: 'The programme' }).waitFor();
@@ -105,20 +106,33 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     writeFileSync(fakePicture, 'this is not really a PNG');
 
     const first = t.getByRole('group', { name: 'Exercise 1' });
+    const photosOfDemo = async () => (await tableRows<PhotoRow>(t, 'exercisePhotos')).filter((r) => r.programmeId === demoProgramme!.id);
+    // The demo programme comes with an invented drawing of its calf stretch, painted and encoded
+    // as WebP when the demo was loaded, so the hand-over with a photo can be shown from the demo.
+    await first.getByText('Photos (1 of 2)').waitFor();
+    const [drawn] = await photosOfDemo();
+    expect([drawn!.exercise, drawn!.position, drawn!.type]).toEqual([0, 1, 'image/webp']);
+    expect(byteLength(drawn!.bytes)).toBeLessThanOrEqual(150_000);
+    await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
+    await t.getByTestId('handover-photos').getByText(/The file carries 1 photo \(/).waitFor();
+    mkdirSync(join('test-output', 'screenshots'), { recursive: true });
+    await first.locator('img').first().screenshot({ path: join('test-output', 'screenshots', 'demo-drawing.png') });
+    // Room for the therapist's own photos.
+    await first.getByRole('button', { name: 'Remove photo 1' }).click();
     await first.getByText('Photos (0 of 2)').waitFor();
     // Bad files: a clear error naming the file, nothing kept.
     await t.locator('#photo-0-file').setInputFiles(notAPicture);
     await first.getByText(/"notes\.txt" is not a picture \(it is text\/plain\)/).waitFor();
     await t.locator('#photo-0-file').setInputFiles(fakePicture);
     await first.getByText(/"holiday\.png" could not be read as a picture/).waitFor({ timeout: 20_000 });
-    expect(await tableRows(t, 'exercisePhotos')).toEqual([]);
+    expect(await photosOfDemo()).toEqual([]);
 
     // Two good pictures at once; the camera input is there for the tablet's camera.
     expect(await t.locator('#photo-0-camera').getAttribute('capture')).toBe('environment');
     expect(await t.locator('#photo-0-camera').getAttribute('accept')).toBe('image/*');
     await t.locator('#photo-0-file').setInputFiles([big, small]);
     await first.getByText('Photos (2 of 2)').waitFor({ timeout: 60_000 });
-    const rows = await tableRows<PhotoRow>(t, 'exercisePhotos');
+    const rows = await photosOfDemo();
     expect(rows.map((r) => [r.exercise, r.position, r.type])).toEqual([
       [0, 1, 'image/webp'],
       [0, 2, 'image/webp'],
@@ -142,13 +156,36 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     expect(await seriousAxeViolations(t)).toEqual([]);
     await screenshot(t, 'photos-therapist-1024');
 
+    // The patient's language is chosen at hand-over: English is the default.
+    const languages = t.getByRole('group', { name: "The patient's language" });
+    expect(await languages.getByRole('radio', { name: 'English' }).isChecked()).toBe(true);
     await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
     const code = (await t.getByTestId('handover-code').textContent())!.trim();
     await t.getByTestId('handover-photos').getByText(/The file carries 2 photos/).waitFor();
+    await t.getByTestId('handover-language').getByText('The phone will open in English.').waitFor();
     const file = await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'programme-with-photos.json');
-    handedOver = { file, code };
     await t.getByRole('button', { name: 'Show as QR codes' }).click();
     await t.getByTestId('qr-text-only').getByText(/QR codes carry the programme's text only, never photos/).waitFor();
+    // A second hand-over in Spanish, for the Spanish-speaking patient of the next test. Choosing
+    // another language drops the prepared file (it would open in the old language).
+    await languages.getByRole('radio', { name: 'Español' }).check();
+    await expect.poll(() => t.getByTestId('handover-code').count()).toBe(0);
+    await t.getByRole('button', { name: 'Prepare the hand-over' }).click();
+    await t.getByTestId('handover-language').getByText('The phone will open in Español.').waitFor();
+    const spanishCode = (await t.getByTestId('handover-code').textContent())!.trim();
+    handedOver = { file: await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'programme-in-spanish.json'), code: spanishCode };
+    // The hand-over card on a 360 px screen with 200 % text.
+    await t.setViewportSize(smallPhone);
+    await setTextScale(t, 2);
+    await waitForSettledPage(t, 'the hand-over at 360 px and 200 % text');
+    expect((await reflowProblems(t)).join('\n'), 'hand-over at 360 px with 200 % text').toBe('');
+    expect(await seriousAxeViolations(t)).toEqual([]);
+    mkdirSync(join('test-output', 'screenshots'), { recursive: true });
+    await t.getByRole('button', { name: 'Hide QR codes' }).click();
+    await t.getByRole('group', { name: "The patient's language" }).scrollIntoViewIfNeeded();
+    await t.screenshot({ path: join('test-output', 'screenshots', 'handover-language-360-200.png') });
+    await setTextScale(t, 1);
+    await t.setViewportSize(tablet);
 
     // The patient's phone, 360 px wide, offline.
     const phoneContext = await newAppContext(browser, { viewport: smallPhone });
@@ -162,7 +199,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await p.getByLabel('Code from your therapist').fill(code);
     await p.getByRole('button', { name: 'Open my programme' }).click();
     await p.getByText(/is on this phone/).waitFor({ timeout: 30_000 });
-    const phoneRows = await tableRows<PhotoRow>(p, 'exercisePhotos');
+    const phoneRows = (await tableRows<PhotoRow>(p, 'exercisePhotos')).filter((r) => r.programmeId === demoProgramme!.id);
     expect(phoneRows.map((r) => [r.exercise, r.position, byteLength(r.bytes)])).toEqual(rows.map((r) => [r.exercise, r.position, byteLength(r.bytes)]));
 
     await p.getByRole('link', { name: "Go to today's exercises" }).click();
@@ -184,7 +221,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await therapistContext.close();
   }, 240_000);
 
-  it('speaks Spanish on every patient screen when the phone chooses it: lang="es", no English left, axe clean, reflows at 200 % text', async () => {
+  it('speaks Spanish on every patient screen, chosen on the phone or by the therapist at hand-over: lang="es", no English left, axe clean, reflows at 200 % text', async () => {
     expect(handedOver, 'the first test handed a programme over').not.toBeNull();
     const context = await newAppContext(browser, { viewport: smallPhone });
     const p = await context.newPage();
@@ -237,10 +274,17 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await p.getByRole('button', { name: 'Recibir mi programa' }).click();
     await p.getByRole('heading', { name: 'Recibir mi programa' }).waitFor();
     await checkScreen('receive');
+    // The phone is switched back to English: the therapist's choice in the file (Español) must
+    // then be what opens the patient's screens in Spanish.
+    await p.getByRole('button', { name: 'English' }).click();
+    await p.getByRole('heading', { name: 'Get my programme' }).waitFor();
+    expect(await p.evaluate(() => document.documentElement.lang)).toBe('en');
     await p.locator('#programme-file').setInputFiles(handedOver!.file);
-    await p.getByLabel('Código de tu terapeuta').fill(handedOver!.code);
-    await p.getByRole('button', { name: 'Abrir mi programa' }).click();
+    await p.getByLabel('Code from your therapist').fill(handedOver!.code);
+    await p.getByRole('button', { name: 'Open my programme' }).click();
     await p.getByText(/ya está en este teléfono/).waitFor({ timeout: 30_000 });
+    expect(await p.evaluate(() => document.documentElement.lang)).toBe('es');
+    expect(await p.getByRole('button', { name: 'Español' }).getAttribute('aria-pressed')).toBe('true');
 
     const menu = p.getByRole('navigation', { name: 'Main' });
     await menu.getByRole('link', { name: 'Hoy' }).click();

@@ -9,3 +9,4 @@ export {
   type DemoScenario,
   type DemoTables,
 } from './generate-demo-scenario';
+export { DEMO_DRAWN_EXERCISE, calfStretchDrawing, type DrawingShape, type LineDrawing } from './demo-drawing';

@@ -31,9 +31,12 @@ export { type SealOptions } from './sealed-transfer';
 export {
   PROGRAMME_PACKAGE_FORMAT,
   PROGRAMME_PACKAGE_VERSION,
+  PATIENT_LANGUAGES,
   createProgrammePackage,
+  isPatientLanguage,
   openProgrammePackage,
   type OpenedProgrammePackage,
+  type PatientLanguage,
   type ProgrammePackage,
 } from './programme-package';
 export { HOME_REPORT_FORMAT, HOME_REPORT_VERSION, createHomeReport, openHomeReport, type HomeReport } from './home-report';

@@ -8,7 +8,6 @@ import {
   importBackup,
   photosOfProgramme,
   readLocalState,
-  replaceProgrammePhotos,
   writeLocalState,
   type KinnoteStore,
   type MergeReport,
@@ -76,11 +75,11 @@ export async function choosePatientMode(store: KinnoteStore): Promise<DeviceProf
 /**
  * Saves an opened programme package on the patient's phone: the programme record (keeping its id,
  * so a re-sent or corrected programme merges by id) and, the first time, a Device record for the
- * phone. Writes go through the store's ordinary import (validated, merged, audited). The phone
- * writes as itself under the clinician who issued the programme. Then the photos: a package with
- * photos replaces the programme's photos on the phone; one without (sent as QR codes) keeps those
- * whose exercise still has the same words at the same place, so a photo never shows beside
- * another exercise. Throws ProgrammeTransferError
+ * phone. Writes go through the store's ordinary import (validated, merged, audited), photos in
+ * the same transaction as the programme (all or nothing). The phone writes as itself under the
+ * clinician who issued the programme. A package with photos replaces the programme's photos on the
+ * phone; one without (sent as QR codes) keeps those whose exercise still has the same words at the
+ * same place, so a photo never shows beside another exercise. Throws ProgrammeTransferError
  * ForeignPatient when the phone follows another patient, or holds any record of another patient.
  */
 export async function acceptProgrammePackage(
@@ -110,6 +109,13 @@ export async function acceptProgrammePackage(
   if (profile.deviceId === null) {
     devices.push({ id: deviceId, createdAt: at, updatedAt: at, deviceId, clinicianId: pkg.programme.clinicianId, deleted: false, name: `Home phone of ${pkg.patient.code}`, platform: options.platform });
   }
+  const items = pkg.programme.items;
+  let photos: readonly ExercisePhoto[] = pkg.photos;
+  if (photos.length === 0) {
+    photos = (await photosOfProgramme(store, pkg.programme.id))
+      .filter((p) => before?.items[p.exercise]?.name === items[p.exercise]?.name)
+      .map(({ id: _id, addedAtMs: _at, ...photo }) => photo);
+  }
   const bundle = await createBundle(
     { devices, homeProgrammes: [pkg.programme] },
     {
@@ -122,15 +128,10 @@ export async function acceptProgrammePackage(
       scope: { kind: 'patient', patientId: pkg.patient.id },
       protectedContent: 'omitted',
     },
+    photos,
   );
   // The phone never holds the patient's record: the package vouches for the patient it names.
-  const merge = await importBackup(store, bundle, { knownPatientIds: [pkg.patient.id] });
-  const items = pkg.programme.items;
-  let photos: readonly ExercisePhoto[] = pkg.photos;
-  if (photos.length === 0) {
-    photos = (await photosOfProgramme(store, pkg.programme.id)).filter((p) => before?.items[p.exercise]?.name === items[p.exercise]?.name);
-  }
-  await replaceProgrammePhotos(store, pkg.programme.id, photos, items.length);
+  const merge = await importBackup(store, bundle, { knownPatientIds: [pkg.patient.id], photos: 'replace' });
   const next: DeviceProfile = {
     mode: 'patient',
     patientId: pkg.patient.id,

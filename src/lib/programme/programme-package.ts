@@ -8,13 +8,22 @@ import { ProgrammeTransferError } from './programme-transfer-error';
 import { openTransfer, sealTransfer, type SealOptions } from './sealed-transfer';
 
 export const PROGRAMME_PACKAGE_FORMAT = 'kinnote-home-programme' as const;
-export const PROGRAMME_PACKAGE_VERSION = 3;
+export const PROGRAMME_PACKAGE_VERSION = 4;
 /**
  * Version 1 (before structured doses) is still read: its items have no dose and keep their text.
- * Version 2 had no photos; version 3 may carry photos (none when sent as QR codes).
+ * Version 2 had no photos; version 3 may carry photos (none when sent as QR codes); version 4 may
+ * name the language the patient's screens open in (an app that reads only 3 says "update the app"
+ * rather than refusing an unknown field).
  */
-const READABLE_VERSIONS: readonly number[] = [1, 2, 3];
-const VersionSchema = v.union([v.literal(1), v.literal(2), v.literal(3)]);
+const READABLE_VERSIONS: readonly number[] = [1, 2, 3, 4];
+const VersionSchema = v.union([v.literal(1), v.literal(2), v.literal(3), v.literal(4)]);
+
+/** The languages the patient's screens speak (BCP 47 primary subtags); English is the source. */
+export const PATIENT_LANGUAGES = ['en', 'es'] as const;
+export type PatientLanguage = (typeof PATIENT_LANGUAGES)[number];
+export function isPatientLanguage(value: unknown): value is PatientLanguage {
+  return typeof value === 'string' && (PATIENT_LANGUAGES as readonly string[]).includes(value);
+}
 
 /** A photo as it travels: its bytes in base64 (RFC 4648). Limits are checked again after decoding. */
 const PackagePhotoSchema = v.strictObject({
@@ -41,6 +50,8 @@ const PackageSchema = v.strictObject({
   patient: v.strictObject({ id: IdSchema, code: PatientCodeSchema }),
   programme: HomeProgrammeSchema,
   photos: v.optional(v.array(PackagePhotoSchema), []),
+  /** The language the therapist chose for the patient's screens; absent: the phone keeps its own. */
+  language: v.optional(v.picklist(PATIENT_LANGUAGES)),
 });
 
 export interface ProgrammePackage {
@@ -50,6 +61,7 @@ export interface ProgrammePackage {
   readonly patient: { readonly id: string; readonly code: string };
   readonly programme: HomeProgramme;
   readonly photos?: readonly PackagePhoto[];
+  readonly language?: PatientLanguage;
 }
 
 type PackagePhoto = v.InferOutput<typeof PackagePhotoSchema>;
@@ -67,7 +79,7 @@ export interface OpenedProgrammePackage extends Omit<ProgrammePackage, 'photos'>
  * dosages travel as written.
  */
 export async function createProgrammePackage(
-  input: { patient: { id: string; code: string }; programme: HomeProgramme; issuedAt: string; photos?: readonly ExercisePhoto[] },
+  input: { patient: { id: string; code: string }; programme: HomeProgramme; issuedAt: string; photos?: readonly ExercisePhoto[]; language?: PatientLanguage },
   code: string,
   options: SealOptions,
 ): Promise<string> {
@@ -82,6 +94,7 @@ export async function createProgrammePackage(
     patient: { id: input.patient.id, code: input.patient.code },
     programme: input.programme,
     ...(photos.length > 0 ? { photos } : {}),
+    ...(input.language ? { language: input.language } : {}),
   };
   checkPackage(body);
   return sealTransfer(canonicalJson(body), code, options);

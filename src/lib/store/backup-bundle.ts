@@ -1,6 +1,7 @@
 import * as v from 'valibot';
-import { PROTECTED_TEXT_FIELDS, TABLE_NAMES, checkTimestamps, validateRecord, type RecordTables, type TableName } from '../domain';
+import { PROTECTED_TEXT_FIELDS, TABLE_NAMES, checkTimestamps, validateRecord, type ExercisePhoto, type RecordTables, type TableName } from '../domain';
 import { base64ToFloat64, float64ToBase64 } from './base64';
+import { sortPhotos, toPortablePhoto, verifyBundlePhotos, type PortablePhoto } from './backup-photos';
 import { canonicalJson } from './canonical-json';
 import { sha256Hex } from './crypto-box';
 import type { Actor } from './store-context';
@@ -30,16 +31,20 @@ export interface BackupBundle {
   readonly scope: BundleScope;
   readonly protectedContent: 'included' | 'omitted';
   readonly tables: { readonly [K in TableName]: readonly Record<string, unknown>[] };
+  /** The exercise photos of the bundle's programmes (backup-photos.ts); absent in bundles made before photos were backed up. */
+  readonly photos?: readonly PortablePhoto[];
   readonly checksum: { readonly algorithm: 'SHA-256'; readonly value: string };
 }
 
-export type BundleHeader = Omit<BackupBundle, 'tables' | 'checksum'>;
+export type BundleHeader = Omit<BackupBundle, 'tables' | 'checksum' | 'photos'>;
 
 /** A bundle that passed every check, with its records decoded to domain form. */
 export interface VerifiedBundle {
   readonly header: BundleHeader;
   readonly checksum: string;
   readonly tables: BundleTables;
+  /** The photos, decoded and checked; null when the bundle carries none (made before photos were backed up). */
+  readonly photos: readonly ExercisePhoto[] | null;
 }
 
 export function emptyTables(): BundleTables {
@@ -91,13 +96,13 @@ const byId = (a: { id: string }, b: { id: string }) => (a.id < b.id ? -1 : a.id 
  * the same bytes), encodes traces and computes the checksum. Cost: one canonical serialisation and
  * one SHA-256 over it.
  */
-export async function createBundle(tables: Partial<BundleTables>, header: BundleHeader): Promise<BackupBundle> {
+export async function createBundle(tables: Partial<BundleTables>, header: BundleHeader, photos?: readonly ExercisePhoto[]): Promise<BackupBundle> {
   const portable: Record<string, Record<string, unknown>[]> = {};
   for (const table of TABLE_NAMES) {
     const records = [...((tables[table] ?? []) as { id: string }[])].sort(byId);
     portable[table] = records.map((r) => toPortable(table, r));
   }
-  const body = { ...header, tables: portable as unknown as BackupBundle['tables'] };
+  const body = { ...header, tables: portable as unknown as BackupBundle['tables'], ...(photos ? { photos: sortPhotos(photos).map(toPortablePhoto) } : {}) };
   const value = await sha256Hex(canonicalJson(body));
   return { ...body, checksum: { algorithm: 'SHA-256', value } };
 }
@@ -117,6 +122,7 @@ const EnvelopeSchema = v.object({
   scope: v.variant('kind', [v.object({ kind: v.literal('all') }), v.object({ kind: v.literal('patient'), patientId: v.string() })]),
   protectedContent: v.picklist(['included', 'omitted']),
   tables: v.object(Object.fromEntries(TABLE_NAMES.map((t) => [t, v.array(v.unknown())])) as Record<TableName, v.ArraySchema<v.UnknownSchema, undefined>>),
+  photos: v.optional(v.array(v.unknown())),
   checksum: v.object({ algorithm: v.literal('SHA-256'), value: v.pipe(v.string(), v.regex(/^[0-9a-f]{64}$/)) }),
 });
 
@@ -168,7 +174,7 @@ export async function verifyBundle(parsed: unknown, nowMs: number, sourceText?: 
 
   const issues: StoreIssue[] = [];
   const tables = emptyTables();
-  const { tables: _bodyTables, ...header } = body;
+  const { tables: _bodyTables, photos: rawPhotos, ...header } = body;
   const omitted = body.protectedContent === 'omitted';
   for (const table of TABLE_NAMES) {
     const seen = new Set<string>();
@@ -211,10 +217,12 @@ export async function verifyBundle(parsed: unknown, nowMs: number, sourceText?: 
       }
     });
   }
+  const photos = verifyBundlePhotos(rawPhotos, tables.homeProgrammes);
+  issues.push(...photos.issues);
   if (issues.length > 0) {
     throw new StoreError('InvalidBundle', `invalid backup, nothing imported: ${describeIssues(issues)}`, { issues });
   }
-  return { header, checksum: checksum.value, tables };
+  return { header, checksum: checksum.value, tables, photos: photos.photos };
 }
 
 /**

@@ -6,9 +6,9 @@ import { StoreError, toStoreError } from './store-error';
  * Photos of home-programme exercises, in their own table (schema v8), one row per programme,
  * exercise and position. Why not inside the HomeProgramme record: the audit keeps a full copy of a
  * record before and after every update, so ~150 KB images in the record would be copied into the
- * audit on every change of the programme's text. Photos are not records: no audit, no tombstones,
- * not in backups (a backup restores the programme without its photos); they travel to the
- * patient's phone in the programme file only.
+ * audit on every change of the programme's text. Photos are not records: no audit, no tombstones.
+ * They travel in backups beside the records (backup-photos.ts, import-photos.ts) and to the
+ * patient's phone in the programme file.
  */
 export const EXERCISE_PHOTOS_TABLE = 'exercisePhotos';
 

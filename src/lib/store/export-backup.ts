@@ -1,6 +1,7 @@
 import { TABLE_NAMES, type RandomBytes, type TableName } from '../domain';
 import { BUNDLE_FORMAT, BUNDLE_FORMAT_VERSION, createBundle, emptyTables, serializeBundle, type BackupBundle, type BundleScope, type BundleTables } from './backup-bundle';
 import { cryptoRandomBytes } from './crypto-box';
+import { EXERCISE_PHOTOS_TABLE, type ExercisePhotoRow } from './exercise-photos';
 import { encryptBundleText } from './encrypted-bundle';
 import type { KinnoteStore } from './open-store';
 import type { Row } from './rows';
@@ -31,8 +32,11 @@ export async function exportBackup(store: KinnoteStore, options: ExportOptions):
   }
   const scope = options.scope ?? { kind: 'all' as const };
   const rows: Partial<Record<TableName, unknown[]>> = {};
+  let photoRows: ExercisePhotoRow[] = [];
   try {
-    await store.db.transaction('r', [...TABLE_NAMES], async () => {
+    await store.db.transaction('r', [...TABLE_NAMES, EXERCISE_PHOTOS_TABLE], async () => {
+      // The photos of the exported programmes (read in the same snapshot), filtered below.
+      photoRows = await store.db.table<ExercisePhotoRow, string>(EXERCISE_PHOTOS_TABLE).toArray();
       for (const table of TABLE_NAMES) {
         const t = store.db.table(table);
         if (scope.kind === 'patient' && PATIENT_TABLES.has(table)) rows[table] = await t.where('patientId').equals(scope.patientId).toArray();
@@ -50,6 +54,8 @@ export async function exportBackup(store: KinnoteStore, options: ExportOptions):
     for (const table of TABLE_NAMES) if (table !== 'audit') for (const r of rows[table] ?? []) ids.add((r as { id: string }).id);
     rows.audit = (rows.audit ?? []).filter((a) => ids.has((a as { recordId: string | null }).recordId ?? ''));
   }
+  const exported = new Set((rows.homeProgrammes ?? []).map((p) => (p as { id: string; deleted: boolean }).deleted ? '' : (p as { id: string }).id));
+  const photos = photoRows.filter((r) => exported.has(r.programmeId)).map(({ id: _id, addedAtMs: _at, ...photo }) => photo);
   const tables = emptyTables();
   for (const table of TABLE_NAMES) {
     const codec = store.context.codecs[table];
@@ -71,7 +77,7 @@ export async function exportBackup(store: KinnoteStore, options: ExportOptions):
     source: options.source ?? 'export',
     scope,
     protectedContent: include ? 'included' : 'omitted',
-  });
+  }, photos);
 }
 
 /**

@@ -5,6 +5,8 @@ import { canonicalJson } from './canonical-json';
 import { settleCaseloadSummaries } from './caseload-summaries';
 import { checkReferences, type OutsideLookup } from './check-references';
 import { decryptBundleText, isEncryptedBundle } from './encrypted-bundle';
+import { planPhotoImport, writePhotoImport, type PhotoMode } from './import-photos';
+import { EXERCISE_PHOTOS_TABLE } from './exercise-photos';
 import type { KinnoteStore } from './open-store';
 import { SEALED_MARKER, auditSnapshot } from './rows';
 import { auditEntry, nextTimestamp, requireActor } from './store-context';
@@ -38,6 +40,8 @@ export interface MergeReport {
   readonly changed: boolean;
   readonly counts: Record<TableName, TableCounts>;
   readonly conflicts: readonly MergeConflict[];
+  /** Exercise photos written and removed (photos are no records: they have no counts above). */
+  readonly photos: { readonly written: number; readonly removed: number };
 }
 
 export interface ReadBackupOptions {
@@ -100,7 +104,7 @@ interface Planned {
 export async function importBackup(
   store: KinnoteStore,
   input: string | unknown,
-  options: { passphrase?: string; knownPatientIds?: readonly string[] } = {},
+  options: { passphrase?: string; knownPatientIds?: readonly string[]; photos?: PhotoMode } = {},
 ): Promise<MergeReport> {
   const outside: OutsideLookup = async (table, ids) => {
     try {
@@ -190,8 +194,10 @@ export async function importBackup(
     }
   }
 
-  const changed = writes.length > 0 || conflictAudits.length > 0;
-  const report: MergeReport = { header: bundle.header, checksum: bundle.checksum, changed, counts, conflicts };
+  const programmeIds = (list: Planned[]) => new Set(list.filter((w) => w.table === 'homeProgrammes').map((w) => w.id));
+  const photoPlan = await planPhotoImport(store, bundle, { written: programmeIds(writes), keptLocal: programmeIds(checks) }, options.photos ?? 'merge');
+  const changed = writes.length > 0 || conflictAudits.length > 0 || photoPlan.written + photoPlan.removed > 0;
+  const report: MergeReport = { header: bundle.header, checksum: bundle.checksum, changed, counts, conflicts, photos: { written: photoPlan.written, removed: photoPlan.removed } };
   if (!changed) return report;
 
   const audits: AuditEntry[] = conflictAudits.map(({ conflict, before, after }) =>
@@ -211,7 +217,7 @@ export async function importBackup(
   );
 
   try {
-    await store.db.transaction('rw', [...TABLE_NAMES], async (tx) => {
+    await store.db.transaction('rw', [...TABLE_NAMES, EXERCISE_PHOTOS_TABLE], async (tx) => {
       // One bulkGet per table re-checks that nothing planned on changed since the read phase.
       const planned = [...writes, ...checks];
       for (const table of TABLE_NAMES) {
@@ -229,6 +235,7 @@ export async function importBackup(
         for (let i = 0; i < rows.length; i += WRITE_CHUNK) await store.db.table(table).bulkPut(rows.slice(i, i + WRITE_CHUNK));
       }
       await store.db.table('audit').bulkAdd(audits);
+      await writePhotoImport(store, photoPlan);
       await settleCaseloadSummaries(store.db, tx);
     });
   } catch (error) {

@@ -70,6 +70,23 @@ describe('programme package', () => {
     t.store.close();
   });
 
+  it("carries the patient's language the therapist chose, and refuses one the phone cannot speak", async () => {
+    const t = await therapist();
+    const issuedAt = '2025-03-01T10:00:00.000Z';
+    const spanish = await openProgrammePackage(await createProgrammePackage({ patient: t.patient, programme: t.programme, issuedAt, language: 'es' }, CODE, sealing), CODE);
+    expect(spanish.language).toBe('es');
+    expect(spanish.formatVersion).toBe(4);
+    // None chosen: the phone keeps its own language.
+    const none = await openProgrammePackage(await createProgrammePackage({ patient: t.patient, programme: t.programme, issuedAt }, CODE, sealing), CODE);
+    expect(none.language).toBeUndefined();
+    // A version-3 file (before languages) is still read.
+    const v3 = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 3, issuedAt, patient: { id: t.patient.id, code: t.patient.code }, programme: t.programme }), CODE, sealing);
+    expect((await openProgrammePackage(v3, CODE)).plan).toEqual(plan);
+    const klingon = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 4, issuedAt, patient: { id: t.patient.id, code: t.patient.code }, programme: t.programme, language: 'tlh' }), CODE, sealing);
+    await expect(openProgrammePackage(klingon, CODE)).rejects.toMatchObject({ code: 'Invalid', message: expect.stringContaining('language') });
+    t.store.close();
+  });
+
   it('refuses a wrong code, a tampered file, another kind of file, and extra content', async () => {
     const t = await therapist();
     const text = await createProgrammePackage({ patient: t.patient, programme: t.programme, issuedAt: '2025-03-01T10:00:00.000Z' }, CODE, sealing);
@@ -95,7 +112,7 @@ describe('programme package', () => {
       sealing,
     );
     await expect(openProgrammePackage(mixed, CODE)).rejects.toMatchObject({ code: 'ForeignPatient' });
-    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 4 }), CODE, sealing);
+    const future = await sealTransfer(JSON.stringify({ format: 'kinnote-home-programme', formatVersion: 5 }), CODE, sealing);
     await expect(openProgrammePackage(future, CODE)).rejects.toMatchObject({ code: 'Unsupported' });
     t.store.close();
   });

@@ -48,14 +48,18 @@ class PatientLanguageState {
     return this.#catalogues[this.current] ?? ENGLISH_MESSAGES;
   }
 
-  choose(language: PatientLanguage): void {
+  /**
+   * Chooses the language (on the phone, or the one the therapist named in a received programme);
+   * resolves once its catalogue is loaded (or could not be: English then stays).
+   */
+  choose(language: PatientLanguage): Promise<void> {
     this.#chosen = language;
-    void this.#load(language);
     try {
       localStorage.setItem(KEY, language);
     } catch {
       // Private mode without storage: the choice lasts until the page is closed.
     }
+    return this.#load(language);
   }
 
   async #load(language: PatientLanguage): Promise<void> {

@@ -1,4 +1,4 @@
-import { durationWords, type DosePart } from '$lib/programme';
+import { PATIENT_LANGUAGES, durationWords, isPatientLanguage, type DosePart, type PatientLanguage } from '$lib/programme';
 
 /**
  * Every word a patient reads on their own phone, in each language the phone speaks. English is the
@@ -178,8 +178,7 @@ const en = {
 /** The shape every language fills: the same keys, strings where English has strings, the same functions. */
 export type PatientMessages = { readonly [K in keyof typeof en]: (typeof en)[K] extends string ? string : (typeof en)[K] };
 
-export const PATIENT_LANGUAGES = ['en', 'es'] as const;
-export type PatientLanguage = (typeof PATIENT_LANGUAGES)[number];
+export { PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage };
 
 /** English, the source language: always loaded. */
 export const ENGLISH_MESSAGES: PatientMessages = en;
@@ -195,8 +194,4 @@ export const PATIENT_LANGUAGE_NAMES: Readonly<Record<PatientLanguage, string>> =
 export async function loadPatientMessages(language: PatientLanguage): Promise<PatientMessages> {
   if (language === 'en') return en;
   return (await import('./patient-messages-es')).SPANISH_MESSAGES;
-}
-
-export function isPatientLanguage(value: unknown): value is PatientLanguage {
-  return typeof value === 'string' && (PATIENT_LANGUAGES as readonly string[]).includes(value);
 }
