@@ -1,6 +1,6 @@
 import type { KinnoteStore } from '$lib/store';
 import type { AssessmentDraft } from './assessment-draft';
-import { DraftKeeper, type DraftChoice } from './draft-keeper';
+import { DraftKeeper } from './draft-keeper';
 import { readingsFromDraft, type VisitReading } from './visit-readings';
 
 /**
@@ -56,17 +56,15 @@ export function visitDraftKeeper(options: {
   });
 }
 
-/** One line for the choice between drafts: where it comes from, when it was kept, how many values it holds. */
-export function describeVisitDraft(choice: DraftChoice<KeptVisit>): string {
-  const at = new Date(choice.savedAtMs).toLocaleString();
-  const f = choice.value.form;
+/** What a visit draft holds, in a few words, for the list of other drafts (OtherDrafts.svelte). */
+export function visitDraftSize(value: KeptVisit): string {
+  const f = value.form;
   const filled =
     f.mas.filter((r) => r.grade !== null).length +
     f.tardieu.length +
     f.rom.filter((r) => r.angleDeg !== '').length +
     (f.pennFrequency === null ? 0 : 1) +
     (f.spasmSeverity === null ? 0 : 1) +
-    choice.value.readings.length;
-  const where = choice.origin === 'open-tab' ? 'open in another tab' : 'left by a closed tab or an interrupted session';
-  return `Draft ${where}, last kept ${at} (${filled} value${filled === 1 ? '' : 's'})`;
+    value.readings.length;
+  return `${filled} value${filled === 1 ? '' : 's'}`;
 }
