@@ -1,8 +1,9 @@
-import { TABLE_NAMES, type RecordBase, type TableName } from '../domain';
+import { MAX_CLOCK_SKEW_MS, TABLE_NAMES, type RecordBase, type TableName } from '../domain';
 import {
   BUNDLE_FORMAT,
   BUNDLE_FORMAT_VERSION,
   LATEST_SCHEMA_VERSION,
+  TEAM_BASES_TABLE,
   base64ToBytes,
   bytesToBase64,
   createBundle,
@@ -71,6 +72,20 @@ async function saveLink(store: KinnoteStore, link: TeamLink): Promise<void> {
 
 export async function leaveTeam(store: KinnoteStore): Promise<void> {
   await writeLocalState(store, LINK_KEY, null);
+  await store.db.table(TEAM_BASES_TABLE).clear();
+}
+
+/** A record's key in the bases table. */
+const baseKey = (table: TableName, id: string) => `${table}/${id}`;
+
+/** The bases (updatedAt of the server's copy last known here) of `keys`. */
+async function readBases(store: KinnoteStore, keys: readonly string[]): Promise<Map<string, string>> {
+  const rows = (await store.db.table(TEAM_BASES_TABLE).bulkGet([...keys])) as ({ key: string; updatedAt: string } | undefined)[];
+  return new Map(rows.filter((r) => r !== undefined).map((r) => [r.key, r.updatedAt]));
+}
+
+async function writeBases(store: KinnoteStore, bases: readonly { key: string; updatedAt: string }[]): Promise<void> {
+  if (bases.length > 0) await store.db.table(TEAM_BASES_TABLE).bulkPut([...bases]);
 }
 
 async function api(deps: SyncDeps, serverUrl: string, token: string | null, method: string, path: string, body?: unknown): Promise<Record<string, unknown>> {
@@ -148,15 +163,32 @@ export function rowsChangedSince(store: KinnoteStore, table: TableName, mark: st
   return t.filter((row: Record<string, unknown>) => (row[field] as string) > mark);
 }
 
-/** Local records changed since the last push, in clear (the vault opens protected text). */
-async function changedSince(store: KinnoteStore, mark: string): Promise<{ table: TableName; record: RecordBase }[]> {
-  const out: { table: TableName; record: RecordBase }[] = [];
+/**
+ * The rows this device has to push, table by table, and the newest stamp scanned (the next mark).
+ * The scan starts MAX_CLOCK_SKEW_MS before the mark: the mark is the newest stamp seen at the last
+ * push, and pulled records may carry a teammate's clock up to that much ahead of ours, so a record
+ * written here after the mark was set can still be stamped below it. Rows still at their base (the
+ * server has this very version, e.g. pulled from it) are left out.
+ */
+async function pendingRows(store: KinnoteStore, mark: string): Promise<{ rows: { table: TableName; row: RecordBase; base: string | null }[]; newest: string }> {
+  const from = mark === '' ? '' : new Date(Date.parse(mark) - MAX_CLOCK_SKEW_MS).toISOString();
+  const out: { table: TableName; row: RecordBase; base: string | null }[] = [];
+  let newest = mark;
   for (const table of TABLE_NAMES) {
-    const rows = (await rowsChangedSince(store, table, mark).toArray()) as RecordBase[];
-    const codec = store.context.codecs[table];
-    for (const row of rows) out.push({ table, record: (await codec.fromRow(row as never)) as RecordBase });
+    const rows = (await rowsChangedSince(store, table, from).toArray()) as RecordBase[];
+    const bases = await readBases(store, rows.map((r) => baseKey(table, r.id)));
+    for (const row of rows) {
+      if (row.updatedAt > newest) newest = row.updatedAt;
+      const base = bases.get(baseKey(table, row.id)) ?? null;
+      if (base !== row.updatedAt) out.push({ table, row, base });
+    }
   }
-  return out;
+  return { rows: out, newest };
+}
+
+/** How many local records wait for the next push (the Team section's quiet status; audit entries not counted). */
+export async function countWaiting(store: KinnoteStore, link: TeamLink): Promise<number> {
+  return (await pendingRows(store, link.pushedThrough)).rows.filter((r) => r.table !== 'audit').length;
 }
 
 export interface SyncReport {
@@ -176,16 +208,24 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
   const key = await teamKeyOf(store, link);
   let pushed = 0;
   if (link.role !== 'auditor' && key) {
-    const changed = await changedSince(store, link.pushedThrough);
-    let mark = link.pushedThrough;
+    const pending = await pendingRows(store, link.pushedThrough);
+    const changed = await Promise.all(
+      pending.rows.map(async ({ table, row, base }) => ({ table, base, record: (await store.context.codecs[table].fromRow(row as never)) as RecordBase })),
+    );
     for (let i = 0; i < changed.length; i += PUSH_BATCH) {
       const batch = changed.slice(i, i + PUSH_BATCH);
-      const records = await Promise.all(batch.map(async ({ table, record }) => ({ table, record: await toWire(table, record as never, key, deps.randomBytes) })));
-      await api(deps, link.serverUrl, link.token, 'POST', '/v1/push', { records });
+      const records = await Promise.all(batch.map(async ({ table, record, base }) => ({ table, record: await toWire(table, record as never, key, deps.randomBytes), base })));
+      const result = await api(deps, link.serverUrl, link.token, 'POST', '/v1/push', { records });
+      // The server now holds these versions, except where it kept its own (a conflict this device
+      // lost): that base moves when the pull brings the server's copy.
+      const keptStored = new Set(((result.conflicts ?? []) as { table: TableName; recordId: string; winner: string }[]).filter((c) => c.winner === 'stored').map((c) => baseKey(c.table, c.recordId)));
+      await writeBases(
+        store,
+        batch.map(({ table, record }) => ({ key: baseKey(table, record.id), updatedAt: record.updatedAt })).filter((b) => !keptStored.has(b.key)),
+      );
       pushed += batch.length;
     }
-    for (const { record } of changed) if (record.updatedAt > mark) mark = record.updatedAt;
-    link = { ...link, pushedThrough: mark };
+    link = { ...link, pushedThrough: pending.newest };
     await saveLink(store, link);
   }
   let pulled = 0;
@@ -209,8 +249,13 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
         scope: { kind: 'all' },
         protectedContent: key ? 'included' : 'omitted',
       });
-      const report = await importBackup(store, bundle);
+      const keys = records.filter(({ table }) => table !== 'identities' || key).map(({ table, record }) => baseKey(table, record.id));
+      const report = await importBackup(store, bundle, { syncBases: await readBases(store, keys) });
       conflicts.push(...report.conflicts.filter((c) => !c.alreadyRecorded));
+      await writeBases(
+        store,
+        records.filter(({ table }) => table !== 'identities' || key).map(({ table, record }) => ({ key: baseKey(table, record.id), updatedAt: record.updatedAt })),
+      );
       pulled += records.length;
     }
     link = { ...link, cursor: page.cursor as number };

@@ -104,6 +104,57 @@ describe('devices in step through the team server (PGlite, in process)', () => {
   });
 });
 
+describe('ordinary edits through the team server are no conflicts (PGlite, in process)', () => {
+  let db: SqlClient;
+  let deps: { fetch: typeof fetch; randomBytes: typeof rb };
+  beforeAll(async () => {
+    db = await openTemplatePglite();
+    await migrate(db);
+    const app = createApp(new TeamService(db), { enrolLimit: 100 });
+    deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+  }, 300_000);
+  afterAll(async () => {
+    await db.close();
+  });
+
+  it('B edits what it pulled, A edits what it pulled back: nothing is listed; edits of one version on both devices are, once per record', async () => {
+    const team = await new TeamService(db).createTeam('Edit team');
+    const a = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9)) });
+    await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+    const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 3)) });
+    await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B' }, deps);
+    const { assessment } = await seedPatient(a);
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    await b.assessments.update(assessment.id, { notes: 'B: second look' });
+    await syncNow(b, deps);
+    const pulledByA = await syncNow(a, deps);
+    expect(pulledByA.conflicts).toEqual([]);
+    expect(await notesOf(a, assessment.id)).toBe('B: second look');
+    await a.assessments.update(assessment.id, { notes: 'A: third look' });
+    // The assessment, its audit entry and the audit entry of the import that brought B's edit: nothing pulled is pushed back.
+    expect((await syncNow(a, deps)).pushed).toBe(3);
+    await syncNow(b, deps);
+    expect(await notesOf(b, assessment.id)).toBe('A: third look');
+    expect((await readTeamLink(a))!.conflicts).toEqual([]);
+    expect((await readTeamLink(b))!.conflicts).toEqual([]);
+    expect((await db.query('SELECT 1 FROM conflicts')).length).toBe(0);
+
+    // Now both edit the version they share: one real conflict, listed on both devices.
+    await a.assessments.update(assessment.id, { notes: 'A: offline' });
+    await b.assessments.update(assessment.id, { notes: 'B: offline, later' });
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    await syncNow(a, deps);
+    expect(await notesOf(a, assessment.id)).toBe('B: offline, later');
+    expect(await notesOf(b, assessment.id)).toBe('B: offline, later');
+    for (const device of [a, b]) {
+      const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
+      expect(listed.length, 'listed once on each device').toBe(1);
+    }
+  });
+});
+
 describe('kinnote cohort --server', () => {
   it('reads the whole team from the server with a device token, and writes no name or note', { timeout: 400_000 }, async () => {
     const { mkdtempSync, readdirSync, readFileSync } = await import('node:fs');

@@ -1,5 +1,5 @@
 import { liveQuery, type KinnoteStore } from '$lib/store';
-import { readTeamLink, rowsChangedSince, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
+import { countWaiting, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
 
 /** How soon after a save the changes go to the team (a burst of saves makes one sync). */
 const AFTER_SAVE_MS = 4000;
@@ -53,11 +53,7 @@ class TeamSyncRunner {
       this.waiting = 0;
       return;
     }
-    let n = 0;
-    for (const table of ['patients', 'identities', 'events', 'assessments', 'observations', 'traces'] as const) {
-      n += await rowsChangedSince(store, table, link.pushedThrough).count();
-    }
-    this.waiting = n;
+    this.waiting = await countWaiting(store, link);
   }
 
   async sync(): Promise<void> {
