@@ -60,7 +60,8 @@ const DAY_MS = 86_400_000;
 export class TeamService {
   constructor(
     private readonly db: SqlClient,
-    private readonly now: () => number = () => Date.now(),
+    /** The server's clock: the team's one time line (devices stamp by it, see team-sync.ts). */
+    readonly now: () => number = () => Date.now(),
   ) {}
 
   /** Creates a team and its first admin's one-time code (valid `ttlMs`, default 24 h). */

@@ -170,10 +170,11 @@ export async function importBackup(
       // Audit entries are append-only: a differing copy never replaces the local one.
       const winner: 'incoming' | 'local' = incomingWins && table !== 'audit' ? 'incoming' : 'local';
       const base = options.syncBases?.get(`${table}/${record.id}`);
+      // (A local copy at its base is the server's own earlier copy: whatever replaced it there, even by
+      // a tie-break, was settled and listed by the server.)
       const ordinary =
         options.syncBases !== undefined &&
-        !tie &&
-        ((winner === 'incoming' && base === current.updatedAt) || (winner === 'local' && record.deviceId === current.deviceId && table !== 'audit'));
+        ((winner === 'incoming' && base === current.updatedAt) || (winner === 'local' && !tie && record.deviceId === current.deviceId && table !== 'audit'));
       if (ordinary) {
         // Same outcome as the rule above; only nobody's change was overwritten, so no conflict.
         if (winner === 'incoming') {

@@ -2,7 +2,7 @@
 // IndexedDB through Dexie: versions and migrations, repositories with audit, the vault, backups.
 export { liveQuery } from 'dexie';
 export { StoreError, describeIssues, toStoreError, type StoreErrorCode, type StoreIssue } from './store-error';
-export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreSettings } from './open-store';
+export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreClock, type StoreSettings } from './open-store';
 export { CHANGED_ELSEWHERE, IdentityRepository, ObservationRepository, Repository, type EditOptions, type Input, type Patch, type PreparedChange, type WritableTable, type WriteOptions } from './repository';
 export type { Actor, StoreContext } from './store-context';
 export type { AssessmentRow, EventRow, IdentityRow, Row, RowTables } from './rows';

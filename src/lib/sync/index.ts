@@ -5,3 +5,4 @@ export { TEAM_KEY_BYTES, WRAP_ITERATIONS, importTeamKey, newTeamKey, openWithTea
 export { fromWire, toWire } from './wire-codec';
 export { TeamSyncError, countWaiting, issueEnrolmentCode, joinTeam, leaveTeam, readTeamLink, rowsChangedSince, syncNow, type SyncDeps, type SyncReport, type TeamLink, type TeamRole } from './team-sync';
 export { pullTeamSnapshot } from './team-snapshot';
+export { OFFSET_TOLERANCE_MS, SERVER_TIME_HEADER, measureOffset } from './clock-offset';

@@ -16,6 +16,7 @@ import {
 } from '../store';
 import { parseEnrolmentCode, newEnrolmentCode, formatEnrolmentCode } from './enrolment-code';
 import { importTeamKey, newTeamKey, unwrapTeamKey, wrapTeamKey, type TeamKey } from './team-key';
+import { OFFSET_TOLERANCE_MS, SERVER_TIME_HEADER, measureOffset } from './clock-offset';
 import { fromWire, toWire } from './wire-codec';
 import type { WireRecord } from './wire-record';
 
@@ -88,8 +89,15 @@ async function writeBases(store: KinnoteStore, bases: readonly { key: string; up
   if (bases.length > 0) await store.db.table(TEAM_BASES_TABLE).bulkPut([...bases]);
 }
 
-async function api(deps: SyncDeps, serverUrl: string, token: string | null, method: string, path: string, body?: unknown): Promise<Record<string, unknown>> {
+/** The device's clock and the offset from the server's last measured on one exchange (team time = device + offset). */
+interface ClockProbe {
+  readonly device: () => number;
+  offset: number | null;
+}
+
+async function api(deps: SyncDeps, serverUrl: string, token: string | null, method: string, path: string, body?: unknown, probe?: ClockProbe): Promise<Record<string, unknown>> {
   let response: Response;
+  const sentMs = probe?.device() ?? 0;
   try {
     response = await deps.fetch(`${serverUrl.replace(/\/+$/, '')}${path}`, {
       method,
@@ -99,9 +107,15 @@ async function api(deps: SyncDeps, serverUrl: string, token: string | null, meth
   } catch (cause) {
     throw new TeamSyncError(`the team server at ${serverUrl} cannot be reached (offline?)`, null, { cause });
   }
+  if (probe) probe.offset = measureOffset(response.headers.get(SERVER_TIME_HEADER), sentMs, probe.device()) ?? probe.offset;
   const json = (await response.json().catch(() => ({}))) as Record<string, unknown>;
   if (!response.ok) throw new TeamSyncError(`team server: ${typeof json.error === 'string' ? json.error : `HTTP ${response.status}`}`, response.status);
   return json;
+}
+
+/** Stamps by the team server's clock from now on, when the measured offset moved beyond the noise. */
+async function followServerClock(store: KinnoteStore, probe: ClockProbe): Promise<void> {
+  if (probe.offset !== null && Math.abs(probe.offset - store.clock.offsetMs) > OFFSET_TOLERANCE_MS) await store.clock.setOffset(probe.offset);
 }
 
 async function teamKeyOf(store: KinnoteStore, link: TeamLink): Promise<TeamKey | null> {
@@ -116,7 +130,9 @@ async function teamKeyOf(store: KinnoteStore, link: TeamLink): Promise<TeamKey |
  */
 export async function joinTeam(store: KinnoteStore, input: { serverUrl: string; code: string; label: string }, deps: SyncDeps): Promise<TeamLink> {
   const code = parseEnrolmentCode(input.code);
-  const enrolled = await api(deps, input.serverUrl, null, 'POST', '/v1/enrol', { auth: code.auth, label: input.label });
+  const probe: ClockProbe = { device: store.clock.device, offset: null };
+  const enrolled = await api(deps, input.serverUrl, null, 'POST', '/v1/enrol', { auth: code.auth, label: input.label }, probe);
+  await followServerClock(store, probe);
   const role = enrolled.role as TeamRole;
   let key: TeamKey | null = null;
   if (role !== 'auditor') {
@@ -206,6 +222,11 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
   let link = await readTeamLink(store);
   if (!link) throw new TeamSyncError('this device has not joined a team', null);
   const key = await teamKeyOf(store, link);
+  // First the time: records pulled below are checked against the team's clock, and edits from here on
+  // are stamped by it. (Records already stamped by a fast clock wait until the server's clock reaches them.)
+  const probe: ClockProbe = { device: store.clock.device, offset: null };
+  await api(deps, link.serverUrl, link.token, 'GET', '/v1/me', undefined, probe);
+  await followServerClock(store, probe);
   let pushed = 0;
   if (link.role !== 'auditor' && key) {
     const pending = await pendingRows(store, link.pushedThrough);

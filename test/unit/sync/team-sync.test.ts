@@ -150,7 +150,52 @@ describe('ordinary edits through the team server are no conflicts (PGlite, in pr
     expect(await notesOf(b, assessment.id)).toBe('B: offline, later');
     for (const device of [a, b]) {
       const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
-      expect(listed.length, 'listed once on each device').toBe(1);
+      expect(listed.length, JSON.stringify(listed)).toBe(1);
+    }
+  });
+});
+
+describe('a device whose clock is 25 minutes behind its team (PGlite, in process)', () => {
+  it('takes its teammates\' records, stamps its own by the server\'s clock, and its edit wins as the later one', { timeout: 300_000 }, async () => {
+    const db = await openTemplatePglite();
+    await migrate(db);
+    try {
+      // The server and tablet A keep real time; tablet B's clock runs 25 minutes slow and drifts
+      // (jitter of up to ±300 ms on every reading), as a tablet that never set its clock.
+      const service = new TeamService(db);
+      const app = createApp(service, { enrolLimit: 100 });
+      const deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+      const behindMs = 25 * 60_000;
+      const a = await freshStore({ now: () => Date.now() });
+      const b = await freshStore({ now: () => Date.now() - behindMs + Math.round((Math.random() - 0.5) * 600) });
+      const team = await service.createTeam('Clock team');
+      await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+      await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B (slow clock)' }, deps);
+      expect(Math.abs(b.clock.offsetMs - behindMs)).toBeLessThan(5000);
+      expect(a.clock.offsetMs).toBe(0); // within the noise tolerance: A's own clock is kept
+
+      // A's records are stamped 25 minutes after B's own clock: B takes them (the check uses team time).
+      const { assessment } = await seedPatient(a);
+      await syncNow(a, deps);
+      await syncNow(b, deps);
+      expect(await notesOf(b, assessment.id)).toBe('Invented note: stiffer in the cold');
+
+      // B's edit comes after A's in real time, and is stamped so: it wins on both, listed nowhere.
+      await b.assessments.update(assessment.id, { notes: 'B: later look' });
+      const edited = await b.assessments.get(assessment.id);
+      expect(Math.abs(Date.parse(edited!.updatedAt) - Date.now())).toBeLessThan(10_000);
+      const created = await b.patients.create({ code: 'QW3E-7RTY', birthYear: 1950, condition: 'stroke', affectedSides: ['right'], status: 'active' });
+      expect(Math.abs(Date.parse(created.createdAt) - Date.now())).toBeLessThan(10_000);
+      await syncNow(b, deps);
+      await syncNow(a, deps);
+      expect(await notesOf(a, assessment.id)).toBe('B: later look');
+      expect(await a.patients.get(created.id)).toBeDefined();
+      expect((await readTeamLink(a))!.conflicts).toEqual([]);
+      expect((await readTeamLink(b))!.conflicts).toEqual([]);
+      // The offset is kept on the device: a reopened store stamps by it without the network.
+      expect(await b.db.table('meta').get('local:clock-offset')).toMatchObject({ value: b.clock.offsetMs });
+    } finally {
+      await db.close();
     }
   });
 });
