@@ -46,6 +46,8 @@ export interface SyncDeps {
   readonly fetch: typeof fetch;
   readonly randomBytes: (n: number) => Uint8Array;
   readonly now?: () => number;
+  /** Why `serverUrl` cannot be reached when it is not the network (the page's security policy), else null. */
+  readonly explainUnreachable?: (serverUrl: string) => string | null;
 }
 
 const LINK_KEY = 'local:team-link';
@@ -105,7 +107,7 @@ async function api(deps: SyncDeps, serverUrl: string, token: string | null, meth
       ...(body === undefined ? {} : { body: JSON.stringify(body) }),
     });
   } catch (cause) {
-    throw new TeamSyncError(`the team server at ${serverUrl} cannot be reached (offline?)`, null, { cause });
+    throw new TeamSyncError(deps.explainUnreachable?.(serverUrl) ?? `the team server at ${serverUrl} cannot be reached (offline?)`, null, { cause });
   }
   if (probe) probe.offset = measureOffset(response.headers.get(SERVER_TIME_HEADER), sentMs, probe.device()) ?? probe.offset;
   const json = (await response.json().catch(() => ({}))) as Record<string, unknown>;

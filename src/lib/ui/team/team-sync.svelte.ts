@@ -1,4 +1,5 @@
 import { liveQuery, type KinnoteStore } from '$lib/store';
+import { explainBlockedTeamServer, pagePolicy } from '$lib/security/team-server-reach';
 import { countWaiting, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
 
 /** How soon after a save the changes go to the team (a burst of saves makes one sync). */
@@ -7,6 +8,7 @@ const AFTER_SAVE_MS = 4000;
 const deps = () => ({
   fetch: (input: RequestInfo | URL, init?: RequestInit) => globalThis.fetch(input, init),
   randomBytes: (n: number) => globalThis.crypto.getRandomValues(new Uint8Array(n)),
+  explainUnreachable: (serverUrl: string) => explainBlockedTeamServer(serverUrl, pagePolicy(), globalThis.location.origin),
 });
 
 /**
