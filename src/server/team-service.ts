@@ -137,20 +137,31 @@ export class TeamService {
     const row = rows[0];
     if (!row) throw new TeamServerError(401, 'unknown device token');
     if (row.revoked_at !== null) throw new TeamServerError(401, 'this device was revoked by a team admin');
+    // Last seen, for the admins' list: written at most once a minute per device.
+    const at = new Date(this.now());
+    await this.db.query('UPDATE devices SET last_seen_at = $2 WHERE id = $1 AND (last_seen_at IS NULL OR last_seen_at < $3)', [row.id, at.toISOString(), new Date(at.getTime() - 60_000).toISOString()]);
     return { id: row.id, teamId: row.team_id, role: row.role, label: row.label };
   }
 
-  async listDevices(admin: Device): Promise<{ id: string; role: Role; label: string; createdAt: string; revoked: boolean }[]> {
+  async listDevices(admin: Device): Promise<{ id: string; role: Role; label: string; createdAt: string; lastSeenAt: string | null; revoked: boolean }[]> {
     requireRole(admin, ['admin']);
-    const rows = await this.db.query<{ id: string; role: Role; label: string; created_at: Date | string; revoked_at: unknown }>(
-      'SELECT id, role, label, created_at, revoked_at FROM devices WHERE team_id = $1 ORDER BY created_at, id',
+    const rows = await this.db.query<{ id: string; role: Role; label: string; created_at: Date | string; last_seen_at: Date | string | null; revoked_at: unknown }>(
+      'SELECT id, role, label, created_at, last_seen_at, revoked_at FROM devices WHERE team_id = $1 ORDER BY created_at, id',
       [admin.teamId],
     );
-    return rows.map((r) => ({ id: r.id, role: r.role, label: r.label, createdAt: new Date(r.created_at).toISOString(), revoked: r.revoked_at !== null }));
+    return rows.map((r) => ({
+      id: r.id,
+      role: r.role,
+      label: r.label,
+      createdAt: new Date(r.created_at).toISOString(),
+      lastSeenAt: r.last_seen_at === null ? null : new Date(r.last_seen_at).toISOString(),
+      revoked: r.revoked_at !== null,
+    }));
   }
 
   async revoke(admin: Device, deviceId: string): Promise<void> {
     requireRole(admin, ['admin']);
+    if (deviceId === admin.id) throw new TeamServerError(400, 'an admin device cannot revoke itself: another admin must, or leave the team on this device');
     const rows = await this.db.query('UPDATE devices SET revoked_at = now() WHERE id = $1 AND team_id = $2 AND revoked_at IS NULL RETURNING id', [deviceId, admin.teamId]);
     if (rows.length === 0) throw new TeamServerError(404, `device ${deviceId}: not an active device of this team`);
   }

@@ -169,6 +169,34 @@ export async function issueEnrolmentCode(store: KinnoteStore, role: TeamRole, tt
   return { code: formatEnrolmentCode(code), expiresAt: issued.expiresAt as string };
 }
 
+export interface TeamDevice {
+  readonly id: string;
+  readonly role: TeamRole;
+  readonly label: string;
+  readonly createdAt: string;
+  readonly lastSeenAt: string | null;
+  readonly revoked: boolean;
+}
+
+/** The team's devices (admin devices only), oldest first. */
+export async function listTeamDevices(store: KinnoteStore, deps: SyncDeps): Promise<TeamDevice[]> {
+  const link = await readTeamLink(store);
+  if (!link) throw new TeamSyncError('this device has not joined a team', null);
+  return (await api(deps, link.serverUrl, link.token, 'GET', '/v1/devices')).devices as TeamDevice[];
+}
+
+/** Revokes a team device's token (admin devices only): its next exchange is refused; its own data stays on it. */
+export async function revokeTeamDevice(store: KinnoteStore, deviceId: string, deps: SyncDeps): Promise<void> {
+  const link = await readTeamLink(store);
+  if (!link) throw new TeamSyncError('this device has not joined a team', null);
+  await api(deps, link.serverUrl, link.token, 'POST', `/v1/devices/${encodeURIComponent(deviceId)}/revoke`);
+}
+
+/** True for the refusal a revoked device gets (401 naming the revocation). */
+export function isRevoked(error: unknown): boolean {
+  return error instanceof TeamSyncError && error.status === 401 && /revoked/.test(error.message);
+}
+
 /**
  * The rows of `table` stamped after `mark`: through the table's updatedAt index where it has one
  * (the audit log, append-only, through createdAt, its updatedAt); observations lost that index in

@@ -31,7 +31,16 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     expect((await h.call('GET', '/v1/me', clinician.token)).json.role).toBe('clinician');
     expect((await h.call('POST', '/v1/codes', clinician.token, { auth: randomAuth(), role: 'admin', ttlMs: 60_000, keyEnvelope: '{}' })).status).toBe(403);
     expect((await h.call('POST', '/v1/codes', adminToken, { auth: randomAuth(), role: 'auditor', ttlMs: 60_000, keyEnvelope: '{"v":1}' })).status).toBe(400);
+    const listed = (await h.call('GET', '/v1/devices', adminToken)).json.devices as { id: string; role: string; lastSeenAt: string | null; createdAt: string; revoked: boolean }[];
+    const seen = listed.find((d) => d.id === clinician.deviceId)!;
+    expect(seen).toMatchObject({ role: 'clinician', revoked: false });
+    expect(Date.parse(seen.lastSeenAt!)).toBeGreaterThanOrEqual(Date.parse(seen.createdAt) - 1000);
+    const adminId = listed.find((d) => d.role === 'admin')!.id;
+    const self = await h.call('POST', `/v1/devices/${adminId}/revoke`, adminToken);
+    expect(self.status).toBe(400);
+    expect(self.json.error).toMatch(/cannot revoke itself/);
     expect((await h.call('POST', `/v1/devices/${clinician.deviceId}/revoke`, adminToken)).status).toBe(200);
+    expect(((await h.call('GET', '/v1/devices', adminToken)).json.devices as { id: string; revoked: boolean }[]).find((d) => d.id === clinician.deviceId)!.revoked).toBe(true);
     const refused = await h.call('GET', '/v1/pull?cursor=0', clinician.token);
     expect(refused.status).toBe(401);
     expect(refused.json.error).toMatch(/revoked/);

@@ -1,6 +1,6 @@
 import { liveQuery, type KinnoteStore } from '$lib/store';
 import { explainBlockedTeamServer, pagePolicy } from '$lib/security/team-server-reach';
-import { countWaiting, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
+import { countWaiting, isRevoked, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
 
 /** How soon after a save the changes go to the team (a burst of saves makes one sync). */
 const AFTER_SAVE_MS = 4000;
@@ -76,7 +76,11 @@ class TeamSyncRunner {
       await syncNow(store, deps());
       this.lastError = null;
     } catch (error) {
-      this.lastError = error instanceof TeamSyncError && error.status === null ? 'Offline: changes wait on this device.' : (error as Error).message;
+      this.lastError = isRevoked(error)
+        ? 'A team admin revoked this device: it no longer syncs. Everything recorded here stays on this device; save a backup, or leave the team below.'
+        : error instanceof TeamSyncError && error.status === null && /cannot be reached/.test(error.message)
+          ? 'Offline: changes wait on this device.'
+          : (error as Error).message;
     } finally {
       this.busy = false;
       await this.refresh();
