@@ -28,8 +28,10 @@ function line(label: string, r: LoadResult & { seconds: number }): string {
 }
 
 export async function run(print: (line: string) => void): Promise<void> {
-  const stores: (string | undefined)[] = [undefined];
-  if (process.env.TEAM_SERVER_TEST_DATABASE_URL) stores.push(process.env.TEAM_SERVER_TEST_DATABASE_URL);
+  // KINNOTE_BENCH_STORES=pglite or postgres runs one store only (the full size of both does not fit one 20-minute window on 2 cores).
+  const only = process.env.KINNOTE_BENCH_STORES;
+  const stores: (string | undefined)[] = only === 'postgres' ? [] : [undefined];
+  if (process.env.TEAM_SERVER_TEST_DATABASE_URL && only !== 'pglite') stores.push(process.env.TEAM_SERVER_TEST_DATABASE_URL);
   for (const databaseUrl of stores) {
     print(line(`${devices} devices × ${records}`, await timed({ devices, recordsPerDevice: records, batchSize: 200, kills: 0, databaseUrl })));
     print(line(`${devices} devices × ${records} with SIGKILLs`, await timed({ devices, recordsPerDevice: records, batchSize: 200, kills, databaseUrl })));
