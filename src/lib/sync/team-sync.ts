@@ -266,14 +266,11 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
     for (let i = 0; i < changed.length; i += PUSH_BATCH) {
       const batch = changed.slice(i, i + PUSH_BATCH);
       const records = await Promise.all(batch.map(async ({ table, record, base }) => ({ table, record: await toWire(table, record as never, key, deps.randomBytes), base })));
-      const result = await api(deps, link.serverUrl, link.token, 'POST', '/v1/push', { records });
-      // The server now holds these versions, except where it kept its own (a conflict this device
-      // lost): that base moves when the pull brings the server's copy.
-      const keptStored = new Set(((result.conflicts ?? []) as { table: TableName; recordId: string; winner: string }[]).filter((c) => c.winner === 'stored').map((c) => baseKey(c.table, c.recordId)));
-      await writeBases(
-        store,
-        batch.map(({ table, record }) => ({ key: baseKey(table, record.id), updatedAt: record.updatedAt })).filter((b) => !keptStored.has(b.key)),
-      );
+      await api(deps, link.serverUrl, link.token, 'POST', '/v1/push', { records });
+      // The server has seen these versions: taken, or compared and listed as a conflict it settled
+      // (kept its own). Either way they are its base now, so the pull that brings the server's copy
+      // replaces them without listing the same conflict a second time on this device.
+      await writeBases(store, batch.map(({ table, record }) => ({ key: baseKey(table, record.id), updatedAt: record.updatedAt })));
       pushed += batch.length;
     }
     link = { ...link, pushedThrough: pending.newest };

@@ -152,6 +152,18 @@ describe('ordinary edits through the team server are no conflicts (PGlite, in pr
       const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
       expect(listed.length, JSON.stringify(listed)).toBe(1);
     }
+    // Again, B syncing first: whichever copy is newer, the conflict is listed once per device (from the
+    // server), not a second time when a pull brings the server's copy.
+    await a.assessments.update(assessment.id, { notes: 'A: offline again' });
+    await b.assessments.update(assessment.id, { notes: 'B: offline again, later' });
+    await syncNow(b, deps);
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    expect(await notesOf(a, assessment.id)).toBe(await notesOf(b, assessment.id));
+    for (const device of [a, b]) {
+      const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
+      expect(listed.length, JSON.stringify(listed)).toBe(2);
+    }
   });
 });
 
