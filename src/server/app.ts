@@ -1,10 +1,12 @@
 import { Hono, type Context } from 'hono';
 import { bodyLimit } from 'hono/body-limit';
 import { cors } from 'hono/cors';
+import { SERVER_TIME_HEADER } from '../lib/sync';
 import { RateLimit } from './rate-limit';
 import { ROLES, TeamServerError, type Device, type Role, type TeamService } from './team-service';
 
 type Env = { Variables: { device: Device } };
+
 
 export interface AppOptions {
   /** Enrolment attempts per client address per window (default 10 per 15 minutes). */
@@ -25,7 +27,12 @@ export function createApp(service: TeamService, options: AppOptions = {}): Hono<
   const address = options.clientAddress ?? ((c: Context) => c.req.header('x-kinnote-test-address') ?? 'unknown');
 
   // Bearer tokens, no cookies: any origin may call, so the app can live on its own address.
-  app.use('/v1/*', cors({ origin: '*', allowHeaders: ['Authorization', 'Content-Type'], allowMethods: ['GET', 'POST'] }));
+  app.use('/v1/*', cors({ origin: '*', allowHeaders: ['Authorization', 'Content-Type'], allowMethods: ['GET', 'POST'], exposeHeaders: [SERVER_TIME_HEADER] }));
+  // Every answer, refusals included, tells the device the server's time: devices stamp records by it.
+  app.use('/v1/*', async (c, next) => {
+    await next();
+    c.res.headers.set(SERVER_TIME_HEADER, String(service.now()));
+  });
   app.use('/v1/*', bodyLimit({ maxSize: 32 * 1024 * 1024, onError: (c) => c.json({ error: 'request body over 32 MB: push smaller batches' }, 413) }));
 
   app.onError((error, c) => {

@@ -60,7 +60,8 @@ const DAY_MS = 86_400_000;
 export class TeamService {
   constructor(
     private readonly db: SqlClient,
-    private readonly now: () => number = () => Date.now(),
+    /** The server's clock: the team's one time line (devices stamp by it, see team-sync.ts). */
+    readonly now: () => number = () => Date.now(),
   ) {}
 
   /** Creates a team and its first admin's one-time code (valid `ttlMs`, default 24 h). */
@@ -136,20 +137,31 @@ export class TeamService {
     const row = rows[0];
     if (!row) throw new TeamServerError(401, 'unknown device token');
     if (row.revoked_at !== null) throw new TeamServerError(401, 'this device was revoked by a team admin');
+    // Last seen, for the admins' list: written at most once a minute per device.
+    const at = new Date(this.now());
+    await this.db.query('UPDATE devices SET last_seen_at = $2 WHERE id = $1 AND (last_seen_at IS NULL OR last_seen_at < $3)', [row.id, at.toISOString(), new Date(at.getTime() - 60_000).toISOString()]);
     return { id: row.id, teamId: row.team_id, role: row.role, label: row.label };
   }
 
-  async listDevices(admin: Device): Promise<{ id: string; role: Role; label: string; createdAt: string; revoked: boolean }[]> {
+  async listDevices(admin: Device): Promise<{ id: string; role: Role; label: string; createdAt: string; lastSeenAt: string | null; revoked: boolean }[]> {
     requireRole(admin, ['admin']);
-    const rows = await this.db.query<{ id: string; role: Role; label: string; created_at: Date | string; revoked_at: unknown }>(
-      'SELECT id, role, label, created_at, revoked_at FROM devices WHERE team_id = $1 ORDER BY created_at, id',
+    const rows = await this.db.query<{ id: string; role: Role; label: string; created_at: Date | string; last_seen_at: Date | string | null; revoked_at: unknown }>(
+      'SELECT id, role, label, created_at, last_seen_at, revoked_at FROM devices WHERE team_id = $1 ORDER BY created_at, id',
       [admin.teamId],
     );
-    return rows.map((r) => ({ id: r.id, role: r.role, label: r.label, createdAt: new Date(r.created_at).toISOString(), revoked: r.revoked_at !== null }));
+    return rows.map((r) => ({
+      id: r.id,
+      role: r.role,
+      label: r.label,
+      createdAt: new Date(r.created_at).toISOString(),
+      lastSeenAt: r.last_seen_at === null ? null : new Date(r.last_seen_at).toISOString(),
+      revoked: r.revoked_at !== null,
+    }));
   }
 
   async revoke(admin: Device, deviceId: string): Promise<void> {
     requireRole(admin, ['admin']);
+    if (deviceId === admin.id) throw new TeamServerError(400, 'an admin device cannot revoke itself: another admin must, or leave the team on this device');
     const rows = await this.db.query('UPDATE devices SET revoked_at = now() WHERE id = $1 AND team_id = $2 AND revoked_at IS NULL RETURNING id', [deviceId, admin.teamId]);
     if (rows.length === 0) throw new TeamServerError(404, `device ${deviceId}: not an active device of this team`);
   }
@@ -157,8 +169,9 @@ export class TeamService {
   /**
    * Merges a batch into the team's records in one transaction (all or nothing), with the rules of a
    * backup import: absent → inserted; identical → unchanged; otherwise the newer updatedAt wins, equal
-   * times go to the larger canonical text, audit entries are never replaced, and every conflict is
-   * recorded once. Each written record takes the next change number of its team: the push first
+   * times go to the larger canonical text, audit entries are never replaced. Each pushed record may
+   * carry `base`, the updatedAt of the server's copy its edit started from: a newer record whose base
+   * is the stored version is an ordinary edit; anything else that differs is a conflict, recorded once. Each written record takes the next change number of its team: the push first
    * locks the team's counter row, so pushers of one team run one after another and change numbers
    * become visible in increasing order (a pull by number never skips a later commit).
    */
@@ -173,7 +186,7 @@ export class TeamService {
       const writes: unknown[][] = [];
       const conflicts: PushConflict[] = [];
       const conflictRows: unknown[][] = [];
-      for (const { table, record, text } of records) {
+      for (const { table, record, text, base } of records) {
         const current = stored.get(`${table}/${record.id}`);
         if (current === undefined) {
           counts.inserted++;
@@ -183,13 +196,22 @@ export class TeamService {
         // The same version again: same updatedAt from the same writing device. Its text can differ only
         // where it was sealed again with a fresh nonce (a device pushing back what it pulled, or a
         // retried push): nothing changed, and it is no conflict.
-        if (current.body === text || (record.updatedAt === current.updated_at && record.deviceId === (JSON.parse(current.body) as { deviceId?: unknown }).deviceId)) {
+        const storedWriter = (JSON.parse(current.body) as { deviceId?: unknown }).deviceId;
+        if (current.body === text || (record.updatedAt === current.updated_at && record.deviceId === storedWriter)) {
           counts.unchanged++;
           continue;
         }
         const tie = record.updatedAt === current.updated_at;
         const incomingWins = table !== 'audit' && (tie ? text > current.body : record.updatedAt > current.updated_at);
         const reason = tie ? 'tie-break' : 'newer';
+        // An ordinary edit: the pushing device started from the stored version (its base), or the
+        // stored version is the same writer's earlier one (a retry after a lost reply). The newer
+        // copy replaces it by the same rule, but nobody else's change was overwritten: no conflict.
+        if (incomingWins && !tie && (base === current.updated_at || record.deviceId === storedWriter)) {
+          counts.replaced++;
+          writes.push([table, record.id, record.updatedAt, record.deleted, ++seq, device.id, text]);
+          continue;
+        }
         conflicts.push({ table, recordId: record.id, winner: incomingWins ? 'incoming' : 'stored', reason });
         if (incomingWins) {
           counts.replaced++;
@@ -270,7 +292,11 @@ interface CheckedRecord {
   readonly table: TableName;
   readonly record: WireRecord;
   readonly text: string;
+  /** The updatedAt of the server's copy the device's edit started from (null: none known, e.g. created there). */
+  readonly base: string | null;
 }
+
+const ISO_STAMP = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/;
 
 /** Validates a whole batch before anything is written; refuses it whole, naming index, table, id and field. */
 function checkBatch(batch: unknown, nowMs: number): CheckedRecord[] {
@@ -281,7 +307,7 @@ function checkBatch(batch: unknown, nowMs: number): CheckedRecord[] {
   const issues: { record: string; path: string; message: string }[] = [];
   const seen = new Set<string>();
   list.forEach((item: unknown, i) => {
-    const { table, record } = (item ?? {}) as { table?: unknown; record?: unknown };
+    const { table, record, base = null } = (item ?? {}) as { table?: unknown; record?: unknown; base?: unknown };
     const id = typeof (record as { id?: unknown } | null)?.id === 'string' ? (record as { id: string }).id : '?';
     const where = `records[${i}] (${String(table)} ${id})`;
     const checked = checkWireRecord(String(table), record);
@@ -293,10 +319,11 @@ function checkBatch(batch: unknown, nowMs: number): CheckedRecord[] {
     // stored, every device's pull would refuse the page that carries them, and the team would stall.
     const stamps = checkTimestamps(checked.record as unknown as { createdAt: string; updatedAt: string }, nowMs);
     for (const issue of stamps) issues.push({ record: where, path: issue.path, message: issue.message.replace("this device's clock", "the team server's clock") });
+    if (base !== null && !(typeof base === 'string' && ISO_STAMP.test(base))) issues.push({ record: where, path: 'base', message: 'must be null or the ISO updatedAt the edit started from' });
     const key = `${checked.table}/${checked.record.id}`;
     if (seen.has(key)) issues.push({ record: where, path: 'id', message: 'appears twice in this push' });
     seen.add(key);
-    out.push({ table: checked.table, record: checked.record, text: canonicalJson(checked.record) });
+    out.push({ table: checked.table, record: checked.record, text: canonicalJson(checked.record), base: typeof base === 'string' ? base : null });
   });
   if (issues.length > 0) {
     const first = issues.slice(0, 3).map((i) => `${i.record} ${i.path}: ${i.message}`).join('; ');

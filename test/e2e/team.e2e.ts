@@ -227,6 +227,9 @@ describe('a team of three devices through the team server', () => {
       // Only the record edited on both (the visit and its measurement): a version pulled and pushed
       // back, sealed anew, is no conflict.
       for (const line of listed) expect(line, who).toMatch(/^(assessments|observations) /);
+      // With base versions each record edited on both devices is listed once (before: three lines per record).
+      const ids = (await teamLink(page))!.conflicts.map((c) => `${c.table}/${c.recordId}`);
+      expect(new Set(ids).size, `${who}: ${ids.join(', ')}`).toBe(ids.length);
     }
 
     // The Team section at 360 px (A) and 1024 px (B), looked at, and checked with axe.
@@ -265,13 +268,31 @@ describe('a team of three devices through the team server', () => {
       expect(secretsIn(dump, SECRETS), 'in pg_dump of the team database').toEqual([]);
     }
 
-    // A lost laptop: the admin revokes it, and its next sync is refused.
-    const auditorId = (await teamLink(C.page))!.deviceId;
-    const revoked = await fetch(`${server.url}/v1/devices/${auditorId}/revoke`, { method: 'POST', headers: { authorization: `Bearer ${admin.token}` } });
-    expect(revoked.status).toBe(200);
+    // A lost laptop: the admin revokes it in Settings → Team (list, confirm), and its next sync is refused.
+    await openSettings(A.page);
+    const devicesList = teamSection(A.page).locator('details.devices');
+    await devicesList.getByText('Team devices', { exact: true }).click();
+    const laptop = devicesList.locator('li', { hasText: 'Audit laptop' });
+    await laptop.getByText(/auditor/).waitFor({ timeout: 30_000 });
+    expect(await laptop.textContent()).toMatch(/Enrolled .* · last seen (?!never)/);
+    expect(await devicesList.locator('li', { hasText: 'Tablet A' }).textContent()).toMatch(/\(this device\)/);
+    expect(await devicesList.locator('li', { hasText: 'Tablet A' }).getByRole('button').count(), 'no revoke button for itself').toBe(0);
+    await laptop.getByRole('button', { name: 'Revoke…' }).click();
+    await A.page.setViewportSize(tablet);
+    await teamSection(A.page).screenshot({ path: join(screenshotDir, 'team-devices-confirm-1024.png') });
+    await A.page.setViewportSize(smallPhone);
+    await teamSection(A.page).screenshot({ path: join(screenshotDir, 'team-devices-confirm-360.png') });
+    expect(await seriousAxeViolations(A.page)).toEqual([]);
+    await laptop.getByRole('button', { name: 'Revoke Audit laptop' }).click();
+    await devicesList.getByText('Audit laptop is revoked: it can no longer sync.').waitFor({ timeout: 30_000 });
+    expect(await laptop.textContent()).toMatch(/auditor · revoked/);
+    const kept = (await tableRows(C.page, 'observations')).length;
     await openSettings(C.page);
     await teamSection(C.page).getByRole('button', { name: 'Sync now' }).click();
-    await teamSection(C.page).getByText(/revoked/).waitFor({ timeout: 60_000 });
+    await teamSection(C.page).getByText(/A team admin revoked this device: it no longer syncs\. Everything recorded here stays on this device/).waitFor({ timeout: 60_000 });
+    await teamSection(C.page).screenshot({ path: join(screenshotDir, 'team-revoked-1024.png') });
+    expect((await tableRows(C.page, 'observations')).length, 'the revoked device keeps its records').toBe(kept);
+    expect(kept).toBe(2);
 
     for (const d of [A, B, C]) await d.context.close();
   });

@@ -73,7 +73,7 @@ export async function runLoad(options: LoadOptions): Promise<LoadResult> {
   };
   try {
     const admin = (await request('POST', '/v1/enrol', null, { auth: init.code.replace(/-/g, '').slice(0, 10), label: 'admin' })).token as string;
-    const devices: { token: string; batches: Record<string, unknown>[][]; local: Map<string, string> }[] = [];
+    const devices: { token: string; batches: Record<string, unknown>[][]; local: Map<string, string>; cursor: number }[] = [];
     for (let i = 0; i < options.devices; i++) {
       const auth = randomAuth();
       await request('POST', '/v1/codes', admin, { auth, role: 'clinician', ttlMs: 3_600_000, keyEnvelope: '{"v":1}' });
@@ -81,7 +81,7 @@ export async function runLoad(options: LoadOptions): Promise<LoadResult> {
       const obs = simulatedObservations(options.recordsPerDevice, 1000 + i, DEMO.devices[0]!.id);
       const batches: Record<string, unknown>[][] = [];
       for (let k = 0; k < obs.length; k += options.batchSize) batches.push(obs.slice(k, k + options.batchSize) as unknown as Record<string, unknown>[]);
-      devices.push({ token, batches, local: new Map(obs.map((o) => [o.id, canonicalJson(o)])) });
+      devices.push({ token, batches, local: new Map(obs.map((o) => [o.id, canonicalJson(o)])), cursor: 0 });
     }
     const pushMs: number[] = [];
     const pullMs: number[] = [];
@@ -117,7 +117,6 @@ export async function runLoad(options: LoadOptions): Promise<LoadResult> {
         release();
         // No partial batch: every batch that was in flight at the kill is on the server whole or not at all.
         const present = new Set<string>();
-        await pullAll({ token: admin, local: new Map() }, 0).catch(() => 0);
         const all = await request('GET', `/v1/pull?cursor=0&limit=2000`, admin);
         let cursor = all.cursor as number;
         for (const r of all.records as { record: { id: string } }[]) present.add(r.record.id);
@@ -138,7 +137,6 @@ export async function runLoad(options: LoadOptions): Promise<LoadResult> {
     const started = performance.now();
     await Promise.all(
       devices.map(async (d) => {
-        let cursor = 0;
         for (const batch of d.batches) {
           inFlight.add(batch);
           sentBatches++;
@@ -146,14 +144,14 @@ export async function runLoad(options: LoadOptions): Promise<LoadResult> {
           await request('POST', '/v1/push', d.token, { records: batch.map((record) => ({ table: 'observations', record })) });
           if (alive) pushMs.push(performance.now() - t0);
           inFlight.delete(batch);
-          cursor = await pullAll(d, cursor);
+          d.cursor = await pullAll(d, d.cursor);
         }
       }),
     );
     const pushSeconds = (performance.now() - started) / 1000;
     await killer;
     // Everyone pulls what arrived after their last pull.
-    await Promise.all(devices.map((d) => pullAll(d, 0)));
+    await Promise.all(devices.map(async (d) => (d.cursor = await pullAll(d, d.cursor))));
     const checksums = devices.map((d) => createHash('sha256').update([...d.local.values()].sort().join('\n')).digest('hex'));
     const serverView = { token: admin, local: new Map<string, string>() };
     await pullAll(serverView, 0);

@@ -2,8 +2,10 @@
 // `kinnote` command exactly as a person starts it, stopped (or killed) by its own pid.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { join, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 
 const ROOT = resolve(import.meta.dirname, '../..');
+const TSX_LOADER = pathToFileURL(join(ROOT, 'node_modules/tsx/dist/loader.mjs')).href;
 
 /** `kinnote team-server …` as a child process; start() resolves with its address once it listens. */
 export class ServerProcess {
@@ -11,7 +13,9 @@ export class ServerProcess {
   private child: ChildProcess | undefined;
   constructor(private readonly args: string[], private readonly env: NodeJS.ProcessEnv) {}
   async start(): Promise<void> {
-    const child = spawn(process.execPath, [join(ROOT, 'node_modules/tsx/dist/cli.mjs'), join(ROOT, 'src/cli/main.ts'), 'team-server', ...this.args], {
+    // Node itself runs the server (tsx as a loader), not tsx's command: that one starts the server as
+    // its own child, so a SIGKILL sent to it would leave the server running on as an orphan.
+    const child = spawn(process.execPath, ['--import', TSX_LOADER, join(ROOT, 'src/cli/main.ts'), 'team-server', ...this.args], {
       env: this.env,
       stdio: ['ignore', 'pipe', 'pipe'],
     });

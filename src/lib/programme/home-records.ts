@@ -1,7 +1,7 @@
 import { readLocalState, writeLocalState, type KinnoteStore } from '../store';
 import type { AdherenceEntry, HomeProgramme, SelfReport } from '../domain';
 import { followedPlans } from './current-plans';
-import { readDeviceProfile } from './patient-device';
+import { readDeviceProfile } from './device-profile';
 import { readHomeLog, withTick, withoutTick, type ExerciseTick, type HomeLog } from './home-log';
 import type { HomeReport } from './home-report';
 import { weeklyAdherence } from './weekly-adherence';

@@ -31,16 +31,15 @@ export { type SealOptions } from './sealed-transfer';
 export {
   PROGRAMME_PACKAGE_FORMAT,
   PROGRAMME_PACKAGE_VERSION,
-  PATIENT_LANGUAGES,
   createProgrammePackage,
-  isPatientLanguage,
   openProgrammePackage,
   type OpenedProgrammePackage,
-  type PatientLanguage,
   type ProgrammePackage,
 } from './programme-package';
+export { PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from './patient-language';
 export { HOME_REPORT_FORMAT, HOME_REPORT_VERSION, createHomeReport, openHomeReport, type HomeReport } from './home-report';
-export { acceptProgrammePackage, choosePatientMode, readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './patient-device';
+export { acceptProgrammePackage } from './patient-device';
+export { choosePatientMode, readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './device-profile';
 export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
 export { importHomeReport, type HomeReportImport } from './import-home-report';
 export { summariseReport, type ReportSummary } from './report-summary';

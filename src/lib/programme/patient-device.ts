@@ -1,4 +1,3 @@
-import * as v from 'valibot';
 import {
   BUNDLE_FORMAT,
   BUNDLE_FORMAT_VERSION,
@@ -7,8 +6,6 @@ import {
   createBundle,
   importBackup,
   photosOfProgramme,
-  readLocalState,
-  writeLocalState,
   type KinnoteStore,
   type MergeReport,
 } from '../store';
@@ -16,61 +13,7 @@ import type { ExercisePhoto } from '../domain';
 import type { Device } from '../domain';
 import type { OpenedProgrammePackage } from './programme-package';
 import { ProgrammeTransferError } from './programme-transfer-error';
-
-const PROFILE_KEY = 'local:device-profile';
-
-/**
- * What this device is for. 'therapist': the ordinary app. 'patient': the patient's own phone,
- * bound to one patient by the first programme it accepts (until then patientId is null).
- */
-export type DeviceProfile =
-  | { readonly mode: 'therapist' }
-  | {
-      readonly mode: 'patient';
-      readonly patientId: string | null;
-      readonly patientCode: string | null;
-      readonly deviceId: string | null;
-      readonly currentProgrammeId: string | null;
-      /** The phone's own calendar day when it accepted its first programme; weeks before it are not counted. */
-      readonly receivedOn: string | null;
-    };
-
-const ProfileSchema = v.variant('mode', [
-  v.strictObject({ mode: v.literal('therapist') }),
-  v.strictObject({
-    mode: v.literal('patient'),
-    patientId: v.nullable(v.string()),
-    patientCode: v.nullable(v.string()),
-    deviceId: v.nullable(v.string()),
-    currentProgrammeId: v.nullable(v.string()),
-    // Absent in profiles saved before it existed.
-    receivedOn: v.optional(v.nullable(v.string()), null),
-  }),
-]);
-
-/** The saved profile, or null on a device never set up (or with a damaged profile). */
-export async function readDeviceProfile(store: KinnoteStore): Promise<DeviceProfile | null> {
-  const result = v.safeParse(ProfileSchema, await readLocalState(store, PROFILE_KEY));
-  return result.success ? result.output : null;
-}
-
-export async function writeDeviceProfile(store: KinnoteStore, profile: DeviceProfile): Promise<void> {
-  await writeLocalState(store, PROFILE_KEY, profile);
-}
-
-/**
- * Turns a device into a patient's own phone (first run). Refused (StoreError ValidationFailed)
- * when the device already has a user or any patient record: a therapist's caseload and a
- * patient's phone never share a database.
- */
-export async function choosePatientMode(store: KinnoteStore): Promise<DeviceProfile> {
-  if (store.actor !== null || (await store.patients.list({ includeDeleted: true })).length > 0) {
-    throw new StoreError('ValidationFailed', 'this device is already set up for a therapist; a patient\'s phone needs a device of its own');
-  }
-  const profile: DeviceProfile = { mode: 'patient', patientId: null, patientCode: null, deviceId: null, currentProgrammeId: null, receivedOn: null };
-  await writeDeviceProfile(store, profile);
-  return profile;
-}
+import { readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './device-profile';
 
 /**
  * Saves an opened programme package on the patient's phone: the programme record (keeping its id,

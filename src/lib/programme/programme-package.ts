@@ -5,6 +5,7 @@ import type { ExercisePlan } from './exercise-plan';
 import { checkExercisePlan } from './exercise-plan';
 import { programmeToPlan } from './programme-record';
 import { ProgrammeTransferError } from './programme-transfer-error';
+import { PATIENT_LANGUAGES, type PatientLanguage } from './patient-language';
 import { openTransfer, sealTransfer, type SealOptions } from './sealed-transfer';
 
 export const PROGRAMME_PACKAGE_FORMAT = 'kinnote-home-programme' as const;
@@ -17,13 +18,6 @@ export const PROGRAMME_PACKAGE_VERSION = 4;
  */
 const READABLE_VERSIONS: readonly number[] = [1, 2, 3, 4];
 const VersionSchema = v.union([v.literal(1), v.literal(2), v.literal(3), v.literal(4)]);
-
-/** The languages the patient's screens speak (BCP 47 primary subtags); English is the source. */
-export const PATIENT_LANGUAGES = ['en', 'es'] as const;
-export type PatientLanguage = (typeof PATIENT_LANGUAGES)[number];
-export function isPatientLanguage(value: unknown): value is PatientLanguage {
-  return typeof value === 'string' && (PATIENT_LANGUAGES as readonly string[]).includes(value);
-}
 
 /** A photo as it travels: its bytes in base64 (RFC 4648). Limits are checked again after decoding. */
 const PackagePhotoSchema = v.strictObject({

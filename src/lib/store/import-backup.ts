@@ -104,7 +104,18 @@ interface Planned {
 export async function importBackup(
   store: KinnoteStore,
   input: string | unknown,
-  options: { passphrase?: string; knownPatientIds?: readonly string[]; photos?: PhotoMode } = {},
+  options: {
+    passphrase?: string;
+    knownPatientIds?: readonly string[];
+    /**
+     * For a team server pull: by `table/id`, the updatedAt of the server's copy this device last knew
+     * (its base). A local copy still at its base was not changed here since, so a newer incoming copy
+     * replaces it as an ordinary edit, with no conflict; and an incoming copy this device wrote itself
+     * that is older than the local one is its own past, kept out without a conflict.
+     */
+    syncBases?: ReadonlyMap<string, string>;
+    photos?: PhotoMode;
+  } = {},
 ): Promise<MergeReport> {
   const outside: OutsideLookup = async (table, ids) => {
     try {
@@ -161,15 +172,22 @@ export async function importBackup(
       const incomingWins = tie ? incomingText > localText : record.updatedAt > current.updatedAt;
       // Audit entries are append-only: a differing copy never replaces the local one.
       const winner: 'incoming' | 'local' = incomingWins && table !== 'audit' ? 'incoming' : 'local';
-      let row: unknown = undefined;
-      if (winner === 'incoming') {
-        row = await codec.toRow(record as never);
-        if (!included) {
-          const kept: Record<string, unknown> = { ...(row as object) };
-          for (const f of codec.sealedFields) kept[f] = (current as unknown as Record<string, unknown>)[f];
-          row = kept;
-        }
+      const base = options.syncBases?.get(`${table}/${record.id}`);
+      // (A local copy at its base is the server's own earlier copy: whatever replaced it there, even by
+      // a tie-break, was settled and listed by the server.)
+      const ordinary =
+        options.syncBases !== undefined &&
+        ((winner === 'incoming' && base === current.updatedAt) || (winner === 'local' && !tie && record.deviceId === current.deviceId && table !== 'audit'));
+      if (ordinary) {
+        // Same outcome as the rule above; only nobody's change was overwritten, so no conflict.
+        if (winner === 'incoming') {
+          writes.push({ table, id: record.id, localUpdatedAt: current.updatedAt, row: keepSealedWhenOmitted(await codec.toRow(record as never), current, codec.sealedFields, included) });
+          counts[table].replaced++;
+        } else counts[table].keptLocal++;
+        continue;
       }
+      let row: unknown = undefined;
+      if (winner === 'incoming') row = keepSealedWhenOmitted(await codec.toRow(record as never), current, codec.sealedFields, included);
       const before = auditSnapshot(table, current);
       const after = snapshotInClear(table, record, codec.protectedFields, codec.sealedFields);
       const alreadyRecorded = winner === 'local' && (await keepLocalRecorded(store, table, record.id, current.updatedAt, record.updatedAt));
@@ -281,6 +299,14 @@ async function presentRows(table: Table, ids: readonly string[]): Promise<Map<st
   if (wanted.length === 0) return out;
   for (const row of (await table.bulkGet([...wanted])) as (RecordBase | undefined)[]) if (row !== undefined) out.set(row.id, row);
   return out;
+}
+
+/** With protected content omitted from the bundle, the local sealed text stays as it was. */
+function keepSealedWhenOmitted(row: unknown, current: RecordBase, sealedFields: readonly string[], included: boolean): unknown {
+  if (included) return row;
+  const kept: Record<string, unknown> = { ...(row as object) };
+  for (const f of sealedFields) kept[f] = (current as unknown as Record<string, unknown>)[f];
+  return kept;
 }
 
 async function keepLocalRecorded(store: KinnoteStore, table: TableName, recordId: string, localUpdatedAt: string, incomingUpdatedAt: string): Promise<boolean> {

@@ -2,11 +2,11 @@
 // IndexedDB through Dexie: versions and migrations, repositories with audit, the vault, backups.
 export { liveQuery } from 'dexie';
 export { StoreError, describeIssues, toStoreError, type StoreErrorCode, type StoreIssue } from './store-error';
-export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreSettings } from './open-store';
+export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreClock, type StoreSettings } from './open-store';
 export { CHANGED_ELSEWHERE, IdentityRepository, ObservationRepository, Repository, type EditOptions, type Input, type Patch, type PreparedChange, type WritableTable, type WriteOptions } from './repository';
 export type { Actor, StoreContext } from './store-context';
 export type { AssessmentRow, EventRow, IdentityRow, Row, RowTables } from './rows';
-export { SCHEMA_VERSIONS, LATEST_SCHEMA_VERSION, declareSchema, type SchemaVersion } from './schema';
+export { SCHEMA_VERSIONS, LATEST_SCHEMA_VERSION, TEAM_BASES_TABLE, declareSchema, type SchemaVersion } from './schema';
 export { Vault, type Timers, type VaultStatus } from './vault';
 export { DEFAULT_KDF_ITERATIONS, sha256Hex, type SealedText } from './crypto-box';
 export { canonicalJson } from './canonical-json';

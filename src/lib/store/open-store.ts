@@ -32,6 +32,21 @@ export interface OpenStoreOptions {
   readonly middleware?: readonly Middleware<DBCore>[];
 }
 
+/**
+ * Stamps follow the team server's clock once a team sync has measured this device's offset from it
+ * (team-sync.ts), so every device of a team stamps on one time line whatever its own clock says;
+ * without a team the offset stays 0. Saved on the device; never in a backup.
+ */
+export interface StoreClock {
+  /** This device's own clock (ms since 1970). */
+  readonly device: () => number;
+  /** Added to the device's clock for every stamp. */
+  readonly offsetMs: number;
+  setOffset(ms: number): Promise<void>;
+}
+
+const CLOCK_OFFSET_KEY = 'local:clock-offset';
+
 export interface StoreSettings {
   readonly idleTimeoutMs: number | null;
 }
@@ -82,6 +97,8 @@ export interface KinnoteStore {
    * unless an actor is already saved, saves the actor and returns it.
    */
   ensureActor(first: { deviceName: string; platform: string | null; clinicianName: string; profession: 'physiotherapist' | 'occupational-therapist' | 'physician' | 'nurse' | 'other' }): Promise<Actor>;
+  /** The clock records are stamped with: this device's own, corrected by what its team server told it. */
+  readonly clock: StoreClock;
   readonly settings: StoreSettings;
   /** Saves the lock timeout and applies it to the vault. */
   setIdleTimeoutMs(ms: number | null): Promise<void>;
@@ -94,7 +111,9 @@ export interface KinnoteStore {
  * disk is newer than this app, DatabaseUnavailable when IndexedDB is missing or blocked.
  */
 export async function openStore(options: OpenStoreOptions = {}): Promise<KinnoteStore> {
-  const now = options.now ?? (() => Date.now());
+  const deviceNow = options.now ?? (() => Date.now());
+  let clockOffsetMs = 0;
+  const now = () => deviceNow() + clockOffsetMs;
   const randomBytes = options.randomBytes ?? cryptoRandomBytes;
   const dexieOptions: { indexedDB?: IDBFactory; IDBKeyRange?: typeof IDBKeyRange } = {};
   if (options.indexedDB) dexieOptions.indexedDB = options.indexedDB;
@@ -133,6 +152,7 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
   const meta = db.table<{ key: string; value: unknown }, string>('meta');
   const readMeta = async <T>(key: string): Promise<T | undefined> => (await meta.get(key))?.value as T | undefined;
 
+  clockOffsetMs = (await readMeta<number>(CLOCK_OFFSET_KEY)) ?? 0;
   const settings: { idleTimeoutMs: number | null } = {
     idleTimeoutMs: (await readMeta<StoreSettings>('settings'))?.idleTimeoutMs ?? DEFAULT_IDLE_MS,
   };
@@ -151,7 +171,7 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
     },
     {
       randomBytes,
-      now,
+      now: deviceNow,
       iterations: options.kdfIterations ?? DEFAULT_KDF_ITERATIONS,
       timers: options.timers ?? {
         setTimeout: (fn, ms) => globalThis.setTimeout(fn, ms),
@@ -210,6 +230,21 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
         } catch (error) {
           throw toStoreError(error, 'logging the export');
         }
+      },
+    },
+    clock: {
+      device: deviceNow,
+      get offsetMs() {
+        return clockOffsetMs;
+      },
+      async setOffset(ms: number) {
+        if (!Number.isFinite(ms)) throw new StoreError('ValidationFailed', `clock offset: ${ms} is not a number of milliseconds`);
+        try {
+          await meta.put({ key: CLOCK_OFFSET_KEY, value: Math.round(ms) });
+        } catch (error) {
+          throw toStoreError(error, 'saving the clock offset');
+        }
+        clockOffsetMs = Math.round(ms);
       },
     },
     get actor() {

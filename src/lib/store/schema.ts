@@ -130,6 +130,17 @@ async function upgradeToV10(tx: Transaction): Promise<void> {
   await tx.table(CASELOAD_SUMMARIES_TABLE).bulkPut(allSummaryRows(patients, assessments, observations, studies));
 }
 
+/**
+ * Version 14 (11-13 are other branches'): a `teamBases` table, device-local like meta (never in a
+ * backup): for each record this device has exchanged with its team server, the updatedAt of the
+ * server's copy it last knew (team-sync.ts). A push sends it as the edit's base, so the server lists
+ * a conflict only when someone else changed the record meanwhile; a pull replaces an unchanged local
+ * copy without a conflict. Empty at first: a device already in a team starts from no bases (its
+ * first push after the upgrade lists edits of teammates' records as conflicts once, as before).
+ */
+export const TEAM_BASES_TABLE = 'teamBases';
+async function upgradeToV14(): Promise<void> {}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -180,6 +191,12 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { [CASELOAD_SUMMARIES_TABLE]: 'patientId, order' },
     upgrade: upgradeToV10,
     summary: 'caseloadSummaries table (one row per patient, kept on write), built for every patient',
+  },
+  {
+    version: 14,
+    stores: { [TEAM_BASES_TABLE]: 'key' },
+    upgrade: upgradeToV14,
+    summary: 'teamBases table (device-local: the team server version each exchanged record was last known at)',
   },
 ];
 

@@ -1,8 +1,9 @@
-import { TABLE_NAMES, type RecordBase, type TableName } from '../domain';
+import { MAX_CLOCK_SKEW_MS, TABLE_NAMES, type RecordBase, type TableName } from '../domain';
 import {
   BUNDLE_FORMAT,
   BUNDLE_FORMAT_VERSION,
   LATEST_SCHEMA_VERSION,
+  TEAM_BASES_TABLE,
   base64ToBytes,
   bytesToBase64,
   createBundle,
@@ -15,6 +16,7 @@ import {
 } from '../store';
 import { parseEnrolmentCode, newEnrolmentCode, formatEnrolmentCode } from './enrolment-code';
 import { importTeamKey, newTeamKey, unwrapTeamKey, wrapTeamKey, type TeamKey } from './team-key';
+import { OFFSET_TOLERANCE_MS, SERVER_TIME_HEADER, measureOffset } from './clock-offset';
 import { fromWire, toWire } from './wire-codec';
 import type { WireRecord } from './wire-record';
 
@@ -44,6 +46,8 @@ export interface SyncDeps {
   readonly fetch: typeof fetch;
   readonly randomBytes: (n: number) => Uint8Array;
   readonly now?: () => number;
+  /** Why `serverUrl` cannot be reached when it is not the network (the page's security policy), else null. */
+  readonly explainUnreachable?: (serverUrl: string) => string | null;
 }
 
 const LINK_KEY = 'local:team-link';
@@ -71,10 +75,31 @@ async function saveLink(store: KinnoteStore, link: TeamLink): Promise<void> {
 
 export async function leaveTeam(store: KinnoteStore): Promise<void> {
   await writeLocalState(store, LINK_KEY, null);
+  await store.db.table(TEAM_BASES_TABLE).clear();
 }
 
-async function api(deps: SyncDeps, serverUrl: string, token: string | null, method: string, path: string, body?: unknown): Promise<Record<string, unknown>> {
+/** A record's key in the bases table. */
+const baseKey = (table: TableName, id: string) => `${table}/${id}`;
+
+/** The bases (updatedAt of the server's copy last known here) of `keys`. */
+async function readBases(store: KinnoteStore, keys: readonly string[]): Promise<Map<string, string>> {
+  const rows = (await store.db.table(TEAM_BASES_TABLE).bulkGet([...keys])) as ({ key: string; updatedAt: string } | undefined)[];
+  return new Map(rows.filter((r) => r !== undefined).map((r) => [r.key, r.updatedAt]));
+}
+
+async function writeBases(store: KinnoteStore, bases: readonly { key: string; updatedAt: string }[]): Promise<void> {
+  if (bases.length > 0) await store.db.table(TEAM_BASES_TABLE).bulkPut([...bases]);
+}
+
+/** The device's clock and the offset from the server's last measured on one exchange (team time = device + offset). */
+interface ClockProbe {
+  readonly device: () => number;
+  offset: number | null;
+}
+
+async function api(deps: SyncDeps, serverUrl: string, token: string | null, method: string, path: string, body?: unknown, probe?: ClockProbe): Promise<Record<string, unknown>> {
   let response: Response;
+  const sentMs = probe?.device() ?? 0;
   try {
     response = await deps.fetch(`${serverUrl.replace(/\/+$/, '')}${path}`, {
       method,
@@ -82,11 +107,17 @@ async function api(deps: SyncDeps, serverUrl: string, token: string | null, meth
       ...(body === undefined ? {} : { body: JSON.stringify(body) }),
     });
   } catch (cause) {
-    throw new TeamSyncError(`the team server at ${serverUrl} cannot be reached (offline?)`, null, { cause });
+    throw new TeamSyncError(deps.explainUnreachable?.(serverUrl) ?? `the team server at ${serverUrl} cannot be reached (offline?)`, null, { cause });
   }
+  if (probe) probe.offset = measureOffset(response.headers.get(SERVER_TIME_HEADER), sentMs, probe.device()) ?? probe.offset;
   const json = (await response.json().catch(() => ({}))) as Record<string, unknown>;
   if (!response.ok) throw new TeamSyncError(`team server: ${typeof json.error === 'string' ? json.error : `HTTP ${response.status}`}`, response.status);
   return json;
+}
+
+/** Stamps by the team server's clock from now on, when the measured offset moved beyond the noise. */
+async function followServerClock(store: KinnoteStore, probe: ClockProbe): Promise<void> {
+  if (probe.offset !== null && Math.abs(probe.offset - store.clock.offsetMs) > OFFSET_TOLERANCE_MS) await store.clock.setOffset(probe.offset);
 }
 
 async function teamKeyOf(store: KinnoteStore, link: TeamLink): Promise<TeamKey | null> {
@@ -101,7 +132,9 @@ async function teamKeyOf(store: KinnoteStore, link: TeamLink): Promise<TeamKey |
  */
 export async function joinTeam(store: KinnoteStore, input: { serverUrl: string; code: string; label: string }, deps: SyncDeps): Promise<TeamLink> {
   const code = parseEnrolmentCode(input.code);
-  const enrolled = await api(deps, input.serverUrl, null, 'POST', '/v1/enrol', { auth: code.auth, label: input.label });
+  const probe: ClockProbe = { device: store.clock.device, offset: null };
+  const enrolled = await api(deps, input.serverUrl, null, 'POST', '/v1/enrol', { auth: code.auth, label: input.label }, probe);
+  await followServerClock(store, probe);
   const role = enrolled.role as TeamRole;
   let key: TeamKey | null = null;
   if (role !== 'auditor') {
@@ -136,6 +169,34 @@ export async function issueEnrolmentCode(store: KinnoteStore, role: TeamRole, tt
   return { code: formatEnrolmentCode(code), expiresAt: issued.expiresAt as string };
 }
 
+export interface TeamDevice {
+  readonly id: string;
+  readonly role: TeamRole;
+  readonly label: string;
+  readonly createdAt: string;
+  readonly lastSeenAt: string | null;
+  readonly revoked: boolean;
+}
+
+/** The team's devices (admin devices only), oldest first. */
+export async function listTeamDevices(store: KinnoteStore, deps: SyncDeps): Promise<TeamDevice[]> {
+  const link = await readTeamLink(store);
+  if (!link) throw new TeamSyncError('this device has not joined a team', null);
+  return (await api(deps, link.serverUrl, link.token, 'GET', '/v1/devices')).devices as TeamDevice[];
+}
+
+/** Revokes a team device's token (admin devices only): its next exchange is refused; its own data stays on it. */
+export async function revokeTeamDevice(store: KinnoteStore, deviceId: string, deps: SyncDeps): Promise<void> {
+  const link = await readTeamLink(store);
+  if (!link) throw new TeamSyncError('this device has not joined a team', null);
+  await api(deps, link.serverUrl, link.token, 'POST', `/v1/devices/${encodeURIComponent(deviceId)}/revoke`);
+}
+
+/** True for the refusal a revoked device gets (401 naming the revocation). */
+export function isRevoked(error: unknown): boolean {
+  return error instanceof TeamSyncError && error.status === 401 && /revoked/.test(error.message);
+}
+
 /**
  * The rows of `table` stamped after `mark`: through the table's updatedAt index where it has one
  * (the audit log, append-only, through createdAt, its updatedAt); observations lost that index in
@@ -148,15 +209,32 @@ export function rowsChangedSince(store: KinnoteStore, table: TableName, mark: st
   return t.filter((row: Record<string, unknown>) => (row[field] as string) > mark);
 }
 
-/** Local records changed since the last push, in clear (the vault opens protected text). */
-async function changedSince(store: KinnoteStore, mark: string): Promise<{ table: TableName; record: RecordBase }[]> {
-  const out: { table: TableName; record: RecordBase }[] = [];
+/**
+ * The rows this device has to push, table by table, and the newest stamp scanned (the next mark).
+ * The scan starts MAX_CLOCK_SKEW_MS before the mark: the mark is the newest stamp seen at the last
+ * push, and pulled records may carry a teammate's clock up to that much ahead of ours, so a record
+ * written here after the mark was set can still be stamped below it. Rows still at their base (the
+ * server has this very version, e.g. pulled from it) are left out.
+ */
+async function pendingRows(store: KinnoteStore, mark: string): Promise<{ rows: { table: TableName; row: RecordBase; base: string | null }[]; newest: string }> {
+  const from = mark === '' ? '' : new Date(Date.parse(mark) - MAX_CLOCK_SKEW_MS).toISOString();
+  const out: { table: TableName; row: RecordBase; base: string | null }[] = [];
+  let newest = mark;
   for (const table of TABLE_NAMES) {
-    const rows = (await rowsChangedSince(store, table, mark).toArray()) as RecordBase[];
-    const codec = store.context.codecs[table];
-    for (const row of rows) out.push({ table, record: (await codec.fromRow(row as never)) as RecordBase });
+    const rows = (await rowsChangedSince(store, table, from).toArray()) as RecordBase[];
+    const bases = await readBases(store, rows.map((r) => baseKey(table, r.id)));
+    for (const row of rows) {
+      if (row.updatedAt > newest) newest = row.updatedAt;
+      const base = bases.get(baseKey(table, row.id)) ?? null;
+      if (base !== row.updatedAt) out.push({ table, row, base });
+    }
   }
-  return out;
+  return { rows: out, newest };
+}
+
+/** How many local records wait for the next push (the Team section's quiet status; audit entries not counted). */
+export async function countWaiting(store: KinnoteStore, link: TeamLink): Promise<number> {
+  return (await pendingRows(store, link.pushedThrough)).rows.filter((r) => r.table !== 'audit').length;
 }
 
 export interface SyncReport {
@@ -174,18 +252,28 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
   let link = await readTeamLink(store);
   if (!link) throw new TeamSyncError('this device has not joined a team', null);
   const key = await teamKeyOf(store, link);
+  // First the time: records pulled below are checked against the team's clock, and edits from here on
+  // are stamped by it. (Records already stamped by a fast clock wait until the server's clock reaches them.)
+  const probe: ClockProbe = { device: store.clock.device, offset: null };
+  await api(deps, link.serverUrl, link.token, 'GET', '/v1/me', undefined, probe);
+  await followServerClock(store, probe);
   let pushed = 0;
   if (link.role !== 'auditor' && key) {
-    const changed = await changedSince(store, link.pushedThrough);
-    let mark = link.pushedThrough;
+    const pending = await pendingRows(store, link.pushedThrough);
+    const changed = await Promise.all(
+      pending.rows.map(async ({ table, row, base }) => ({ table, base, record: (await store.context.codecs[table].fromRow(row as never)) as RecordBase })),
+    );
     for (let i = 0; i < changed.length; i += PUSH_BATCH) {
       const batch = changed.slice(i, i + PUSH_BATCH);
-      const records = await Promise.all(batch.map(async ({ table, record }) => ({ table, record: await toWire(table, record as never, key, deps.randomBytes) })));
+      const records = await Promise.all(batch.map(async ({ table, record, base }) => ({ table, record: await toWire(table, record as never, key, deps.randomBytes), base })));
       await api(deps, link.serverUrl, link.token, 'POST', '/v1/push', { records });
+      // The server has seen these versions: taken, or compared and listed as a conflict it settled
+      // (kept its own). Either way they are its base now, so the pull that brings the server's copy
+      // replaces them without listing the same conflict a second time on this device.
+      await writeBases(store, batch.map(({ table, record }) => ({ key: baseKey(table, record.id), updatedAt: record.updatedAt })));
       pushed += batch.length;
     }
-    for (const { record } of changed) if (record.updatedAt > mark) mark = record.updatedAt;
-    link = { ...link, pushedThrough: mark };
+    link = { ...link, pushedThrough: pending.newest };
     await saveLink(store, link);
   }
   let pulled = 0;
@@ -209,8 +297,13 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
         scope: { kind: 'all' },
         protectedContent: key ? 'included' : 'omitted',
       });
-      const report = await importBackup(store, bundle);
+      const keys = records.filter(({ table }) => table !== 'identities' || key).map(({ table, record }) => baseKey(table, record.id));
+      const report = await importBackup(store, bundle, { syncBases: await readBases(store, keys) });
       conflicts.push(...report.conflicts.filter((c) => !c.alreadyRecorded));
+      await writeBases(
+        store,
+        records.filter(({ table }) => table !== 'identities' || key).map(({ table, record }) => ({ key: baseKey(table, record.id), updatedAt: record.updatedAt })),
+      );
       pulled += records.length;
     }
     link = { ...link, cursor: page.cursor as number };

@@ -31,7 +31,16 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     expect((await h.call('GET', '/v1/me', clinician.token)).json.role).toBe('clinician');
     expect((await h.call('POST', '/v1/codes', clinician.token, { auth: randomAuth(), role: 'admin', ttlMs: 60_000, keyEnvelope: '{}' })).status).toBe(403);
     expect((await h.call('POST', '/v1/codes', adminToken, { auth: randomAuth(), role: 'auditor', ttlMs: 60_000, keyEnvelope: '{"v":1}' })).status).toBe(400);
+    const listed = (await h.call('GET', '/v1/devices', adminToken)).json.devices as { id: string; role: string; lastSeenAt: string | null; createdAt: string; revoked: boolean }[];
+    const seen = listed.find((d) => d.id === clinician.deviceId)!;
+    expect(seen).toMatchObject({ role: 'clinician', revoked: false });
+    expect(Date.parse(seen.lastSeenAt!)).toBeGreaterThanOrEqual(Date.parse(seen.createdAt) - 1000);
+    const adminId = listed.find((d) => d.role === 'admin')!.id;
+    const self = await h.call('POST', `/v1/devices/${adminId}/revoke`, adminToken);
+    expect(self.status).toBe(400);
+    expect(self.json.error).toMatch(/cannot revoke itself/);
     expect((await h.call('POST', `/v1/devices/${clinician.deviceId}/revoke`, adminToken)).status).toBe(200);
+    expect(((await h.call('GET', '/v1/devices', adminToken)).json.devices as { id: string; revoked: boolean }[]).find((d) => d.id === clinician.deviceId)!.revoked).toBe(true);
     const refused = await h.call('GET', '/v1/pull?cursor=0', clinician.token);
     expect(refused.status).toBe(401);
     expect(refused.json.error).toMatch(/revoked/);
@@ -78,9 +87,11 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     expect(again.json).toMatchObject({ inserted: 0, replaced: 0, unchanged: 2, seq: first.json.seq });
 
     const later = (iso: string, ms: number) => new Date(Date.parse(iso) + ms).toISOString();
-    const newer = { ...one!, updatedAt: later(one!.updatedAt, 60_000), value: { kind: 'angle', angleDeg: -11 } };
+    // B's copies carry B's writer id and no base (a device that never saw the stored version).
+    const writerB = DEMO.devices[1]!.id;
+    const newer = { ...one!, deviceId: writerB, updatedAt: later(one!.updatedAt, 60_000), value: { kind: 'angle', angleDeg: -11 } };
     const older = { ...one!, updatedAt: later(one!.updatedAt, 30_000), value: { kind: 'angle', angleDeg: -99 } };
-    const tomb = { ...two!, updatedAt: later(two!.updatedAt, 1000), deleted: true };
+    const tomb = { ...two!, deviceId: writerB, updatedAt: later(two!.updatedAt, 1000), deleted: true };
     expect((await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: newer }, { table: 'observations', record: tomb }] })).json).toMatchObject({ replaced: 2 });
     const stale = await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: older }] });
     expect(stale.json).toMatchObject({ keptStored: 1, conflicts: [{ recordId: one!.id, winner: 'stored', reason: 'newer' }] });
@@ -109,6 +120,69 @@ describe.each(BACKENDS)('team server API on %s', (kind) => {
     await h.call('POST', '/v1/push', b.token, { records: [{ table: 'observations', record: tieA }] });
     const final = (await h.call('GET', '/v1/pull?cursor=0', adminToken)).json.records as { record: { id: string; value: unknown } }[];
     expect(final.find((r) => r.record.id === one!.id)!.record.value).toEqual({ kind: 'angle', angleDeg: -30 });
+  });
+
+  it('a push with its base: an edit of the stored version is no conflict; an edit of an older version is, listed once', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Base team');
+    const b = await enrolDevice(h, adminToken, 'clinician');
+    const [writerA, writerB] = DEMO.devices.map((d) => d.id);
+    const [one] = simulatedObservations(1, 3, writerA!);
+    const at = (ms: number) => new Date(Date.parse(one!.updatedAt) + ms).toISOString();
+    const push = (token: string, record: unknown, base: string | null) => h.call('POST', '/v1/push', token, { records: [{ table: 'observations', record, base }] });
+    expect((await push(adminToken, one, null)).json).toMatchObject({ inserted: 1 });
+    // B pulled `one` and edits it: its base is the stored version.
+    const editB = { ...one!, deviceId: writerB!, updatedAt: at(60_000), value: { kind: 'angle', angleDeg: -11 } };
+    expect((await push(b.token, editB, one!.updatedAt)).json).toMatchObject({ replaced: 1, conflicts: [] });
+    // A edited its own first version without seeing B's: stored ≠ base, a real conflict (A's is newer, so it wins).
+    const editA = { ...one!, updatedAt: at(90_000), value: { kind: 'angle', angleDeg: -12 } };
+    expect((await push(adminToken, editA, one!.updatedAt)).json).toMatchObject({ replaced: 1, conflicts: [{ recordId: one!.id, winner: 'incoming', reason: 'newer' }] });
+    // B pulls A's and edits it: ordinary again. A device without bases (base null) that edits a
+    // teammate's version is listed, as before.
+    const editB2 = { ...editA, deviceId: writerB!, updatedAt: at(120_000), value: { kind: 'angle', angleDeg: -13 } };
+    expect((await push(b.token, editB2, editA.updatedAt)).json).toMatchObject({ replaced: 1, conflicts: [] });
+    const noBase = { ...editB2, deviceId: writerA!, updatedAt: at(150_000), value: { kind: 'angle', angleDeg: -14 } };
+    expect((await push(adminToken, noBase, null)).json).toMatchObject({ replaced: 1, conflicts: [{ winner: 'incoming' }] });
+    // The same writer's later version (a retry after a lost reply, whose base was not yet moved): no conflict.
+    const retryA = { ...noBase, updatedAt: at(160_000), value: { kind: 'angle', angleDeg: -15 } };
+    expect((await push(adminToken, retryA, editB2.updatedAt)).json).toMatchObject({ replaced: 1, conflicts: [] });
+    const bad = await h.call('POST', '/v1/push', adminToken, { records: [{ table: 'observations', record: { ...retryA, updatedAt: at(170_000) }, base: 'yesterday' }] });
+    expect(bad.status).toBe(400);
+    expect(bad.json.error).toMatch(/records\[0\].*base: must be null or the ISO updatedAt/);
+    const listed = (await h.call('GET', '/v1/conflicts', b.token)).json.conflicts as { recordId: string }[];
+    expect(listed.length).toBe(2);
+  });
+
+  it('concurrent editors with bases: only the record two devices edited from the same base is a conflict, once', async () => {
+    const { adminToken } = await teamWithAdmin(h, 'Editors team');
+    const devices = await Promise.all(Array.from({ length: 5 }, () => enrolDevice(h, adminToken, 'clinician')));
+    // A writer id for the first author and one for each device (the record's deviceId is its last writer).
+    const writers = simulatedObservations(6, 77, DEMO.devices[0]!.id).map((o) => o.id);
+    const originals = simulatedObservations(40, 21, writers[5]!);
+    await h.call('POST', '/v1/push', adminToken, { records: originals.map((record) => ({ table: 'observations', record, base: null })) });
+    const shared = originals[0]!;
+    // Each device edits 8 records of its own and, all at once, the shared one, each from its base.
+    const results = await Promise.all(
+      devices.map(async (d, i) => {
+        const own = originals.slice(1 + i * 7, 8 + i * 7);
+        const edits = [shared, ...own].map((o, k) => ({
+          table: 'observations',
+          base: o.updatedAt,
+          record: { ...o, deviceId: writers[i]!, updatedAt: new Date(Date.parse(o.updatedAt) + 1000 * (i + 1) + k).toISOString(), value: { kind: 'angle', angleDeg: -20 - i } },
+        }));
+        const res = await h.call('POST', '/v1/push', d.token, { records: edits });
+        expect(res.status, JSON.stringify(res.json)).toBe(200);
+        return res.json as { replaced: number; keptStored: number; conflicts: { recordId: string }[] };
+      }),
+    );
+    // The first pusher's edit of the shared record is ordinary; each later one finds another version
+    // than its base: 4 conflicts, all about the shared record, none about the others.
+    const conflicts = results.flatMap((r) => r.conflicts);
+    expect(conflicts.length).toBe(devices.length - 1);
+    expect(conflicts.every((c) => c.recordId === shared.id)).toBe(true);
+    const stored = (await h.call('GET', '/v1/pull?cursor=0&limit=2000', adminToken)).json.records as { record: { id: string; updatedAt: string } }[];
+    // Newer wins on the shared record whatever the order: the last device's stamp is the latest.
+    const latest = new Date(Date.parse(shared.updatedAt) + 1000 * devices.length).toISOString();
+    expect(stored.find((r) => r.record.id === shared.id)!.record.updatedAt).toBe(latest);
   });
 
   it('teams are apart, and an auditor device gets no identities and no notes and may not push', async () => {

@@ -167,6 +167,29 @@ describe('schema migrations', () => {
     store.close();
   });
 
+  it('v10 → v14: a device-local teamBases table keyed by table/id; records intact', async () => {
+    const factory = new IDBFactory();
+    const old = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });
+    declareSchema(old, 10);
+    await old.open();
+    const { patient, observations } = v1Rows();
+    await old.table('patients').add(patient);
+    await old.table('observations').add({ ...observations[0], takenAt: '2025-01-02T09:00:00.000Z' });
+    expect(old.tables.map((t) => t.name)).not.toContain('teamBases');
+    old.close();
+
+    const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
+    expect(await store.patients.get(ids(1))).toEqual(patient);
+    expect((await store.observations.get(ids(10)))?.value).toEqual(observations[0]!.value);
+    const bases = store.db.table('teamBases');
+    expect(bases.schema.primKey.name).toBe('key');
+    expect(await bases.count()).toBe(0);
+    await bases.put({ key: `patients/${ids(1)}`, updatedAt: stamps.updatedAt });
+    expect(await bases.get(`patients/${ids(1)}`)).toEqual({ key: `patients/${ids(1)}`, updatedAt: stamps.updatedAt });
+    store.close();
+  });
+
   it('refuses a database newer than the app as VersionConflict', async () => {
     const factory = new IDBFactory();
     const future = new Dexie('kinnote', { indexedDB: factory, IDBKeyRange });

@@ -104,6 +104,114 @@ describe('devices in step through the team server (PGlite, in process)', () => {
   });
 });
 
+describe('ordinary edits through the team server are no conflicts (PGlite, in process)', () => {
+  let db: SqlClient;
+  let deps: { fetch: typeof fetch; randomBytes: typeof rb };
+  beforeAll(async () => {
+    db = await openTemplatePglite();
+    await migrate(db);
+    const app = createApp(new TeamService(db), { enrolLimit: 100 });
+    deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+  }, 300_000);
+  afterAll(async () => {
+    await db.close();
+  });
+
+  it('B edits what it pulled, A edits what it pulled back: nothing is listed; edits of one version on both devices are, once per record', async () => {
+    const team = await new TeamService(db).createTeam('Edit team');
+    const a = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9)) });
+    await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+    const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 3)) });
+    await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B' }, deps);
+    const { assessment } = await seedPatient(a);
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    await b.assessments.update(assessment.id, { notes: 'B: second look' });
+    await syncNow(b, deps);
+    const pulledByA = await syncNow(a, deps);
+    expect(pulledByA.conflicts).toEqual([]);
+    expect(await notesOf(a, assessment.id)).toBe('B: second look');
+    await a.assessments.update(assessment.id, { notes: 'A: third look' });
+    // The assessment, its audit entry and the audit entry of the import that brought B's edit: nothing pulled is pushed back.
+    expect((await syncNow(a, deps)).pushed).toBe(3);
+    await syncNow(b, deps);
+    expect(await notesOf(b, assessment.id)).toBe('A: third look');
+    expect((await readTeamLink(a))!.conflicts).toEqual([]);
+    expect((await readTeamLink(b))!.conflicts).toEqual([]);
+    expect((await db.query('SELECT 1 FROM conflicts')).length).toBe(0);
+
+    // Now both edit the version they share: one real conflict, listed on both devices.
+    await a.assessments.update(assessment.id, { notes: 'A: offline' });
+    await b.assessments.update(assessment.id, { notes: 'B: offline, later' });
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    await syncNow(a, deps);
+    expect(await notesOf(a, assessment.id)).toBe('B: offline, later');
+    expect(await notesOf(b, assessment.id)).toBe('B: offline, later');
+    for (const device of [a, b]) {
+      const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
+      expect(listed.length, JSON.stringify(listed)).toBe(1);
+    }
+    // Again, B syncing first: whichever copy is newer, the conflict is listed once per device (from the
+    // server), not a second time when a pull brings the server's copy.
+    await a.assessments.update(assessment.id, { notes: 'A: offline again' });
+    await b.assessments.update(assessment.id, { notes: 'B: offline again, later' });
+    await syncNow(b, deps);
+    await syncNow(a, deps);
+    await syncNow(b, deps);
+    expect(await notesOf(a, assessment.id)).toBe(await notesOf(b, assessment.id));
+    for (const device of [a, b]) {
+      const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
+      expect(listed.length, JSON.stringify(listed)).toBe(2);
+    }
+  });
+});
+
+describe('a device whose clock is 25 minutes behind its team (PGlite, in process)', () => {
+  it('takes its teammates\' records, stamps its own by the server\'s clock, and its edit wins as the later one', { timeout: 300_000 }, async () => {
+    const db = await openTemplatePglite();
+    await migrate(db);
+    try {
+      // The server and tablet A keep real time; tablet B's clock runs 25 minutes slow and drifts
+      // (jitter of up to ±300 ms on every reading), as a tablet that never set its clock.
+      const service = new TeamService(db);
+      const app = createApp(service, { enrolLimit: 100 });
+      const deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+      const behindMs = 25 * 60_000;
+      const a = await freshStore({ now: () => Date.now() });
+      const b = await freshStore({ now: () => Date.now() - behindMs + Math.round((Math.random() - 0.5) * 600) });
+      const team = await service.createTeam('Clock team');
+      await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+      await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B (slow clock)' }, deps);
+      expect(Math.abs(b.clock.offsetMs - behindMs)).toBeLessThan(5000);
+      expect(a.clock.offsetMs).toBe(0); // within the noise tolerance: A's own clock is kept
+
+      // A's records are stamped 25 minutes after B's own clock: B takes them (the check uses team time).
+      const { assessment } = await seedPatient(a);
+      await syncNow(a, deps);
+      await syncNow(b, deps);
+      expect(await notesOf(b, assessment.id)).toBe('Invented note: stiffer in the cold');
+
+      // B's edit comes after A's in real time, and is stamped so: it wins on both, listed nowhere.
+      await b.assessments.update(assessment.id, { notes: 'B: later look' });
+      const edited = await b.assessments.get(assessment.id);
+      expect(Math.abs(Date.parse(edited!.updatedAt) - Date.now())).toBeLessThan(10_000);
+      const created = await b.patients.create({ code: 'QW3E-7RTY', birthYear: 1950, condition: 'stroke', affectedSides: ['right'], status: 'active' });
+      expect(Math.abs(Date.parse(created.createdAt) - Date.now())).toBeLessThan(10_000);
+      await syncNow(b, deps);
+      await syncNow(a, deps);
+      expect(await notesOf(a, assessment.id)).toBe('B: later look');
+      expect(await a.patients.get(created.id)).toBeDefined();
+      expect((await readTeamLink(a))!.conflicts).toEqual([]);
+      expect((await readTeamLink(b))!.conflicts).toEqual([]);
+      // The offset is kept on the device: a reopened store stamps by it without the network.
+      expect(await b.db.table('meta').get('local:clock-offset')).toMatchObject({ value: b.clock.offsetMs });
+    } finally {
+      await db.close();
+    }
+  });
+});
+
 describe('kinnote cohort --server', () => {
   it('reads the whole team from the server with a device token, and writes no name or note', { timeout: 400_000 }, async () => {
     const { mkdtempSync, readdirSync, readFileSync } = await import('node:fs');

@@ -1,4 +1,7 @@
-import { PATIENT_LANGUAGES, durationWords, isPatientLanguage, type DosePart, type PatientLanguage } from '$lib/programme';
+// By their own paths: the first screen loads these messages, and the folder's door would bring the
+// whole programme folder (and the store's import) into the first load.
+import { durationWords, type DosePart } from '$lib/programme/dose-parts';
+import { PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from '$lib/programme/patient-language';
 
 /**
  * Every word a patient reads on their own phone, in each language the phone speaks. English is the

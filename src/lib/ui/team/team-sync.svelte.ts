@@ -1,5 +1,6 @@
 import { liveQuery, type KinnoteStore } from '$lib/store';
-import { readTeamLink, rowsChangedSince, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
+import { explainBlockedTeamServer, pagePolicy } from '$lib/security/team-server-reach';
+import { countWaiting, isRevoked, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
 
 /** How soon after a save the changes go to the team (a burst of saves makes one sync). */
 const AFTER_SAVE_MS = 4000;
@@ -7,6 +8,7 @@ const AFTER_SAVE_MS = 4000;
 const deps = () => ({
   fetch: (input: RequestInfo | URL, init?: RequestInit) => globalThis.fetch(input, init),
   randomBytes: (n: number) => globalThis.crypto.getRandomValues(new Uint8Array(n)),
+  explainUnreachable: (serverUrl: string) => explainBlockedTeamServer(serverUrl, pagePolicy(), globalThis.location.origin),
 });
 
 /**
@@ -53,11 +55,7 @@ class TeamSyncRunner {
       this.waiting = 0;
       return;
     }
-    let n = 0;
-    for (const table of ['patients', 'identities', 'events', 'assessments', 'observations', 'traces'] as const) {
-      n += await rowsChangedSince(store, table, link.pushedThrough).count();
-    }
-    this.waiting = n;
+    this.waiting = await countWaiting(store, link);
   }
 
   async sync(): Promise<void> {
@@ -78,7 +76,11 @@ class TeamSyncRunner {
       await syncNow(store, deps());
       this.lastError = null;
     } catch (error) {
-      this.lastError = error instanceof TeamSyncError && error.status === null ? 'Offline: changes wait on this device.' : (error as Error).message;
+      this.lastError = isRevoked(error)
+        ? 'A team admin revoked this device: it no longer syncs. Everything recorded here stays on this device; save a backup, or leave the team below.'
+        : error instanceof TeamSyncError && error.status === null && /cannot be reached/.test(error.message)
+          ? 'Offline: changes wait on this device.'
+          : (error as Error).message;
     } finally {
       this.busy = false;
       await this.refresh();
