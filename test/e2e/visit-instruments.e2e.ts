@@ -85,19 +85,12 @@ describe('instruments inside the visit', () => {
     await instruments.getByText(/^Pendulum from a file, left knee: R2 1\.66/).waitFor();
 
     // The reading waits in the visit's draft: a reload (offline) brings it back with the grade.
-    await page.waitForFunction(async () => {
-      const rows = await new Promise<Array<{ form: string; content: { readings?: unknown[] } }>>((resolve) => {
-        const open = indexedDB.open('kinnote');
-        open.onsuccess = () => {
-          const request = open.result.transaction('drafts', 'readonly').objectStore('drafts').getAll();
-          request.onsuccess = () => {
-            open.result.close();
-            resolve(request.result as Array<{ form: string; content: { readings?: unknown[] } }>);
-          };
-        };
-      });
-      return rows.some((r) => r.form === 'assessment' && (r.content.readings?.length ?? 0) === 1);
-    }, undefined, { timeout: 10_000, polling: 100 });
+    // Polled from the test: page.waitForFunction takes a returned Promise as "true" at once, so an
+    // async predicate there never waited (the cause of this step's earlier failures: the reload came
+    // before the draft held the reading).
+    await expect
+      .poll(async () => (await tableRows<{ form: string; content: { readings?: unknown[] } }>(page, 'drafts')).filter((r) => r.form === 'assessment').map((r) => r.content.readings?.length ?? 0), { timeout: 10_000, interval: 100 })
+      .toEqual([1]);
     await page.reload();
     await page.getByText(/Draft restored from/).waitFor();
     try {
