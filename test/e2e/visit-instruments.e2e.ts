@@ -85,19 +85,12 @@ describe('instruments inside the visit', () => {
     await instruments.getByText(/^Pendulum from a file, left knee: R2 1\.66/).waitFor();
 
     // The reading waits in the visit's draft: a reload (offline) brings it back with the grade.
-    await page.waitForFunction(async () => {
-      const rows = await new Promise<Array<{ form: string; content: { readings?: unknown[] } }>>((resolve) => {
-        const open = indexedDB.open('kinnote');
-        open.onsuccess = () => {
-          const request = open.result.transaction('drafts', 'readonly').objectStore('drafts').getAll();
-          request.onsuccess = () => {
-            open.result.close();
-            resolve(request.result as Array<{ form: string; content: { readings?: unknown[] } }>);
-          };
-        };
-      });
-      return rows.some((r) => r.form === 'assessment' && (r.content.readings?.length ?? 0) === 1);
-    }, undefined, { timeout: 10_000, polling: 100 });
+    // Polled from the test: page.waitForFunction takes a returned Promise as "true" at once, so an
+    // async predicate there never waited (the cause of this step's earlier failures: the reload came
+    // before the draft held the reading).
+    await expect
+      .poll(async () => (await tableRows<{ form: string; content: { readings?: unknown[] } }>(page, 'drafts')).filter((r) => r.form === 'assessment').map((r) => r.content.readings?.length ?? 0), { timeout: 10_000, interval: 100 })
+      .toEqual([1]);
     await page.reload();
     await page.getByText(/Draft restored from/).waitFor();
     try {
@@ -173,6 +166,49 @@ describe('instruments inside the visit', () => {
     await screenshot(page, 'visit-instruments-patient-1024');
     await page.setViewportSize(smallPhone);
     await screenshot(page, 'visit-instruments-patient-360');
+    await context.close();
+  });
+
+  it('a reading the restored draft cannot read is named in the visit, never dropped silently', async () => {
+    const context = await newAppContext(browser, { viewport: smallPhone });
+    const page = await context.newPage();
+    await setUpDevice(page, { demo: false });
+    await page.goto('/patients/new');
+    await page.getByLabel('Birth year').fill('1961');
+    await page.getByLabel('Right').check();
+    await page.getByRole('button', { name: 'Add patient' }).click();
+    await page.getByRole('link', { name: 'New assessment' }).waitFor();
+    const patientId = new URL(page.url()).pathname.split('/')[2] as string;
+    // A draft left by a closed tab, written by hand: its one reading lost its samples (as a damaged store might).
+    const broken = { key: 'r1', title: 'Pendulum from a file, right knee: R2 1.40', instrument: 'pendulum-file', observations: [], skipped: [], trace: { kind: 'pendulum-knee-angle', startedAt: '2026-12-03T09:00:00.000Z', sampleRateHz: 100, channels: [{ name: 'knee', unit: 'deg' }] } };
+    const draft = { version: 1, patientId, performedAtLocal: '', setting: 'home', position: '', minutesSinceMedication: '', painNrs: '', mas: [], tardieu: [], rom: [], pennFrequency: 2, spasmSeverity: null, notTested: [] };
+    await page.evaluate(
+      (row) =>
+        new Promise<void>((resolve, reject) => {
+          const open = indexedDB.open('kinnote');
+          open.onsuccess = () => {
+            const tx = open.result.transaction('drafts', 'readwrite');
+            tx.objectStore('drafts').put(row);
+            tx.oncomplete = () => {
+              open.result.close();
+              resolve();
+            };
+            tx.onerror = () => reject(tx.error);
+          };
+        }),
+      { id: `assessment:${patientId}:closed-tab`, form: 'assessment', subjectId: patientId, tabId: 'closed-tab', savedAtMs: Date.now(), content: { draft, sealedNotes: null, readings: [broken] } },
+    );
+    await page.getByRole('link', { name: 'New assessment' }).click();
+    await page.getByText(/Draft restored from/).waitFor();
+    const alert = page.locator('section', { has: page.getByRole('heading', { name: 'Instruments', exact: true }) }).getByRole('alert');
+    await alert.waitFor();
+    expect(await alert.textContent()).toContain('Pendulum from a file, right knee: R2 1.40 (channel 1 has no sample list)');
+    expect(await alert.textContent()).toContain('not in this visit and will not be saved with it');
+    await screenshot(page, 'visit-instruments-unreadable-360');
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    // Still in the draft as stored (the write-back itself is checked in test/unit/ui/draft-keeper.test.ts).
+    const rows = await tableRows<{ form: string; content: { readings: unknown[] } }>(page, 'drafts');
+    expect(rows.filter((r) => r.form === 'assessment').map((r) => r.content.readings)).toEqual([[broken]]);
     await context.close();
   });
 });

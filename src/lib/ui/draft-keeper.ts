@@ -212,10 +212,18 @@ export class DraftKeeper<T> {
     await discardDraft(this.#store, id);
   }
 
-  /** Notes a change; the latest values are written at most `delayMs` later. */
-  schedule(value: T): void {
+  /**
+   * Notes a change; the latest values are written at most `delayMs` later, or at once with `now` (for a
+   * change that is costly to redo, e.g. an instrument reading: a page closed or reloaded within the
+   * delay would lose it, since a write begun while the page goes away may never land).
+   */
+  schedule(value: T, now = false): void {
     if (this.#stopped || this.#closed) return;
     this.#latest = { value };
+    if (now && !this.#paused) {
+      void this.flush();
+      return;
+    }
     if (this.#paused || this.#timer !== null) return;
     this.#timer = this.#env.setTimeout(() => {
       this.#timer = null;

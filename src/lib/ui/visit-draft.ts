@@ -1,7 +1,7 @@
 import type { KinnoteStore } from '$lib/store';
 import type { AssessmentDraft } from './assessment-draft';
-import { DraftKeeper } from './draft-keeper';
-import { readingsFromDraft, type VisitReading } from './visit-readings';
+import { DraftKeeper, type DraftEnvironment } from './draft-keeper';
+import { readingsFromDraft, type UnreadableReading, type VisitReading } from './visit-readings';
 
 /**
  * What the visit form's draft keeps: the form, the notes as last sealed (kept as they are while the
@@ -11,6 +11,8 @@ export interface KeptVisit {
   readonly form: AssessmentDraft;
   readonly sealed: unknown;
   readonly readings: readonly VisitReading[];
+  /** Readings in the stored draft that could not be read: shown by name, written back unchanged. */
+  readonly unreadable: readonly UnreadableReading[];
 }
 
 type DraftVault = KinnoteStore['vault'];
@@ -25,18 +27,20 @@ export function visitDraftKeeper(options: {
   vault: () => DraftVault | null;
   onSealed: (sealed: unknown) => void;
   onError: (error: unknown) => void;
+  /** Tests pass their own (the browser's by default). */
+  environment?: DraftEnvironment;
 }): DraftKeeper<KeptVisit> {
   const { patientId } = options;
   return new DraftKeeper<KeptVisit>({
     form: options.amendId ? 'assessment-amend' : 'assessment',
     subjectId: options.amendId ?? patientId,
-    encode: async ({ form, sealed, readings }) => {
+    encode: async ({ form, sealed, readings, unreadable }) => {
       const { notes, ...rest } = form;
       const vault = options.vault();
       let kept = sealed;
       if (vault?.status === 'unlocked') kept = notes ? await vault.seal(notes, `draft:${patientId}`) : null;
       options.onSealed(kept);
-      return { draft: rest, sealedNotes: kept, readings };
+      return { draft: rest, sealedNotes: kept, readings: [...readings, ...unreadable.map((u) => u.stored)] };
     },
     decode: async (content) => {
       const c = content as { draft?: Omit<AssessmentDraft, 'notes'>; sealedNotes?: unknown; readings?: unknown } | null;
@@ -50,9 +54,11 @@ export function visitDraftKeeper(options: {
           notes = '';
         }
       }
-      return { form: { ...c.draft, notes } as AssessmentDraft, sealed: c.sealedNotes ?? null, readings: readingsFromDraft(c.readings) };
+      const { readings, unreadable } = readingsFromDraft(c.readings);
+      return { form: { ...c.draft, notes } as AssessmentDraft, sealed: c.sealedNotes ?? null, readings, unreadable };
     },
     onError: options.onError,
+    ...(options.environment ? { environment: options.environment } : {}),
   });
 }
 

@@ -96,23 +96,47 @@ export function repeatedReadings(readings: readonly VisitReading[], formObservat
   return repeats;
 }
 
-/** Reads readings back from a stored draft; anything malformed is dropped (the form then shows what is left). */
-export function readingsFromDraft(content: unknown): VisitReading[] {
-  if (!Array.isArray(content)) return [];
-  return content.filter((r): r is VisitReading => {
-    const x = r as Partial<VisitReading> | null;
-    return (
-      typeof x?.key === 'string' &&
-      typeof x.title === 'string' &&
-      x.instrument !== undefined &&
-      x.instrument in INSTRUMENT_LABELS &&
-      Array.isArray(x.observations) &&
-      Array.isArray(x.skipped) &&
-      typeof x.trace?.startedAt === 'string' &&
-      Array.isArray(x.trace.channels) &&
-      x.trace.channels.every((c) => Array.isArray(c?.samples))
-    );
+/** A reading in a stored draft that cannot be read back: named for the person, kept as it was in the draft. */
+export interface UnreadableReading {
+  /** The reading's own title when it has one, else its place ("reading 2"). */
+  readonly name: string;
+  /** What is wrong with it, e.g. "channel 1 has no sample list". */
+  readonly problem: string;
+  /** The stored value, unchanged (written back to the draft so that nothing is lost by reading it). */
+  readonly stored: unknown;
+}
+
+/** Why a stored reading cannot be used, or null when it can. */
+function readingProblem(x: Partial<VisitReading> | null): string | null {
+  if (typeof x !== 'object' || x === null) return 'not a reading';
+  if (typeof x.key !== 'string') return 'no key';
+  if (typeof x.title !== 'string') return 'no title';
+  if (typeof x.instrument !== 'string' || !Object.hasOwn(INSTRUMENT_LABELS, x.instrument)) return `unknown instrument ${JSON.stringify(x.instrument)}`;
+  if (!Array.isArray(x.observations)) return 'no observation list';
+  if (!Array.isArray(x.skipped)) return 'no list of values left out';
+  if (typeof x.trace?.startedAt !== 'string') return 'the trace has no start time';
+  if (!Array.isArray(x.trace.channels)) return 'the trace has no channel list';
+  const bad = x.trace.channels.findIndex((c) => !Array.isArray(c?.samples));
+  return bad >= 0 ? `channel ${bad + 1} has no sample list` : null;
+}
+
+/**
+ * Reads readings back from a stored draft. A reading that cannot be read is never dropped silently:
+ * it comes back in `unreadable`, named (its title, else its place) with what is wrong, for the form
+ * to tell the person, and kept as stored.
+ */
+export function readingsFromDraft(content: unknown): { readings: VisitReading[]; unreadable: UnreadableReading[] } {
+  const readings: VisitReading[] = [];
+  const unreadable: UnreadableReading[] = [];
+  if (content === undefined || content === null) return { readings, unreadable };
+  if (!Array.isArray(content)) return { readings, unreadable: [{ name: 'the readings', problem: 'not a list', stored: content }] };
+  content.forEach((stored: unknown, n) => {
+    const x = stored as Partial<VisitReading> | null;
+    const problem = readingProblem(x);
+    if (problem === null) readings.push(x as VisitReading);
+    else unreadable.push({ name: typeof x?.title === 'string' && x.title !== '' ? x.title : `reading ${n + 1}`, problem, stored });
   });
+  return { readings, unreadable };
 }
 
 /**

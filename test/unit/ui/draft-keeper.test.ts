@@ -1,7 +1,9 @@
-import { describe, expect, it } from 'vitest';
-import { draftsFor, saveAssessment, type KinnoteStore } from '../../../src/lib/store';
+import { describe, expect, it, vi } from 'vitest';
+import { draftsFor, saveAssessment, writeDraft, type KinnoteStore } from '../../../src/lib/store';
 import { DraftKeeper, type DraftEnvironment } from '../../../src/lib/ui/draft-keeper';
 import { ordinalValue } from '../../../src/lib/domain';
+import { emptyDraft } from '../../../src/lib/ui/assessment-draft';
+import { visitDraftKeeper } from '../../../src/lib/ui/visit-draft';
 import { freshStore } from '../store/store-helpers';
 
 /** One browser tab: its own sessionStorage, a hand-driven timer queue, and a shared lock table. */
@@ -94,6 +96,36 @@ describe('DraftKeeper', () => {
     await settle(kb);
     const kept = await draftsFor(store, 'assessment', 'p1');
     expect(Object.fromEntries(kept.map((d) => [d.id, d.content]))).toEqual({ [ka.id!]: { grade: '3' }, [kb.id!]: { grade: '0' } });
+  });
+
+  it('a change marked "now" (an instrument reading) is written at once, not when the timer fires', async () => {
+    // A page reloaded or closed within the delay lost a reading: the write begun at pagehide may never land.
+    const store = await freshStore();
+    const a = tab(new Set<string>(), 'a');
+    const keeper = keeperFor(store, a.environment, 'p1');
+    await keeper.start(store);
+    keeper.schedule({ grade: '1' });
+    keeper.schedule({ grade: '1 + reading' }, true);
+    // The timer never fires here: only a write started at once can land.
+    await vi.waitFor(async () => expect((await draftsFor(store, 'assessment', 'p1')).map((d) => d.content)).toEqual([{ grade: '1 + reading' }]));
+  });
+
+  it('the visit draft keeps a reading it cannot read as stored, and names it on restore', async () => {
+    const store = await freshStore();
+    const a = tab(new Set<string>(), 'a');
+    const broken = { key: 'r1', title: 'Pendulum from a file, left knee: R2 1.66', instrument: 'pendulum-file', observations: [], skipped: [], trace: { startedAt: '2026-12-03T12:00:00.000Z', channels: [{ name: 'knee', unit: 'deg' }] } };
+    const { notes: _notes, ...form } = emptyDraft('p1', '');
+    await writeDraft(store, { form: 'assessment', subjectId: 'p1', tabId: 'gone', savedAtMs: 5, content: { draft: form, sealedNotes: null, readings: [broken] } });
+    const k1 = visitDraftKeeper({ patientId: 'p1', amendId: null, vault: () => null, onSealed: () => {}, onError: (e) => { throw e; }, environment: a.environment });
+    const start = await k1.start(store);
+    expect(start.restored?.value.readings).toEqual([]);
+    expect(start.restored?.value.unreadable.map((u) => [u.name, u.problem])).toEqual([['Pendulum from a file, left knee: R2 1.66', 'channel 1 has no sample list']]);
+    // Written again (the person typed on): the unreadable reading is still in the draft, unchanged.
+    k1.schedule(start.restored!.value);
+    a.tick();
+    await k1.flush();
+    const rows = await draftsFor(store, 'assessment', 'p1');
+    expect(rows.map((r) => [r.id, (r.content as { readings: unknown[] }).readings])).toEqual([[k1.id, [broken]]]);
   });
 
   it('a save with the keeper paused removes the draft, and no late write brings it back', async () => {

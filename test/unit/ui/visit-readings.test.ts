@@ -44,7 +44,7 @@ describe('a visit with a form grade, a phone pendulum test and an inclinometer r
     const { reading: pendulum, recording } = phoneReading('r1');
     const readings = throughDraft([pendulum, incline('r2')]);
     const performedAt = '2026-11-20T10:00:00.000Z';
-    const fromReadings = readingSaveInputs(readingsFromDraft(readings), patient.id, performedAt);
+    const fromReadings = readingSaveInputs(readingsFromDraft(readings).readings, patient.id, performedAt);
     const mas = { measureCode: 'mas', siteCode: 'knee-extensors', side: 'right' as const, mode: null, instrument: null, value: { kind: 'ordinal' as const, grade: '1+', rank: 2 } };
     const saved = await saveAssessment(
       store,
@@ -96,10 +96,23 @@ describe('repeatedReadings', () => {
 });
 
 describe('readingsFromDraft', () => {
-  it('keeps well-formed readings and drops anything else', () => {
+  it('keeps well-formed readings and names every other one with what is wrong, never dropping it silently', () => {
     const good = throughDraft(incline('ok'));
-    expect(readingsFromDraft([good, null, { key: 'x' }, { ...good, instrument: 'stopwatch' }, { ...good, trace: { ...good.trace, channels: [{ name: 'a', unit: 'deg', samples: 'no' }] } }]).map((r) => r.key)).toEqual(['ok']);
-    expect(readingsFromDraft(undefined)).toEqual([]);
+    const badSamples = { ...good, title: 'Inclinometer, bent', trace: { ...good.trace, channels: [{ name: 'a', unit: 'deg', samples: 'no' }] } };
+    const stored = [good, null, { key: 'x' }, { ...good, title: 'A stopwatch reading', instrument: 'stopwatch' }, badSamples];
+    const { readings, unreadable } = readingsFromDraft(stored);
+    expect(readings.map((r) => r.key)).toEqual(['ok']);
+    // Names and problems written by hand: the title when there is one, else the reading's place.
+    expect(unreadable.map((u) => [u.name, u.problem])).toEqual([
+      ['reading 2', 'not a reading'],
+      ['reading 3', 'no title'],
+      ['A stopwatch reading', 'unknown instrument "stopwatch"'],
+      ['Inclinometer, bent', 'channel 1 has no sample list'],
+    ]);
+    // Kept exactly as stored, so that writing the draft again loses nothing.
+    expect(unreadable.map((u) => u.stored)).toEqual(stored.slice(1));
+    expect(readingsFromDraft(undefined)).toEqual({ readings: [], unreadable: [] });
+    expect(readingsFromDraft({ not: 'a list' }).unreadable.map((u) => u.problem)).toEqual(['not a list']);
   });
 });
 

@@ -2,7 +2,7 @@ import { tick } from 'svelte';
 import { findMeasure, findSite, type Observation } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
 import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue } from '$lib/ui/assessment-draft';
-import { repeatedReadings, type VisitReading } from '$lib/ui/visit-readings';
+import { repeatedReadings, type UnreadableReading, type VisitReading } from '$lib/ui/visit-readings';
 import { lastTimeText, localNow } from './visit-words';
 
 
@@ -15,6 +15,8 @@ export class VisitForm {
   readonly amendId: string | null;
   draft = $state<AssessmentDraft>() as AssessmentDraft;
   readings = $state.raw<readonly VisitReading[]>([]);
+  /** Readings in the restored draft that could not be read (named to the person, never saved). */
+  unreadable = $state.raw<readonly UnreadableReading[]>([]);
   amendReason = $state('');
   showIssues = $state(false);
   /** The latest observation of each series, for "last time" beside each row. */
