@@ -123,6 +123,8 @@ export async function tableRows<T = Record<string, unknown>>(page: Page, table: 
  * add and fill its own rows on a patient with history (the carried rows would otherwise ask for values).
  */
 export async function markCarriedTestsNotTested(page: Page): Promise<void> {
+  // The carried tests are laid out once the last visit is read: count them only after that.
+  await page.locator('form.assessment[aria-busy="false"]').waitFor();
   const buttons = page.getByRole('button', { name: 'Not tested today' });
   const count = await buttons.count();
   for (let i = 0; i < count; i++) {
