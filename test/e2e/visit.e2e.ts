@@ -2,8 +2,9 @@
 // (carry forward), counted in taps on a phone and a tablet, offline; error summary and Enter.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
+import { join } from 'node:path';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
+import { launchChromium, newAppContext, phone, screenshot, screenshotDir, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -142,7 +143,18 @@ describe('a follow-up home visit carries the last visit forward', () => {
       await review.getByRole('heading', { name: 'Check before saving' }).waitFor();
       expect(await page.evaluate(() => document.activeElement?.id)).toBe('review-heading');
       expect(await review.locator('li').count()).toBe(8);
+      // Modified Ashworth moves one grade step at the ankle (1+ → 1), hamstrings (2 → 1+) and hip (1 → 0):
+      // each at least the one-step threshold for ordinal grades (common practice); the quadriceps stay at 1.
+      const beyondAshworth = await review.locator('li.beyond', { hasText: 'Modified Ashworth' }).locator('.title').allTextContents();
+      expect(beyondAshworth.map((t) => t.split(' · ')[0])).toEqual(['Left ankle plantarflexors', 'Left knee flexors (hamstrings)', 'Left hip adductors']);
       await screenshot(page, `visit-review-${size}`);
+      // What the person sees at that moment (not the whole page): the review's heading in view, not under the save bar.
+      await page.screenshot({ path: join(screenshotDir, `visit-review-view-${size}.png`) });
+      const headingBox = await review.getByRole('heading', { name: 'Check before saving' }).boundingBox();
+      const barBox = await review.locator('.save-bar').boundingBox();
+      const where = JSON.stringify({ headingBox, barBox });
+      expect(headingBox && barBox && headingBox.y + headingBox.height <= barBox.y, where).toBe(true);
+      expect(headingBox && headingBox.y >= 0 && headingBox.y < (page.viewportSize()?.height ?? 0), where).toBe(true);
       expect(await seriousAxeViolations(page)).toEqual([]);
       await after.tap(review.getByRole('button', { name: 'Save visit' }));
       await page.getByText('Assessment saved.').waitFor();
