@@ -188,6 +188,7 @@ describe('browser killed with SIGKILL, restarted on the same profile', () => {
       await mas.locator('.entry').last().getByRole('radio', { name: '1+', exact: true }).check();
       await minutesField(page).fill(String(marker));
       await page.getByRole('button', { name: 'Save assessment' }).click();
+      await page.getByRole('button', { name: 'Save visit' }).click();
       await delay(waitMs);
       await killBrowser();
 
@@ -211,6 +212,7 @@ describe('browser killed with SIGKILL, restarted on the same profile', () => {
         await page.getByText(/Draft restored/).waitFor();
         expect(await minutesField(page).inputValue()).toBe(String(marker));
         await page.getByRole('button', { name: 'Save assessment' }).click();
+        await page.getByRole('button', { name: 'Save visit' }).click();
         await page.getByText('Assessment saved.').waitFor();
         saved = (await marked()).length;
         expect(saved).toBe(1);

@@ -64,6 +64,7 @@ async function addPatientWithHistory(page: Page): Promise<string> {
   await mas.getByLabel('Muscle group').selectOption('knee-extensors');
   await mas.getByRole('radio', { name: '1', exact: true }).click();
   await page.getByRole('button', { name: 'Save assessment' }).click();
+  await page.getByRole('button', { name: 'Save visit' }).click();
   await page.getByText('Assessment saved.').waitFor();
   return path;
 }
@@ -145,6 +146,7 @@ describe('events are amended and deleted like visits', () => {
     await page.locator('textarea#notes').fill('Invented: calf tight after the drive');
     await page.getByLabel('Reason for the amendment').fill('note left out at the visit');
     await page.getByRole('button', { name: 'Save the amendment' }).click();
+    await page.getByRole('button', { name: 'Save the amended visit' }).click();
     await page.getByText('Amendment saved; the audit keeps the old values and the reason.').waitFor();
     await expect.poll(() => visits.locator('li').first().innerText()).toMatch(/· amended/);
     const noteAudit = (await tableRows<Audit>(page, 'audit')).filter((e) => e.note === 'amended: note left out at the visit');

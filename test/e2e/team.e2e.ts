@@ -136,6 +136,7 @@ async function addAssessment(page: Page, note: string): Promise<void> {
   await mas.getByRole('radio', { name: '1+', exact: true }).check();
   await page.getByRole('textbox', { name: 'Notes', exact: true }).fill(note);
   await page.getByRole('button', { name: 'Save assessment' }).click();
+  await page.getByRole('button', { name: 'Save visit' }).click();
   await page.getByText('Assessment saved.').waitFor();
 }
 

@@ -87,6 +87,7 @@ describe('therapist on a home visit', () => {
       await expect.poll(() => page.getByRole('textbox', { name: 'Notes', exact: true }).inputValue()).toBe('Invented note: calf tighter after a long walk');
 
       await page.getByRole('button', { name: 'Save assessment' }).click();
+      await page.getByRole('button', { name: 'Save visit' }).click();
       await page.getByText('Assessment saved.').waitFor();
       await page.reload();
       await page.getByRole('heading', { name: 'Change since baseline' }).waitFor();

@@ -209,6 +209,7 @@ describe('two tabs on the same patient', () => {
 
     await holdTable(tabA, 'assessments');
     await tabA.getByRole('button', { name: 'Save assessment' }).click();
+    await tabA.getByRole('button', { name: 'Save visit' }).click();
     await tabA.getByRole('button', { name: 'Saving…' }).waitFor();
     await minutes().fill('45');
     await release(tabA);

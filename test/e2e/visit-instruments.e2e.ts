@@ -135,6 +135,7 @@ describe('instruments inside the visit', () => {
 
     // 3. Saved as one visit.
     await page.getByRole('button', { name: 'Save assessment' }).click();
+    await page.getByRole('button', { name: 'Save visit' }).click();
     await page.getByText('Assessment saved.').waitFor();
     const assessments = (await tableRows<Row>(page, 'assessments')).filter((a) => !a.deleted);
     expect(assessments.length).toBe(1);

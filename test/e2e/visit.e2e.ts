@@ -2,8 +2,9 @@
 // (carry forward), counted in taps on a phone and a tablet, offline; error summary and Enter.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
+import { join } from 'node:path';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
+import { launchChromium, newAppContext, phone, screenshot, screenshotDir, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -47,10 +48,10 @@ async function addPatient(page: Page): Promise<string> {
   return new URL(page.url()).pathname;
 }
 
-/** From the app's first screen to the empty visit form of the only patient. */
+/** From the app's first screen (the caseload, once the device is set up) to the visit form of the only patient. */
 async function openVisit(page: Page, t: Taps): Promise<void> {
   await page.goto('/');
-  await t.tap(page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Caseload' }));
+  await page.getByRole('heading', { name: 'Caseload', level: 1 }).waitFor();
   await t.tap(page.locator('a.row').first());
   await t.tap(page.getByRole('link', { name: 'New assessment' }));
   await page.getByRole('heading', { name: /New assessment/ }).waitFor();
@@ -128,6 +129,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
       await openVisit(page, before);
       await firstVisitByHand(page, before);
       await before.tap(page.getByRole('button', { name: 'Save assessment' }));
+      await before.tap(page.getByRole('button', { name: 'Save visit' }));
       await page.getByText('Assessment saved.').waitFor();
 
       const after = new Taps();
@@ -136,6 +138,25 @@ describe('a follow-up home visit carries the last visit forward', () => {
       await screenshot(page, `visit-follow-up-${size}`);
       expect(await seriousAxeViolations(page)).toEqual([]);
       await after.tap(page.getByRole('button', { name: 'Save assessment' }));
+      // The review before saving, in place: focus on its heading, last time → today for each test.
+      const review = page.locator('section.review');
+      await review.getByRole('heading', { name: 'Check before saving' }).waitFor();
+      expect(await page.evaluate(() => document.activeElement?.id)).toBe('review-heading');
+      expect(await review.locator('li').count()).toBe(8);
+      // Modified Ashworth moves one grade step at the ankle (1+ → 1), hamstrings (2 → 1+) and hip (1 → 0):
+      // each at least the one-step threshold for ordinal grades (common practice); the quadriceps stay at 1.
+      const beyondAshworth = await review.locator('li.beyond', { hasText: 'Modified Ashworth' }).locator('.title').allTextContents();
+      expect(beyondAshworth.map((t) => t.split(' · ')[0])).toEqual(['Left ankle plantarflexors', 'Left knee flexors (hamstrings)', 'Left hip adductors']);
+      await screenshot(page, `visit-review-${size}`);
+      // What the person sees at that moment (not the whole page): the review's heading in view, not under the save bar.
+      await page.screenshot({ path: join(screenshotDir, `visit-review-view-${size}.png`) });
+      const headingBox = await review.getByRole('heading', { name: 'Check before saving' }).boundingBox();
+      const barBox = await review.locator('.save-bar').boundingBox();
+      const where = JSON.stringify({ headingBox, barBox });
+      expect(headingBox && barBox && headingBox.y + headingBox.height <= barBox.y, where).toBe(true);
+      expect(headingBox && headingBox.y >= 0 && headingBox.y < (page.viewportSize()?.height ?? 0), where).toBe(true);
+      expect(await seriousAxeViolations(page)).toEqual([]);
+      await after.tap(review.getByRole('button', { name: 'Save visit' }));
       await page.getByText('Assessment saved.').waitFor();
 
       console.log(`[visit taps, ${size}] first visit by hand: ${before.taps} taps + ${before.digits} digits; follow-up carried forward: ${after.taps} taps + ${after.digits} digits (from opening the app to saved)`);
@@ -163,6 +184,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
     await openVisit(page, first);
     await firstVisitByHand(page, first);
     await page.getByRole('button', { name: 'Save assessment' }).click();
+    await page.getByRole('button', { name: 'Save visit' }).click();
     await page.getByText('Assessment saved.').waitFor();
     await openVisit(page, new Taps());
 
@@ -172,6 +194,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
     await tardieu.getByLabel('R1, fast (°)').press('Enter');
     await expect.poll(() => page.getByRole('heading', { name: /New assessment/ }).count()).toBe(1);
     expect(await page.getByText('Assessment saved.').count()).toBe(0);
+    expect(await page.getByRole('heading', { name: 'Check before saving' }).count()).toBe(0);
 
     // One grade chosen shows its definition under the control, without hovering.
     const mas = section(page, 'Modified Ashworth');
@@ -214,6 +237,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
     await openVisit(page, new Taps());
     await firstVisitByHand(page, new Taps());
     await page.getByRole('button', { name: 'Save assessment' }).click();
+    await page.getByRole('button', { name: 'Save visit' }).click();
     await page.getByText('Assessment saved.').waitFor();
 
     await page.getByRole('link', { name: /Open or amend the visit of/ }).click();
@@ -230,6 +254,12 @@ describe('a follow-up home visit carries the last visit forward', () => {
     await page.getByLabel('Reason for the amendment').fill('grade entered on the wrong side of the scale');
     await screenshot(page, 'visit-amend-tablet');
     await page.getByRole('button', { name: 'Save the amendment' }).click();
+    // The review opens in place; "Back to the form" closes it and returns focus to the Save button.
+    await page.getByRole('button', { name: 'Back to the form' }).click();
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Save the amendment');
+    expect(await page.getByRole('heading', { name: 'Check before saving' }).count()).toBe(0);
+    await page.getByRole('button', { name: 'Save the amendment' }).click();
+    await page.getByRole('button', { name: 'Save the amended visit' }).click();
     await page.getByText(/Amendment saved/).waitFor();
     // Still one visit line.
     await expect(page.getByRole('link', { name: /Open or amend the visit of/ }).count()).resolves.toBe(1);

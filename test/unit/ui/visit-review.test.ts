@@ -1,0 +1,59 @@
+import { describe, expect, it } from 'vitest';
+import type { Observation, ObservationValue } from '../../../src/lib/domain';
+import { seriesKey } from '../../../src/lib/stats';
+import { reviewRows } from '../../../src/routes/patients/[id]/assess/visit-review';
+
+// Hand-written last-visit records (not produced by the code under test).
+const base = { createdAt: '2026-10-01T09:00:00.000Z', updatedAt: '2026-10-01T09:00:00.000Z', deviceId: 'd', clinicianId: 'c', deleted: false };
+const last = (siteCode: string, value: ObservationValue): Observation => ({
+  ...base,
+  id: `o-${siteCode}`,
+  patientId: 'p',
+  assessmentId: 'a1',
+  takenAt: '2026-10-01T09:00:00.000Z',
+  measureCode: 'mas',
+  siteCode,
+  side: 'left',
+  mode: null,
+  instrument: null,
+  value,
+  traceId: null,
+});
+const grade = (g: string, rank: number): ObservationValue => ({ kind: 'ordinal', grade: g, rank });
+const today = (siteCode: string, value: ObservationValue) => ({ measureCode: 'mas', siteCode, side: 'left' as const, mode: null, instrument: null, value });
+
+describe('reviewRows: what changed since last time, by the one outcome rule', () => {
+  const before = [last('elbow-flexors', grade('1', 1)), last('knee-extensors', grade('1+', 2)), last('knee-flexors', grade('2', 3))];
+  const lastBySeries = new Map(before.map((o) => [seriesKey(o), o]));
+  const rows = reviewRows(
+    lastBySeries,
+    [today('elbow-flexors', grade('3', 4)), today('knee-extensors', grade('1+', 2)), today('knee-flexors', grade('1', 1)), today('hip-adductors', grade('1', 1))],
+    { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c' },
+  );
+
+  // Modified Ashworth has no published MDC; one whole grade step is the threshold in common use
+  // (common practice, no source), so 1 → 3 (ranks 1 → 4, lower is better) is a worsening beyond it.
+  it('marks a change of at least one grade step as beyond the MDC, in its direction', () => {
+    expect(rows[0]).toMatchObject({ last: { value: '1' }, today: '3', beyondMdc: true });
+    expect(rows[0]?.verdict?.verdict).toBe('worsened');
+    expect(rows[2]?.beyondMdc).toBe(true);
+    expect(rows[2]?.verdict?.verdict).toBe('improved');
+  });
+
+  it('does not mark an unchanged grade', () => {
+    expect(rows[1]).toMatchObject({ last: { value: '1+' }, today: '1+', beyondMdc: false });
+    expect(rows[1]?.verdict?.verdict).toBe('no-change');
+  });
+
+  it('says a test with no earlier value has nothing to compare', () => {
+    expect(rows[3]).toMatchObject({ last: null, verdict: null, beyondMdc: false });
+    expect(rows[3]?.mdcLine).toMatch(/nothing to compare/);
+  });
+
+  it('uses a team-adopted MDC over the grade-step rule (chooseMdc order)', () => {
+    const local = [{ measureCode: 'mas', siteCode: null, value: 4, citation: 'Invented local study' }];
+    const judged = reviewRows(lastBySeries, [today('elbow-flexors', grade('3', 4))], { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c', localMdc: local });
+    expect(judged[0]?.beyondMdc).toBe(false);
+    expect(judged[0]?.mdcLine).toMatch(/Invented local study|team|local/i);
+  });
+});
