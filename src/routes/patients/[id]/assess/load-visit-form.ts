@@ -1,5 +1,6 @@
 import type { Assessment, Observation, Patient } from '$lib/domain';
 import { readLocalState, type KinnoteStore } from '$lib/store';
+import { amendmentsOf } from '$lib/store/amendments';
 import { emptyDraft, type AssessmentDraft } from '$lib/ui/assessment-draft';
 import { chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, protocolStateKey, type KeptProtocol } from '$lib/ui/visit-protocol';
 
@@ -37,8 +38,7 @@ export async function loadVisitForm(store: KinnoteStore, patientId: string, amen
     const laidOut = draftFromProtocol(patientId, performedAtLocal, chooseProtocol(kept, visits, observations), emptyDraft(patientId, performedAtLocal));
     return { lastBySeries, laidOut, amendedUpdatedAt: '', amendHistory: [] };
   }
-  const amendHistory = (await store.audit.forRecord('assessments', amended.id))
-    .filter((e) => e.note?.startsWith('amended: '))
-    .map((e) => ({ at: e.createdAt, note: (e.note as string).slice('amended: '.length) }));
+  // The one reading of "amended" (store/amendments.ts), shared with the patient page's mark.
+  const amendHistory = ((await amendmentsOf(store, 'assessments', [amended.id])).get(amended.id) ?? []).map((a) => ({ at: a.at, note: a.reason }));
   return { lastBySeries, laidOut: draftFromVisit(amended, observations, emptyDraft(patientId, '')), amendedUpdatedAt: amended.updatedAt, amendHistory };
 }
