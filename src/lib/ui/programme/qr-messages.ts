@@ -24,6 +24,7 @@ const en = {
   qrScan: 'Scan with the camera',
   qrFromPhotos: 'Read from photos',
   qrReportLabel: 'report',
+  qrPointCamera: (reader: string) => `Point the camera at the code (reader: ${reader}).`,
 };
 
 export type QrMessages = { readonly [K in keyof typeof en]: (typeof en)[K] extends string ? string : (typeof en)[K] };
@@ -45,6 +46,7 @@ const es: QrMessages = {
   qrScan: 'Escanear con la cámara',
   qrFromPhotos: 'Leer desde fotos',
   qrReportLabel: 'informe',
+  qrPointCamera: (reader) => `Apunta la cámara al código (lector: ${reader}).`,
 };
 
 export const QR_MESSAGES: Readonly<Record<PatientLanguage, QrMessages>> = { en, es };

@@ -18,21 +18,14 @@ export async function saveReminders(store: KinnoteStore, settings: ReminderSetti
   await writeLocalState(store, KEY, { enabled: settings.enabled, times: settings.times.filter((t) => TIME.test(t)).sort() });
 }
 
-/** What this browser can do about notifications, in words for the person. */
-export function notificationSupport(): { state: 'unsupported' | 'denied' | 'default' | 'granted'; message: string } {
-  if (typeof Notification === 'undefined') {
-    return { state: 'unsupported', message: 'This browser cannot show reminders. Set an alarm on your phone for your exercise times instead.' };
-  }
-  if (Notification.permission === 'denied') {
-    return { state: 'denied', message: 'Reminders are blocked for Kinnote in this browser\'s settings. Allow notifications there, or set an alarm on your phone.' };
-  }
-  return Notification.permission === 'granted'
-    ? { state: 'granted', message: 'Reminders are allowed.' }
-    : { state: 'default', message: 'Kinnote needs your permission to show reminders.' };
+/** What this browser can do about notifications (the screens word it from the patient's catalogue). */
+export function notificationSupport(): { state: 'unsupported' | 'denied' | 'default' | 'granted' } {
+  if (typeof Notification === 'undefined') return { state: 'unsupported' };
+  return { state: Notification.permission };
 }
 
 /** Shows one reminder now, through the offline worker when there is one (works in the background on more phones). */
-export async function showReminder(body = 'Time for your home exercises.'): Promise<boolean> {
+export async function showReminder(body: string): Promise<boolean> {
   if (typeof Notification === 'undefined' || Notification.permission !== 'granted') return false;
   try {
     const registration = await navigator.serviceWorker?.getRegistration();
@@ -55,7 +48,7 @@ let timers: ReturnType<typeof setTimeout>[] = [];
  * runs once the app is closed (a web page cannot wake itself, and Kinnote has no push server). The
  * reminders screen says exactly this; the Today screen shows a due reminder when it is open.
  */
-export function scheduleReminders(settings: ReminderSettings, body: () => string = () => 'Time for your home exercises.', nowMs: () => number = () => Date.now()): void {
+export function scheduleReminders(settings: ReminderSettings, body: () => string, nowMs: () => number = () => Date.now()): void {
   for (const t of timers) clearTimeout(t);
   timers = [];
   if (!settings.enabled) return;

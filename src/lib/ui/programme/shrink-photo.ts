@@ -1,4 +1,5 @@
 import { MAX_PHOTO_BYTES, photoEncodingAttempts, sniffPhotoType, type PhotoEncodingAttempt, type PhotoType } from '$lib/domain';
+import { THERAPIST_MESSAGES as m } from './therapist-messages';
 
 /** A photo made small enough to keep and hand over. */
 export interface ShrunkPhoto {
@@ -31,7 +32,7 @@ function canvasOf(widthPx: number, heightPx: number): { context: Canvas2d; encod
   canvas.width = widthPx;
   canvas.height = heightPx;
   const context = canvas.getContext('2d');
-  if (!context) throw new PhotoFileError('This browser cannot draw pictures (no canvas), so photos cannot be added here.');
+  if (!context) throw new PhotoFileError(m.noCanvas);
   return { context, encode: (type, quality) => new Promise((resolve) => canvas.toBlob(resolve, type, quality)) };
 }
 
@@ -57,19 +58,19 @@ async function encodeAt(bitmap: ImageBitmap, attempt: PhotoEncodingAttempt, type
  * in this browser, or that cannot be made small enough.
  */
 export async function shrinkPhoto(file: File): Promise<ShrunkPhoto> {
-  const name = `"${file.name || 'the picture'}"`;
-  if (file.type !== '' && !file.type.startsWith('image/')) throw new PhotoFileError(`${name} is not a picture (it is ${file.type}). Choose a photo.`);
-  if (file.size === 0) throw new PhotoFileError(`${name} is empty. Choose another photo.`);
-  if (file.size > MAX_SOURCE_FILE_BYTES) throw new PhotoFileError(`${name} is too large (${Math.round(file.size / 1e6)} MB; at most ${MAX_SOURCE_FILE_BYTES / 1e6} MB). Choose a smaller photo.`);
+  const name = `"${file.name || m.unnamedPicture}"`;
+  if (file.type !== '' && !file.type.startsWith('image/')) throw new PhotoFileError(m.notAPicture(name, file.type));
+  if (file.size === 0) throw new PhotoFileError(m.emptyPicture(name));
+  if (file.size > MAX_SOURCE_FILE_BYTES) throw new PhotoFileError(m.pictureFileTooLarge(name, Math.round(file.size / 1e6), MAX_SOURCE_FILE_BYTES / 1e6));
   let bitmap: ImageBitmap;
   try {
     bitmap = await createImageBitmap(file);
   } catch (cause) {
-    throw new PhotoFileError(`${name} could not be read as a picture: its type (${file.type || 'unknown'}) is not supported by this browser, or the file is damaged. Choose a JPEG, PNG or WebP photo.`, { cause });
+    throw new PhotoFileError(m.pictureUnreadable(name, file.type || null), { cause });
   }
   try {
     if (bitmap.width * bitmap.height > MAX_SOURCE_PIXELS) {
-      throw new PhotoFileError(`${name} is too large to open on this device (${bitmap.width} × ${bitmap.height} pixels). Choose a smaller photo.`);
+      throw new PhotoFileError(m.pictureTooManyPixels(name, bitmap.width, bitmap.height));
     }
     const attempts = photoEncodingAttempts(bitmap.width, bitmap.height);
     for (const type of ['image/webp', 'image/jpeg'] as const) {
@@ -79,7 +80,7 @@ export async function shrinkPhoto(file: File): Promise<ShrunkPhoto> {
         if (bytes.length <= MAX_PHOTO_BYTES) return { type, widthPx: attempt.widthPx, heightPx: attempt.heightPx, bytes };
       }
     }
-    throw new PhotoFileError(`${name} could not be made small enough (at most ${MAX_PHOTO_BYTES / 1000} KB) on this device. Try a simpler photo.`);
+    throw new PhotoFileError(m.pictureNotSmallEnough(name, MAX_PHOTO_BYTES / 1000));
   } finally {
     bitmap.close();
   }

@@ -1,5 +1,6 @@
 import type { ExerciseDose } from '$lib/domain';
 import type { ExercisePlan } from '$lib/programme';
+import { THERAPIST_MESSAGES as m } from '$lib/ui/programme/therapist-messages';
 
 /** One exercise as the form holds it: every field as typed. */
 export interface ExerciseForm {
@@ -121,21 +122,10 @@ export function readKeptProgramme(content: unknown): KeptProgramme | null {
   return { form: { title: f.title, startsOn: f.startsOn, endsOn: f.endsOn, exercises: exercisesKept }, basedOn: c.basedOn ?? null };
 }
 
-const FIELD_NAMES: Record<string, string> = {
-  name: 'what to do',
-  dose: 'dosage',
-  holdSeconds: 'hold',
-  repetitions: 'repetitions',
-  sets: 'sets',
-  durationMinutes: 'minutes each time',
-  timesPerDay: 'times a day',
-  daysPerWeek: 'days a week',
-  note: 'note',
-};
-
 /** A plan issue's path in the form's words ("Exercise 2, hold"). */
 export function describePath(path: string): string {
-  const m = /^exercises\.(\d+)\.(?:dose\.)?(\w+)$/.exec(path);
-  if (m) return `Exercise ${Number(m[1]) + 1}, ${FIELD_NAMES[m[2]!] ?? m[2]}`;
-  return ({ title: 'Title', startsOn: 'Start date', endsOn: 'End date', exercises: 'Exercises' } as Record<string, string>)[path] ?? (path || 'Programme');
+  const names = m.planFields;
+  const exercise = /^exercises\.(\d+)\.(?:dose\.)?(\w+)$/.exec(path);
+  if (exercise) return m.fieldOfExercise(Number(exercise[1]) + 1, names[exercise[2]!] ?? exercise[2]!);
+  return names[path || 'programme'] ?? path;
 }
