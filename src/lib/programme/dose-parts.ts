@@ -29,41 +29,10 @@ export function doseParts(dose: ExerciseDose): DosePart[] {
   return parts;
 }
 
-const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
-
 /** A duration in minutes as words: "45 min", "2 h", "1 h 30 min". */
 export function durationWords(minutes: number, hourUnit = 'h', minuteUnit = 'min'): string {
   const h = Math.floor(minutes / 60);
   const m = minutes % 60;
   if (h === 0) return `${m} ${minuteUnit}`;
   return m === 0 ? `${h} ${hourUnit}` : `${h} ${hourUnit} ${m} ${minuteUnit}`;
-}
-
-/** English words of one part (the therapist's screens; patient mode words them from its catalogue). */
-export function dosePartEnglish(part: DosePart): string {
-  switch (part.kind) {
-    case 'hold':
-      return `hold ${part.seconds} s`;
-    case 'repetitions':
-      return plural(part.count, 'repetition', 'repetitions');
-    case 'sets':
-      return plural(part.count, 'set', 'sets');
-    case 'duration':
-      return `${durationWords(part.minutes)} each time`;
-    case 'overnight':
-      return 'overnight';
-    case 'times-per-day':
-      return `${plural(part.count, 'time', 'times')} a day`;
-    case 'days-per-week':
-      return `on ${plural(part.count, 'day', 'days')} a week`;
-    case 'every-day':
-      return 'every day';
-  }
-}
-
-/** A dose as one English line, e.g. "hold 30 s · 3 repetitions · 2 times a day · every day · each side". */
-export function formatDoseEnglish(dose: ExerciseDose): string {
-  const words = doseParts(dose).map(dosePartEnglish);
-  if (dose.note !== '') words.push(dose.note);
-  return words.join(' · ');
 }

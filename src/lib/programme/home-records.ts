@@ -4,7 +4,7 @@ import { followedPlans } from './current-plans';
 import { readDeviceProfile } from './device-profile';
 import { readHomeLog, withTick, withoutTick, type ExerciseTick, type HomeLog } from './home-log';
 import type { HomeReport } from './home-report';
-import { weeklyAdherence } from './weekly-adherence';
+import { adherenceByWeek, weeklyAdherence, type RecordedWeek } from './weekly-adherence';
 
 const LOG_KEY = 'local:home-log';
 /** AdherenceEntry allows at most 100 sessions (domain schema); a plan's week never has more than 50. */
@@ -20,6 +20,11 @@ export async function loadFollowedPlans(store: KinnoteStore, patientId: string) 
   const profile = await readDeviceProfile(store);
   const receivedOn = profile?.mode === 'patient' ? profile.receivedOn : null;
   return followedPlans((await store.homeProgrammes.byPatient(patientId)) as HomeProgramme[], receivedOn);
+}
+
+/** The patient's recorded adherence, one entry a week (adherenceByWeek), as the therapist's screens show it. */
+export async function recordedWeeksOf(store: KinnoteStore, patientId: string): Promise<RecordedWeek[]> {
+  return adherenceByWeek((await store.adherenceEntries.byPatient(patientId)) as AdherenceEntry[]);
 }
 
 /** What a patient's phone holds, for the screen that asks before removing it. */

@@ -19,7 +19,7 @@ export {
   type ExercisePlan,
   type PlanIssue,
 } from './exercise-plan';
-export { dosePartEnglish, doseParts, durationWords, formatDoseEnglish, type DosePart } from './dose-parts';
+export { doseParts, durationWords, type DosePart } from './dose-parts';
 export { freeTextExercises, planToProgrammeInput, programmeToPlan } from './programme-record';
 export { activeDaysInWeek, planRunsOn, plannedSessionsInWeek, plannedSessionsOfExercise, weeksOfPlan } from './planned-sessions';
 export { EMPTY_HOME_LOG, TICK_STATUSES, findTick, readHomeLog, withTick, withoutTick, type ExerciseTick, type HomeLog, type TickStatus } from './home-log';
@@ -40,7 +40,7 @@ export { PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from './pa
 export { HOME_REPORT_FORMAT, HOME_REPORT_VERSION, createHomeReport, openHomeReport, type HomeReport } from './home-report';
 export { acceptProgrammePackage } from './patient-device';
 export { choosePatientMode, readDeviceProfile, writeDeviceProfile, type DeviceProfile } from './device-profile';
-export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
+export { gatherHomeReport, loadFollowedPlans, patientPhoneContents, recordedWeeksOf, loadHomeLog, saveSelfReport, saveTick, selfReportOn, syncWeeklyAdherence } from './home-records';
 export { importHomeReport, type HomeReportImport } from './import-home-report';
 export { summariseReport, type ReportSummary } from './report-summary';
 export { dueReminderTime } from './due-reminder';

@@ -309,3 +309,20 @@ export class DraftKeeper<T> {
     }
   }
 }
+
+/**
+ * For a page's onMount: writes the pending draft when the tab is hidden or the page goes away (a
+ * phone may discard a hidden tab without another event). Returns the clean-up, which stops that
+ * and closes the keeper.
+ */
+export function keepDraftWhenLeaving(keeper: Pick<DraftKeeper<unknown>, 'flush' | 'close'>): () => void {
+  const hide = () => document.visibilityState === 'hidden' && void keeper.flush();
+  const leave = () => void keeper.flush();
+  document.addEventListener('visibilitychange', hide);
+  window.addEventListener('pagehide', leave);
+  return () => {
+    document.removeEventListener('visibilitychange', hide);
+    window.removeEventListener('pagehide', leave);
+    void keeper.close();
+  };
+}

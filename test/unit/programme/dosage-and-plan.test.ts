@@ -1,16 +1,18 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { checkExercisePlan, doseSchedule, formatDoseEnglish, freeTextExercises, planToProgrammeInput, programmeToPlan, sessionsInFullWeek, type Exercise } from '../../../src/lib/programme';
+import { checkExercisePlan, doseParts, doseSchedule, freeTextExercises, planToProgrammeInput, programmeToPlan, sessionsInFullWeek, type Exercise } from '../../../src/lib/programme';
 import { EMPTY_DOSE, ExerciseDoseSchema, HomeProgrammeSchema, doseFromLegacyLine, type ExerciseDose } from '../../../src/lib/domain';
 import * as v from 'valibot';
+import { ENGLISH_MESSAGES } from '../../../src/lib/ui/programme/patient-messages';
 
 const dose = (d: Partial<ExerciseDose>): ExerciseDose => ({ ...EMPTY_DOSE, ...d });
 const calf: Exercise = { name: 'Calf stretch against a wall, back heel down', dose: dose({ holdSeconds: 30, repetitions: 3, sets: 2, timesPerDay: 2, note: 'each side' }), dosageText: '' };
 const splint: Exercise = { name: 'Resting splint', dose: dose({ overnight: true, note: 'as tolerated' }), dosageText: '' };
 const freeText: Exercise = { name: 'Stand at the frame', dose: null, dosageText: '3 × 30 s each side' };
 
-describe('dose words (English, therapist screens)', () => {
-  // Expected lines written by hand from the fields above.
+describe('dose words (English, from the message catalogue)', () => {
+  // Expected lines written by hand from the fields above; the note follows the parts, as DoseLine shows it.
+  const formatDoseEnglish = (d: ExerciseDose) => [...doseParts(d).map(ENGLISH_MESSAGES.dosePart), ...(d.note === '' ? [] : [d.note])].join(' · ');
   const fixtures = [
     { input: calf.dose!, expected: 'hold 30 s · 3 repetitions · 2 sets · 2 times a day · every day · each side' },
     { input: splint.dose!, expected: 'overnight · as tolerated' },
