@@ -16,6 +16,7 @@ export const SPANISH_MESSAGES: PatientMessages = {
   therapistDevice: 'Estas pantallas son para el teléfono propio de un paciente. Este dispositivo está configurado para un terapeuta: entrega el programa desde la página del paciente.',
   caution: 'Deja un ejercicio si te causa dolor y díselo a tu terapeuta. Si te encuentras mal o notas debilidad nueva, entumecimiento o espasmos fuertes, busca ayuda médica. Kinnote guarda tu registro solo en este teléfono; no da consejos médicos.',
   opening: 'Abriendo…',
+  storeFailed: (why) => `No se pudieron abrir los datos de este teléfono: ${why}`,
   welcome: 'Te damos la bienvenida a Kinnote',
   welcomeLede: 'Registros de evolución para terapeutas y el programa en casa para sus pacientes, solo en este dispositivo.',
   patientChoiceTitle: 'Sigo un programa en casa',

@@ -29,6 +29,7 @@ const en = {
   therapistDevice: "These screens are for a patient's own phone. This device is set up for a therapist: hand a programme over from the patient's page instead.",
   caution: 'Stop an exercise that causes pain, and tell your therapist. If you feel unwell or have new weakness, numbness or severe spasms, get medical help. Kinnote keeps your log on this phone only; it gives no medical advice.',
   opening: 'Opening…',
+  storeFailed: (why: string) => `The records on this phone could not be opened: ${why}`,
   // First screen
   welcome: 'Welcome to Kinnote',
   welcomeLede: 'Outcome records for therapists, and the home programme for their patients, on this device only.',
