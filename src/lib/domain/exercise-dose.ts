@@ -1,6 +1,6 @@
 import * as v from 'valibot';
 
-const count = (max: number) => v.nullable(v.pipe(v.number(), v.integer('must be a whole number'), v.minValue(1, 'must be at least 1'), v.maxValue(max, `must be at most ${max}`)));
+const count = (max: number) => v.nullable(v.pipe(v.number('must be a whole number'), v.integer('must be a whole number'), v.minValue(1, 'must be at least 1'), v.maxValue(max, `must be at most ${max}`)));
 
 /** Most times a day one exercise can be asked for (a tick button per time on the patient's phone). */
 export const MAX_TIMES_PER_DAY = 6;

@@ -118,6 +118,16 @@ describe('exercise plan', () => {
     expect(bad({ ...plan, extra: 1 })).toContain('extra');
   });
 
+  it('words a mistyped count plainly (the editor sends what it cannot read as a number as NaN)', () => {
+    const issues = (p: unknown) => {
+      const r = checkExercisePlan(p);
+      return r.ok ? [] : r.issues.map((i) => `${i.path}: ${i.message}`);
+    };
+    // Expected messages written by hand: a therapist should never read "Expected number but received NaN".
+    expect(issues({ ...plan, exercises: [{ ...calf, dose: dose({ repetitions: Number.NaN }) }] })).toEqual(['exercises.0.dose.repetitions: must be a whole number']);
+    expect(issues({ ...plan, exercises: [{ ...calf, dose: dose({ sets: 2.5 }) }] })).toEqual(['exercises.0.dose.sets: must be a whole number']);
+  });
+
   it('maps to a valid HomeProgramme and back without loss; free text stays until restructured', () => {
     const mixed = { ...plan, exercises: [calf, splint, freeText] };
     const input = planToProgrammeInput(mixed, '0190f1a2-0000-7000-8000-000000000001');
