@@ -201,6 +201,9 @@ describe('home programme hand-off, offline, between two devices', () => {
 
     await p.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'My week' }).click();
     await p.getByText(/1 of 2 done \(50 %\)/).waitFor();
+    // The phone received the programme today: this week's earlier days say so, not "not in your programme".
+    const daysBeforeToday = await p.evaluate(() => (new Date().getDay() + 6) % 7);
+    expect(await p.getByText('Before your programme came to this phone').count()).toBe(daysBeforeToday);
     await lookAt(p, 'week');
 
     await p.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Reminders' }).click();

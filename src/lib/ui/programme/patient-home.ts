@@ -12,6 +12,8 @@ export interface PatientHome {
   readonly log: HomeLog;
   readonly logDamaged: boolean;
   readonly today: string;
+  /** The day this phone received its first programme (null: none yet, or received before this was kept). */
+  readonly receivedOn: string | null;
   /** The exercises' photos, by programme id. */
   readonly photos: ReadonlyMap<string, readonly ExercisePhotoRow[]>;
 }
@@ -39,6 +41,7 @@ export async function loadPatientHome(store: KinnoteStore): Promise<PatientHome>
     log,
     logDamaged: damaged,
     today: localToday(),
+    receivedOn: patient?.receivedOn ?? null,
     photos,
   };
 }

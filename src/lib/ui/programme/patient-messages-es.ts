@@ -92,6 +92,7 @@ export const SPANISH_MESSAGES: PatientMessages = {
   weekGetFirst: 'Primero recibe tu programa.',
   todaySuffix: ' (hoy)',
   notInProgramme: 'No está en tu programa',
+  beforeArrival: 'Antes de que tu programa llegara a este teléfono',
   nothingTicked: 'Nada marcado',
   dayTicks: (done: number, partly: number, skipped: number) => `✓ ${done} ${done === 1 ? 'hecho' : 'hechos'}${partly ? ` · ◐ ${partly} en parte` : ''}${skipped ? ` · ✗ ${skipped} sin hacer` : ''}`,
   weekByWeek: 'Semana a semana',

@@ -112,6 +112,7 @@ const en = {
   weekGetFirst: 'Get your programme first.',
   todaySuffix: ' (today)',
   notInProgramme: 'Not in your programme',
+  beforeArrival: 'Before your programme came to this phone',
   nothingTicked: 'Nothing ticked',
   dayTicks: (done: number, partly: number, skipped: number) => `✓ ${done} done${partly ? ` · ◐ ${partly} partly` : ''}${skipped ? ` · ✗ ${skipped} skipped` : ''}`,
   weekByWeek: 'Week by week',
