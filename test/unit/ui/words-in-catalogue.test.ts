@@ -12,10 +12,10 @@ import { describe, expect, it } from 'vitest';
 
 const ROOT = join(__dirname, '../../..');
 
-/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's programme editor and hand-over. */
-const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]/programme'];
+/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's programme editor and hand-over, and the drafts list the editor shows. */
+const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]/programme', 'src/lib/ui/OtherDrafts.svelte'];
 /** The catalogues themselves (where the words belong) and code with no words. */
-const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages)\.ts$/;
+const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages)\.ts$/;
 
 interface Finding {
   readonly line: number;
@@ -92,6 +92,7 @@ export function wordsWrittenIn(source: string, kind: 'svelte' | 'ts'): Finding[]
 }
 
 function filesUnder(folder: string): string[] {
+  if (!statSync(folder).isDirectory()) return [folder];
   const out: string[] = [];
   for (const name of readdirSync(folder)) {
     const path = join(folder, name);
