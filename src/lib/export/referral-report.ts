@@ -175,6 +175,15 @@ function capitalise(text: string): string {
  * Pure: no clock, no storage. Cost O(observations · log observations + events + weeks).
  * Throws ReferralReportError for a day that is not YYYY-MM-DD, a period that ends before it starts,
  * or an event id that is not among the patient's live events; RangeError for an unknown time zone.
+ *
+ * @example
+ * const report = referralReport({
+ *   patient, identity: null, observations, events, assessments, clinicians, adherence: [],
+ *   scope: { kind: 'since-event', eventId: injection.id, throughDay: '2026-04-30' },
+ *   timeZone: 'Europe/Berlin', preparedOn: '2026-04-30', preparedBy: null,
+ * });
+ * report.measures.map((m) => m.sentence); // one verdict sentence per measure, as on the patient page
+ * report.fileName; // "kinnote-report-K7QM-3XHD-2026-04-30"
  */
 export function referralReport(input: ReferralReportInput): ReferralReport {
   checkDay(input.scope.throughDay, 'scope.throughDay');
