@@ -13,7 +13,6 @@ const ALLOWED = [
   'src/lib/store/import-backup.ts:importBackup',
   'src/lib/store/phone-reanalysis-run.ts:writeOne',
   'src/lib/ui/assessment-draft.ts:draftObservations',
-  'src/lib/export/referral-report-pdf.ts:referralReportPdf',
 ];
 
 let scanned: string[] | null = null;
