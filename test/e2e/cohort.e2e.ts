@@ -1,24 +1,18 @@
 // The auditor's path, offline: filters with a live count, the cohort summary and charts, and
 // de-identified CSV and FHIR files that carry no identity of the (invented) demo patients.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
-import type { Browser } from 'playwright-core';
+import { sharedChromium } from '../support/shared-browser';
 import { generateDemoScenario } from '../../src/lib/demo';
 import { inkedCanvasShare, setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
+import { newAppContext, screenshot, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 describe('cohort audit in the browser', () => {
   it('goes from opening the app to a de-identified CSV and FHIR bundle for a filtered cohort, offline', async () => {
-    const context = await newAppContext(browser, { viewport: tablet, acceptDownloads: true });
+    const context = await newAppContext(chromium.browser, { viewport: tablet, acceptDownloads: true });
     const page = await context.newPage();
     await setUpDevice(page);
     await waitForOfflineWorker(page);

@@ -1,33 +1,15 @@
 // Events (interventions) amended and deleted as visits are: open, amend with a reason (audited with the
 // old and new values), delete with undo; a true "amended" mark that a delete and undo does not set.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { setUpDevice, tableRows, unlockVault } from './app-helpers';
 import { join } from 'node:path';
-import { launchChromium, screenshotDir, newAppContext, reflowProblems, rootFontPx, waitForSettledPage, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { Taps } from './taps';
+import { screenshotDir, newAppContext, reflowProblems, rootFontPx, waitForSettledPage, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
-/** Counts what a person does: a tap is 1; typing is 1 tap into the field, its digits counted apart (words are not counted). */
-class Taps {
-  taps = 0;
-  digits = 0;
-  async tap(target: Locator): Promise<void> {
-    this.taps++;
-    await target.click();
-  }
-  async type(field: Locator, text: string): Promise<void> {
-    this.taps++;
-    this.digits += text.replace(/[^0-9]/g, '').length;
-    await field.fill(text);
-  }
-}
 
 type Audit = { table: string; recordId: string | null; action: string; note: string | null; before: Record<string, unknown> | null; after: Record<string, unknown> | null };
 
@@ -71,7 +53,7 @@ async function addPatientWithHistory(page: Page): Promise<string> {
 
 describe('events are amended and deleted like visits', () => {
   it('corrects a mistyped injection date with a reason (audited old → new, marked amended), deletes and undoes, at 360 px', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     page.on('dialog', (d) => void d.accept());
     await setUpDevice(page, { demo: false });
@@ -81,7 +63,7 @@ describe('events are amended and deleted like visits', () => {
 
     // Counted from the caseload, the app's first screen on a set-up device.
     await page.goto('/patients');
-    const t = new Taps();
+    const t = new Taps('fill');
     await t.tap(page.locator('a.row').first());
     const events = eventsSection(page);
     await t.tap(events.getByRole('button', { name: /Open or amend the botulinum toxin injection of/ }));
@@ -160,7 +142,7 @@ describe('events are amended and deleted like visits', () => {
   });
 
   it('shows the event editor without axe or reflow problems at 1024 px', async () => {
-    const context = await newAppContext(browser, { viewport: tablet });
+    const context = await newAppContext(chromium.browser, { viewport: tablet });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await addPatientWithHistory(page);

@@ -4,28 +4,12 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { openFirstPatient, setUpDevice, unlockVault } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { describe, expect, it } from 'vitest';
+import { sharedPatientPage } from '../support/shared-browser';
+import { unlockVault } from './app-helpers';
+import { reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForSettledPage } from './harness';
 
-let browser: Browser;
-let context: BrowserContext;
-let page: Page;
-let patientPath = '';
-
-beforeAll(async () => {
-  browser = await launchChromium();
-  context = await newAppContext(browser, { viewport: tablet });
-  page = await context.newPage();
-  await setUpDevice(page);
-  await waitForOfflineWorker(page);
-  patientPath = await openFirstPatient(page);
-}, 120_000);
-afterAll(async () => {
-  await context?.close();
-  await browser?.close();
-});
+const app = sharedPatientPage({ offlineWorker: true });
 
 /** Pages in a PDF written by Chromium (page objects are plain, not in object streams). */
 function pdfPageCount(pdf: Buffer): number {
@@ -34,14 +18,14 @@ function pdfPageCount(pdf: Buffer): number {
 
 describe('report for the referring clinician', () => {
   it('opens from the patient page offline, shows the code (no name), every measure with a verdict and the cautions; axe-clean at 1024 px', async () => {
-    await context.setOffline(true);
-    await page.goto(patientPath);
-    await page.getByRole('link', { name: 'Report for the referrer' }).click();
-    const report = page.locator('article.report');
+    await app.context.setOffline(true);
+    await app.page.goto(app.patientPath);
+    await app.page.getByRole('link', { name: 'Report for the referrer' }).click();
+    const report = app.page.locator('article.report');
     await report.waitFor();
-    await waitForSettledPage(page, 'report');
+    await waitForSettledPage(app.page, 'report');
     // The default scope is the latest injection, else the latest event (every demo patient has one).
-    expect(await page.getByRole('combobox', { name: 'Report on' }).inputValue()).toMatch(/^event:/);
+    expect(await app.page.getByRole('combobox', { name: 'Report on' }).inputValue()).toMatch(/^event:/);
     expect(await report.locator('.who').textContent()).toMatch(/Patient [2-9A-Z]{4}-[2-9A-Z]{4}\s*$/);
     const rows = report.locator('table.measures tbody');
     expect(await rows.count()).toBeGreaterThan(0);
@@ -52,60 +36,60 @@ describe('report for the referring clinician', () => {
     }
     expect(await report.locator('svg.spark').count()).toBe(await rows.count());
     expect(await report.locator('.cautions').textContent()).toMatch(/not a diagnostic device.*licensed clinicians.*local protocols and data-protection law/s);
-    await expect.poll(() => page.getByText(/Save as PDF/).count()).toBeGreaterThan(0);
-    await screenshot(page, 'report-tablet');
-    expect(await seriousAxeViolations(page)).toEqual([]);
-    await context.setOffline(false);
+    await expect.poll(() => app.page.getByText(/Save as PDF/).count()).toBeGreaterThan(0);
+    await screenshot(app.page, 'report-tablet');
+    expect(await seriousAxeViolations(app.page)).toEqual([]);
+    await app.context.setOffline(false);
   }, 120_000);
 
   it('at 360 px the report reflows (no sideways scroll) and axe finds nothing serious', async () => {
-    await page.setViewportSize(smallPhone);
-    await page.locator('article.report').waitFor();
-    await waitForSettledPage(page, 'report at 360 px');
-    expect(await reflowProblems(page)).toEqual([]);
-    await screenshot(page, 'report-360');
-    const top = await page.evaluate(() => (document.querySelector('article.report') as HTMLElement).getBoundingClientRect().top + window.scrollY);
-    await page.screenshot({ path: join(screenshotDir, 'report-360-measures.png'), fullPage: true, clip: { x: 0, y: top, width: 360, height: 1000 } });
-    expect(await seriousAxeViolations(page)).toEqual([]);
+    await app.page.setViewportSize(smallPhone);
+    await app.page.locator('article.report').waitFor();
+    await waitForSettledPage(app.page, 'report at 360 px');
+    expect(await reflowProblems(app.page)).toEqual([]);
+    await screenshot(app.page, 'report-360');
+    const top = await app.page.evaluate(() => (document.querySelector('article.report') as HTMLElement).getBoundingClientRect().top + window.scrollY);
+    await app.page.screenshot({ path: join(screenshotDir, 'report-360-measures.png'), fullPage: true, clip: { x: 0, y: top, width: 360, height: 1000 } });
+    expect(await seriousAxeViolations(app.page)).toEqual([]);
     // 200 % text at 360 px still reflows (WCAG 2.2 1.4.4 and 1.4.10).
-    await setTextScale(page, 2);
-    await expect.poll(() => rootFontPx(page)).toBe(32);
-    await waitForSettledPage(page, 'report at 360 px, 200 % text');
-    expect(await reflowProblems(page)).toEqual([]);
-    await screenshot(page, 'report-360-text-200');
-    await setTextScale(page, 1);
-    await page.setViewportSize(tablet);
+    await setTextScale(app.page, 2);
+    await expect.poll(() => rootFontPx(app.page)).toBe(32);
+    await waitForSettledPage(app.page, 'report at 360 px, 200 % text');
+    expect(await reflowProblems(app.page)).toEqual([]);
+    await screenshot(app.page, 'report-360-text-200');
+    await setTextScale(app.page, 1);
+    await app.page.setViewportSize(tablet);
   }, 60_000);
 
   it('print media hides the app header and the controls; a period can be chosen', async () => {
-    await page.getByRole('combobox', { name: 'Report on' }).selectOption('period');
-    await page.getByRole('textbox', { name: 'From' }).waitFor();
-    expect(await page.locator('article.report .scope').textContent()).toMatch(/Change from/);
-    await page.getByRole('combobox', { name: 'Report on' }).selectOption({ index: 0 });
-    await page.emulateMedia({ media: 'print' });
-    expect(await page.locator('header.top').isVisible()).toBe(false);
-    expect(await page.getByRole('button', { name: 'Print or save as PDF' }).isVisible()).toBe(false);
-    expect(await page.locator('article.report').isVisible()).toBe(true);
-    await screenshot(page, 'report-print-media');
+    await app.page.getByRole('combobox', { name: 'Report on' }).selectOption('period');
+    await app.page.getByRole('textbox', { name: 'From' }).waitFor();
+    expect(await app.page.locator('article.report .scope').textContent()).toMatch(/Change from/);
+    await app.page.getByRole('combobox', { name: 'Report on' }).selectOption({ index: 0 });
+    await app.page.emulateMedia({ media: 'print' });
+    expect(await app.page.locator('header.top').isVisible()).toBe(false);
+    expect(await app.page.getByRole('button', { name: 'Print or save as PDF' }).isVisible()).toBe(false);
+    expect(await app.page.locator('article.report').isVisible()).toBe(true);
+    await screenshot(app.page, 'report-print-media');
     // null, not 'screen': a forced screen medium would also apply to page.pdf() below.
-    await page.emulateMedia({ media: null });
+    await app.page.emulateMedia({ media: null });
   }, 60_000);
 
   it('prints every demo patient to A4 PDF; prints the page counts; at most two pages each; pages rendered to images', async () => {
-    await page.goto('/patients');
-    await page.locator('a.row').first().waitFor();
-    const paths = [...new Set(await page.locator('a.row').evaluateAll((as) => as.map((a) => (a as HTMLAnchorElement).getAttribute('href') as string)))];
+    await app.page.goto('/patients');
+    await app.page.locator('a.row').first().waitFor();
+    const paths = [...new Set(await app.page.locator('a.row').evaluateAll((as) => as.map((a) => (a as HTMLAnchorElement).getAttribute('href') as string)))];
     const counts: string[] = [];
     const pdfDir = join('test-output', 'report-pdf');
     mkdirSync(pdfDir, { recursive: true });
     let first = '';
     const pageCounts: number[] = [];
     for (const path of paths) {
-      await page.goto(`${path}/report`);
-      await page.locator('article.report').waitFor();
-      await waitForSettledPage(page, `report of ${path}`);
-      const rows = await page.locator('table.measures tbody').count();
-      const pdf = await page.pdf({ format: 'A4', printBackground: true, preferCSSPageSize: true });
+      await app.page.goto(`${path}/report`);
+      await app.page.locator('article.report').waitFor();
+      await waitForSettledPage(app.page, `report of ${path}`);
+      const rows = await app.page.locator('table.measures tbody').count();
+      const pdf = await app.page.pdf({ format: 'A4', printBackground: true, preferCSSPageSize: true });
       const pages = pdfPageCount(pdf);
       counts.push(`${path.slice(-6)}: ${rows} measures → ${pages} A4 page${pages === 1 ? '' : 's'} (${Math.round(pdf.length / 1024)} KiB)`);
       const file = join(pdfDir, `report-${path.slice(-6)}.pdf`);
@@ -125,17 +109,17 @@ describe('report for the referring clinician', () => {
   }, 300_000);
 
   it('names the patient only when chosen with names unlocked, and drops the name when unticked', async () => {
-    await page.goto(patientPath);
-    await unlockVault(page);
-    await page.getByRole('link', { name: 'Report for the referrer' }).click();
-    const box = page.getByLabel("Include the patient's name and date of birth");
+    await app.page.goto(app.patientPath);
+    await unlockVault(app.page);
+    await app.page.getByRole('link', { name: 'Report for the referrer' }).click();
+    const box = app.page.getByLabel("Include the patient's name and date of birth");
     await expect.poll(() => box.isEnabled()).toBe(true);
-    const who = page.locator('article.report .who');
+    const who = app.page.locator('article.report .who');
     const coded = ((await who.textContent()) ?? '').trim();
     await box.check();
     await expect.poll(async () => ((await who.textContent()) ?? '').trim()).not.toBe(coded);
     expect(await who.textContent()).toMatch(/· \S+ \S+/);
-    await screenshot(page, 'report-named');
+    await screenshot(app.page, 'report-named');
     await box.uncheck();
     await expect.poll(async () => ((await who.textContent()) ?? '').trim()).toBe(coded);
   }, 120_000);

@@ -1,21 +1,16 @@
 // The phone-sensor pages in Chromium, fed synthetic devicemotion events dispatched on window at about
 // 60 Hz (page.evaluate), generated from the physical pendulum simulation through the simulated phone.
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { analyseMotionRecording, parseMotionCsv } from '../../src/lib/sensors';
 import { phonePendulumCases, simulatePhonePendulum } from '../reference/sensors/phone-pendulum-simulator';
 import { axisAngle, multiply, SHIN_SCREEN_OUT, staticDeviceMotion, NO_ERRORS } from '../reference/sensors/device-motion-simulator';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { playMotion, releaseMotion, swapMotionTable, waitForMotionEvents } from './motion-player';
+import { newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
 import { openFirstPatient, openOverviewGroups, setUpDevice } from './app-helpers';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 const RATE_HZ = 100;
 // Issue 13: the independent phone simulator (test/reference/sensors/phone-pendulum-simulator.ts) in the
@@ -34,66 +29,19 @@ const TABLE = Array.from(r.timeMs, (_, i) => [r.rateAlphaDps[i], r.rateBetaDps[i
  * by time (the leg held by hand: tremor, sway, sensor noise); after it, the row follows the time since
  * release, so the physics matches the events' own time stamps whatever the timer jitter.
  */
-async function startDispatch(page: Page, table: number[][], holdRows: number): Promise<void> {
-  await page.evaluate(
-    ({ table, holdRows, rateHz }) => {
-      const w = window as unknown as { __motion: { release: number | null; table: number[][]; timer: number; sent: number } };
-      w.__motion = { release: null, table, timer: 0, sent: 0 };
-      w.__motion.timer = window.setInterval(() => {
-        const m = w.__motion;
-        m.sent++;
-        const k =
-          m.release === null
-            ? Math.floor((performance.now() * rateHz) / 1000) % Math.max(1, holdRows)
-            : Math.min(m.table.length - 1, holdRows + Math.floor(((performance.now() - m.release) * rateHz) / 1000));
-        const [alpha, beta, gamma, x, y, z] = m.table[k] as number[];
-        window.dispatchEvent(
-          new DeviceMotionEvent('devicemotion', { rotationRate: { alpha, beta, gamma }, accelerationIncludingGravity: { x, y, z }, interval: 16 }),
-        );
-      }, 16);
-    },
-    { table, holdRows, rateHz: RATE_HZ },
-  );
-}
-
-async function release(page: Page): Promise<void> {
-  await page.evaluate(() => {
-    (window as unknown as { __motion: { release: number | null } }).__motion.release = performance.now();
-  });
-}
-
-/**
- * Waits until `count` more events have been dispatched (a condition on the data the page received,
- * not on the clock: a loaded machine that fires the timer late simply waits longer).
- */
-async function waitForEvents(page: Page, count: number, what: string): Promise<void> {
-  const from = await page.evaluate(() => (window as unknown as { __motion: { sent: number } }).__motion.sent);
-  await page
-    .waitForFunction((target) => (window as unknown as { __motion: { sent: number } }).__motion.sent >= target, from + count, { timeout: 30_000, polling: 50 })
-    .catch((error: unknown) => {
-      throw new Error(`waiting for ${count} more devicemotion events (${what}): ${String(error).split('\n')[0]}`);
-    });
-}
-
-async function setTable(page: Page, table: number[][]): Promise<void> {
-  await page.evaluate((t) => {
-    (window as unknown as { __motion: { table: number[][] } }).__motion.table = t;
-  }, table);
-}
-
 describe('pendulum test with the phone', () => {
   it('records synthetic device motion, stops by itself at rest, analyses it and exports the raw recording', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone, acceptDownloads: true });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone, acceptDownloads: true });
     const page = await context.newPage();
     await page.goto('/measure/pendulum');
     await page.getByRole('heading', { level: 1, name: /pendulum test with the phone/i }).waitFor();
     for (const caution of [/strap the phone on firmly/i, /support and guard the leg/i, /local protocol/i, /feels pain/i]) {
       expect(await page.getByText(caution).count()).toBeGreaterThan(0);
     }
-    await startDispatch(page, TABLE, HOLD_ROWS);
+    await playMotion(page, TABLE, HOLD_ROWS);
     await page.getByRole('button', { name: 'Start' }).click();
     await page.getByText('Recording: let go of the leg now.').waitFor({ timeout: 10_000 });
-    await release(page);
+    await releaseMotion(page);
     await page.getByText(/^Stopped: \d+ samples recorded\.$/).waitFor({ timeout: 20_000 });
     const ri = Number(await page.locator('[data-index="relaxation-index"]').textContent());
     const rest = Number((await page.locator('[data-index="resting-angle"]').textContent())?.replace('°', ''));
@@ -117,15 +65,15 @@ describe('pendulum test with the phone', () => {
   });
 
   it('saves the indices of a hand-held phone pendulum test to a patient, and the patient page shows the relaxation index', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page);
     const patientPath = await openFirstPatient(page);
     await page.goto(`/measure/pendulum?patient=${patientPath.split('/').pop() ?? ''}`);
-    await startDispatch(page, TABLE, HOLD_ROWS);
+    await playMotion(page, TABLE, HOLD_ROWS);
     await page.getByRole('button', { name: 'Start' }).click();
     await page.getByText('Recording: let go of the leg now.').waitFor({ timeout: 10_000 });
-    await release(page);
+    await releaseMotion(page);
     await page.getByText(/^Stopped: \d+ samples recorded\.$/).waitFor({ timeout: 20_000 });
     const shown = (await page.locator('[data-index="relaxation-index"]').textContent()) ?? '';
     expect(Math.abs(Number(shown) - swing.truth.r2)).toBeLessThan(0.1);
@@ -148,7 +96,7 @@ describe('pendulum test with the phone', () => {
   });
 
   it('says clearly when no motion sensor sends data (a desktop computer)', async () => {
-    const context = await newAppContext(browser, { viewport: tablet });
+    const context = await newAppContext(chromium.browser, { viewport: tablet });
     const page = await context.newPage();
     await page.goto('/measure/pendulum');
     await page.getByRole('button', { name: 'Start' }).click();
@@ -160,7 +108,7 @@ describe('pendulum test with the phone', () => {
   });
 
   it('asks for motion permission inside the tap (iOS style) and explains a refusal', async () => {
-    const context = await newAppContext(browser);
+    const context = await newAppContext(chromium.browser);
     await context.addInitScript(() => {
       const w = window as unknown as { __askedInGesture: boolean | null; DeviceMotionEvent: { requestPermission?: () => Promise<string> } };
       w.__askedInGesture = null;
@@ -178,15 +126,15 @@ describe('pendulum test with the phone', () => {
   });
 
   it('keeps what was recorded when the page goes to the background mid-recording', async () => {
-    const context = await newAppContext(browser);
+    const context = await newAppContext(chromium.browser);
     const page = await context.newPage();
     await page.goto('/measure/pendulum');
-    await startDispatch(page, TABLE, HOLD_ROWS);
+    await playMotion(page, TABLE, HOLD_ROWS);
     await page.getByRole('button', { name: 'Start' }).click();
     await page.getByText('Recording: let go of the leg now.').waitFor({ timeout: 10_000 });
-    await release(page);
+    await releaseMotion(page);
     // About 0.6 s of swing at the 16 ms event interval.
-    await waitForEvents(page, 38, 'the first part of the swing');
+    await waitForMotionEvents(page, 38, 'the first part of the swing');
     await page.evaluate(() => {
       Object.defineProperty(document, 'visibilityState', { value: 'hidden', configurable: true });
       document.dispatchEvent(new Event('visibilitychange'));
@@ -208,18 +156,18 @@ describe('phone inclinometer', () => {
     // Phone flat on the shin (screen out), segment horizontal; then the knee bent by 72° (rotation about the world's left axis).
     const startOrientation = SHIN_SCREEN_OUT;
     const endOrientation = multiply(axisAngle(0, 1, 0, 72), SHIN_SCREEN_OUT);
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await page.goto('/measure/inclinometer');
-    await startDispatch(page, toTable(startOrientation), 0);
-    await release(page);
+    await playMotion(page, toTable(startOrientation), 0);
+    await releaseMotion(page);
     await page.getByRole('button', { name: 'Start sensors' }).click();
     await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     expect(Number((await page.locator('[data-value="segment"]').textContent())?.replace('°', ''))).toBeCloseTo(90, 0);
     await page.getByRole('button', { name: 'Set zero' }).click();
-    await setTable(page, toTable(endOrientation));
+    await swapMotionTable(page, toTable(endOrientation));
     // The steadiness window (about 1 s) must refill with the new position: 80 events at 16 ms.
-    await waitForEvents(page, 80, 'the leg held still in the end position');
+    await waitForMotionEvents(page, 80, 'the leg held still in the end position');
     await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await page.getByRole('button', { name: 'Measure end position' }).click();
     const shown = Number((await page.getByLabel('Joint angle').textContent())?.replace('°', ''));
@@ -236,20 +184,20 @@ describe('phone inclinometer', () => {
       const st = staticDeviceMotion(o, 0.5, { rateHz: RATE_HZ, errors: { ...NO_ERRORS, accNoiseMs2: 0.03, gyroNoiseDps: 0.1 }, seed: 5 });
       return Array.from(st.timeMs, (_, i) => [st.rateAlphaDps[i], st.rateBetaDps[i], st.rateGammaDps[i], st.accXMs2[i], st.accYMs2[i], st.accZMs2[i]]);
     };
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page);
     const patientPath = await openFirstPatient(page);
     await page.getByRole('link', { name: 'Phone inclinometer' }).click();
     await page.getByRole('button', { name: 'Start sensors' }).waitFor();
-    await startDispatch(page, toTable(SHIN_SCREEN_OUT), 0);
-    await release(page);
+    await playMotion(page, toTable(SHIN_SCREEN_OUT), 0);
+    await releaseMotion(page);
     await page.getByRole('button', { name: 'Start sensors' }).click();
     await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await page.getByRole('button', { name: 'Set zero' }).click();
-    await setTable(page, toTable(multiply(axisAngle(0, 1, 0, 95), SHIN_SCREEN_OUT)));
+    await swapMotionTable(page, toTable(multiply(axisAngle(0, 1, 0, 95), SHIN_SCREEN_OUT)));
     // The steadiness window (about 1 s) must refill with the new position: 80 events at 16 ms.
-    await waitForEvents(page, 80, 'the leg held still in the end position');
+    await waitForMotionEvents(page, 80, 'the leg held still in the end position');
     await page.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await page.getByRole('button', { name: 'Measure end position' }).click();
     await page.getByRole('combobox', { name: /Motion/ }).selectOption('knee-flexion');

@@ -1,13 +1,12 @@
 // The app shell: loads, installs its offline worker, works with the network cut, and only updates
 // when the user accepts.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { appendFileSync, cpSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Browser } from 'playwright-core';
+import { sharedChromium } from '../support/shared-browser';
 import { startStaticServer } from '../../src/cli/commands/serve';
 import {
-  launchChromium,
   newAppContext,
   phone,
   screenshot,
@@ -16,13 +15,7 @@ import {
   waitForOfflineWorker,
 } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 describe('app shell', () => {
   it('loads the first screen: a patient receives a programme, a therapist sets up (with the demo caseload), at phone and tablet size', async () => {
@@ -30,7 +23,7 @@ describe('app shell', () => {
       ['phone', phone],
       ['tablet', tablet],
     ] as const) {
-      const context = await newAppContext(browser, { viewport });
+      const context = await newAppContext(chromium.browser, { viewport });
       const page = await context.newPage();
       await page.goto('/');
       await expect(page.title()).resolves.toBe('Kinnote');
@@ -48,7 +41,7 @@ describe('app shell', () => {
   });
 
   it('has no serious or critical axe-core violations on the first screen', async () => {
-    const context = await newAppContext(browser);
+    const context = await newAppContext(chromium.browser);
     const page = await context.newPage();
     await page.goto('/');
     await page.getByRole('heading', { level: 1 }).waitFor();
@@ -57,7 +50,7 @@ describe('app shell', () => {
   });
 
   it('serves a manifest with name, icons, start_url and display', async () => {
-    const context = await newAppContext(browser);
+    const context = await newAppContext(chromium.browser);
     const page = await context.newPage();
     await page.goto('/');
     const href = await page.locator('link[rel="manifest"]').getAttribute('href');
@@ -86,7 +79,7 @@ describe('app shell', () => {
   });
 
   it('is controlled by a service worker, and after one visit reloads offline with its IndexedDB data', async () => {
-    const context = await newAppContext(browser);
+    const context = await newAppContext(chromium.browser);
     const page = await context.newPage();
     await page.goto('/');
     await waitForOfflineWorker(page);
@@ -134,7 +127,7 @@ describe('app shell', () => {
   });
 
   it('negative control: without the service worker the offline reload fails', async () => {
-    const context = await newAppContext(browser, { serviceWorkers: 'block' });
+    const context = await newAppContext(chromium.browser, { serviceWorkers: 'block' });
     const page = await context.newPage();
     await page.goto('/');
     await page.getByRole('heading', { level: 1 }).waitFor();
@@ -148,7 +141,7 @@ describe('app shell', () => {
     cpSync('build', dir, { recursive: true });
     const server = await startStaticServer(dir, 0);
     try {
-      const context = await newAppContext(browser, { baseURL: server.url });
+      const context = await newAppContext(chromium.browser, { baseURL: server.url });
       const page = await context.newPage();
       await page.goto('/');
       await waitForOfflineWorker(page);

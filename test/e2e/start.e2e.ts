@@ -1,17 +1,12 @@
 // Where the app opens and how names are unlocked: a set-up clinician device opens on the caseload; the
 // first screen before set-up stays; names unlock from any page in a dialog, and the page stays as it was.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { sharedChromium } from '../support/shared-browser';
 import { setUpDevice, TEST_PASSPHRASE } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
+import { newAppContext, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 const path = (page: Page) => new URL(page.url()).pathname;
 
@@ -21,7 +16,7 @@ describe('the first screen and unlocking in place', () => {
     ['1024', tablet],
   ] as const) {
     it(`opens on the caseload once set up, and unlocks names on the page where they are needed (${size} px)`, async () => {
-      const context = await newAppContext(browser, { viewport });
+      const context = await newAppContext(chromium.browser, { viewport });
       const page = await context.newPage();
       // Before set-up the first screen asks who the device is for, and stays after a reload.
       await page.goto('/');

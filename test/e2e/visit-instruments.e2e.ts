@@ -1,19 +1,15 @@
 // Issue 14: instruments inside the visit. A pendulum test from a file and a phone inclinometer reading
 // taken from within the visit form, offline, kept in the visit's draft across a reload, and saved with
 // the visit's grade as ONE visit (one assessment, one line on the patient's page, every record audited).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { axisAngle, multiply, NO_ERRORS, SHIN_SCREEN_OUT, staticDeviceMotion } from '../reference/sensors/device-motion-simulator';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { playMotion, swapMotionTable, waitForMotionEvents } from './motion-player';
+import { newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 const RATE_HZ = 100;
 /** Half a second of a phone held still in one orientation (sensor noise, no tremor), as event rows. */
@@ -22,38 +18,17 @@ function stillTable(orientation: Float64Array, seed: number): number[][] {
   return Array.from(s.timeMs, (_, i) => [s.rateAlphaDps[i], s.rateBetaDps[i], s.rateGammaDps[i], s.accXMs2[i], s.accYMs2[i], s.accZMs2[i]]);
 }
 
-/** Dispatches devicemotion events every 16 ms from `table`, played in a loop by time. */
-async function startDispatch(page: Page, table: number[][]): Promise<void> {
-  await page.evaluate(
-    ({ table, rateHz }) => {
-      const w = window as unknown as { __motion: { table: number[][]; sent: number } };
-      w.__motion = { table, sent: 0 };
-      window.setInterval(() => {
-        const m = w.__motion;
-        m.sent++;
-        const [alpha, beta, gamma, x, y, z] = m.table[Math.floor((performance.now() * rateHz) / 1000) % m.table.length] as number[];
-        window.dispatchEvent(new DeviceMotionEvent('devicemotion', { rotationRate: { alpha, beta, gamma }, accelerationIncludingGravity: { x, y, z }, interval: 16 }));
-      }, 16);
-    },
-    { table, rateHz: RATE_HZ },
-  );
-}
-
 /** Swaps the played table and waits until `count` more events went out (a condition, not a sleep). */
 async function holdIn(page: Page, table: number[][], count: number): Promise<void> {
-  const from = await page.evaluate((t) => {
-    const m = (window as unknown as { __motion: { table: number[][]; sent: number } }).__motion;
-    m.table = t;
-    return m.sent;
-  }, table);
-  await page.waitForFunction((target) => (window as unknown as { __motion: { sent: number } }).__motion.sent >= target, from + count, { timeout: 30_000, polling: 50 });
+  await swapMotionTable(page, table);
+  await waitForMotionEvents(page, count, 'the phone held still');
 }
 
 type Row = { id: string; assessmentId?: string | null; traceId?: string | null; measureCode?: string; instrument?: string | null; side?: string; siteCode?: string; deleted: boolean };
 
 describe('instruments inside the visit', () => {
   it('a pendulum file and an inclinometer reading taken in the visit are saved with it as one visit, offline, shown as one line', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await waitForOfflineWorker(page);
@@ -104,7 +79,7 @@ describe('instruments inside the visit', () => {
 
     // 2. A phone inclinometer reading, inside the same visit: knee bent 95° from the start position.
     await instruments.getByRole('button', { name: 'Phone inclinometer' }).click();
-    await startDispatch(page, stillTable(SHIN_SCREEN_OUT, 5));
+    await playMotion(page, stillTable(SHIN_SCREEN_OUT, 5));
     await instruments.getByRole('button', { name: 'Start sensors' }).click();
     await instruments.getByText('Steady', { exact: true }).waitFor({ timeout: 20_000 });
     await instruments.getByRole('button', { name: 'Set zero' }).click();
@@ -171,7 +146,7 @@ describe('instruments inside the visit', () => {
   });
 
   it('a reading the restored draft cannot read is named in the visit, never dropped silently', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await page.goto('/patients/new');

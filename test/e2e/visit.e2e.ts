@@ -1,41 +1,15 @@
 // The visit as the unit of work: a first home visit built by hand, then a follow-up laid out from it
 // (carry forward), counted in taps on a phone and a tablet, offline; error summary and Enter.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { join } from 'node:path';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot, screenshotDir, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { Taps } from './taps';
+import { newAppContext, phone, screenshot, screenshotDir, seriousAxeViolations, tablet, waitForOfflineWorker } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
-/**
- * Counts what a person does: a tap on a button, link or radio is 1; choosing in a drop-down is 2
- * (open, choose); typing a number is 1 tap into the field plus its digits, counted apart.
- */
-class Taps {
-  taps = 0;
-  digits = 0;
-  async tap(target: Locator): Promise<void> {
-    this.taps++;
-    await target.click();
-  }
-  async choose(select: Locator, value: string): Promise<void> {
-    this.taps += 2;
-    await select.selectOption(value);
-  }
-  async type(field: Locator, text: string): Promise<void> {
-    this.taps++;
-    this.digits += text.replace(/[^0-9]/g, '').length;
-    await field.click();
-    await field.pressSequentially(text);
-  }
-}
 
 const section = (page: Page, heading: string) => page.locator('section', { has: page.getByRole('heading', { name: heading, exact: true }) });
 
@@ -118,7 +92,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
     ['tablet', tablet],
   ] as const) {
     it(`takes at most 15 taps from opening the app to saved at ${size} size, offline, and continues every series`, async () => {
-      const context = await newAppContext(browser, { viewport });
+      const context = await newAppContext(chromium.browser, { viewport });
       const page = await context.newPage();
       await setUpDevice(page, { demo: false });
       await waitForOfflineWorker(page);
@@ -176,7 +150,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
   }
 
   it('names and marks every field in the error summary, moves focus to the first, and never saves on Enter', async () => {
-    const context = await newAppContext(browser, { viewport: phone });
+    const context = await newAppContext(chromium.browser, { viewport: phone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await addPatient(page);
@@ -230,7 +204,7 @@ describe('a follow-up home visit carries the last visit forward', () => {
   });
 
   it('opens a saved visit and amends it with a reason, audited with the old and new value', async () => {
-    const context = await newAppContext(browser, { viewport: tablet });
+    const context = await newAppContext(chromium.browser, { viewport: tablet });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await addPatient(page);

@@ -353,6 +353,85 @@ function adherenceWeeks(sheet: Sheet, r: ReferralReport, week: (w: string) => st
   }
 }
 
+/** Header: title, who, facts at the left; prepared on/by at the right; a brand rule under it; then the scope. */
+function reportHeader(sheet: Sheet, r: ReferralReport, day: (d: string) => string): void {
+  const fonts = sheet.fonts;
+  const prepared = reportPreparedLines(r, day).map((line) => sheet.safe(line));
+  const preparedWidth = Math.max(...prepared.map((line) => fonts.regular.widthOfTextAtSize(line, BODY_PT)));
+  const leftWidth = CONTENT_WIDTH - preparedWidth - 12;
+  prepared.forEach((line, i) => {
+    const w = fonts.regular.widthOfTextAtSize(line, BODY_PT);
+    sheet.drawLine([{ text: line, font: fonts.regular }], MARGIN_X + CONTENT_WIDTH - w, sheet.y + 2 + i * sheet.lineHeight(BODY_PT), { size: BODY_PT, color: MUTED });
+  });
+  sheet.drawLine([{ text: sheet.safe(REPORT_TITLE), font: fonts.bold }], MARGIN_X, sheet.y, { size: 14 });
+  sheet.y += 19;
+  const whoLines = sheet.wrap(reportWhoParts(r, day), leftWidth, BODY_PT);
+  // The code in a fixed-width face, as on the page.
+  const codeLines = whoLines.map((line) => line.map((run) => (run.text === r.patientCode && run.font === fonts.bold ? { ...run, font: fonts.code } : run)));
+  sheet.y += sheet.drawLines(codeLines, MARGIN_X, sheet.y, { size: BODY_PT });
+  sheet.y += sheet.drawLines(sheet.wrap([{ text: r.patientFacts }], leftWidth, BODY_PT), MARGIN_X, sheet.y, { size: BODY_PT, color: MUTED });
+  sheet.y = Math.max(sheet.y, MARGIN_TOP + 2 + prepared.length * sheet.lineHeight(BODY_PT)) + 3;
+  sheet.rule(sheet.y, BRAND, 1.5);
+  sheet.y += 6;
+  sheet.paragraph(reportScopeParts(r, day), { size: BODY_PT });
+}
+
+/** The interventions in the period, one bulleted line each. */
+function interventionList(sheet: Sheet, r: ReferralReport, day: (d: string) => string): void {
+  const fonts = sheet.fonts;
+  sheet.heading(REPORT_HEADINGS.interventions, sheet.lineHeight(BODY_PT));
+  if (r.interventions.length === 0) sheet.paragraph([{ text: NO_INTERVENTIONS_TEXT }], { size: BODY_PT });
+  for (const i of r.interventions) {
+    const lines = sheet.wrap([{ text: `${day(i.day)} `, strong: true }, { text: interventionDetails(i) }], CONTENT_WIDTH - 10, BODY_PT);
+    sheet.ensure(lines.length * sheet.lineHeight(BODY_PT));
+    sheet.drawLine([{ text: '•', font: fonts.regular }], MARGIN_X + 2, sheet.y, { size: BODY_PT });
+    sheet.y += sheet.drawLines(lines, MARGIN_X + 10, sheet.y, { size: BODY_PT });
+  }
+}
+
+/** Where each MDC comes from, numbered as the table's notes. */
+function mdcNotes(sheet: Sheet, r: ReferralReport): void {
+  const fonts = sheet.fonts;
+  if (r.notes.length > 0) {
+    sheet.heading(REPORT_HEADINGS.notes, sheet.lineHeight(SMALL_PT));
+    r.notes.forEach((note, n) => {
+      const lines = sheet.wrap([{ text: note }], CONTENT_WIDTH - 14, SMALL_PT);
+      sheet.ensure(lines.length * sheet.lineHeight(SMALL_PT));
+      sheet.drawLine([{ text: `${n + 1}.`, font: fonts.regular }], MARGIN_X + 2, sheet.y, { size: SMALL_PT });
+      sheet.y += sheet.drawLines(lines, MARGIN_X + 14, sheet.y, { size: SMALL_PT }) + 1;
+    });
+  }
+}
+
+/** Cautions: kept together, with the accent bar at their left as on the page. */
+function cautions(sheet: Sheet, r: ReferralReport): void {
+  const fonts = sheet.fonts;
+  const cautionLines = r.cautions.map((c) => sheet.wrap([{ text: c }], CONTENT_WIDTH - 22, 8));
+  const cautionsHeight = 8 + 16 + cautionLines.reduce((sum, lines) => sum + lines.length * sheet.lineHeight(8) + 1, 0);
+  sheet.ensure(cautionsHeight);
+  sheet.y += 8;
+  const cautionsTop = sheet.y;
+  sheet.drawLine([{ text: sheet.safe(REPORT_HEADINGS.cautions), font: fonts.bold }], MARGIN_X + 9, sheet.y, { size: 10 });
+  sheet.y += 15;
+  for (const lines of cautionLines) {
+    sheet.drawLine([{ text: '•', font: fonts.regular }], MARGIN_X + 10, sheet.y, { size: 8 });
+    sheet.y += sheet.drawLines(lines, MARGIN_X + 18, sheet.y, { size: 8 }) + 1;
+  }
+  sheet.page.drawRectangle({ x: MARGIN_X, y: PAGE_HEIGHT - sheet.y, width: 3, height: sheet.y - cautionsTop, color: ACCENT });
+}
+
+/** Footer on every page: what the report is, whose, the period, and the page number. */
+function pageFooters(sheet: Sheet, r: ReferralReport, day: (d: string) => string): void {
+  const fonts = sheet.fonts;
+  const footer = sheet.safe(reportFooterText(r, day));
+  sheet.pages.forEach((page, i) => {
+    const y = MARGIN_BOTTOM - 2;
+    page.drawText(footer, { x: MARGIN_X, y, size: 7, font: fonts.regular, color: MUTED });
+    const number = `Page ${i + 1} of ${sheet.pages.length}`;
+    page.drawText(number, { x: MARGIN_X + CONTENT_WIDTH - fonts.regular.widthOfTextAtSize(number, 7), y, size: 7, font: fonts.regular, color: MUTED });
+  });
+}
+
 /**
  * Writes the referral report as an A4 PDF: the page's content in the page's order (header, scope,
  * interventions, measures with their charts as vector drawings, home programme, assessments, MDC
@@ -374,34 +453,9 @@ export async function referralReportPdf(report: ReferralReport, options: Referra
   const sheet = new Sheet(doc, fonts);
   const r = report;
 
-  // Header: title, who, facts at the left; prepared on/by at the right; a brand rule under it.
-  const prepared = reportPreparedLines(r, day).map((line) => sheet.safe(line));
-  const preparedWidth = Math.max(...prepared.map((line) => fonts.regular.widthOfTextAtSize(line, BODY_PT)));
-  const leftWidth = CONTENT_WIDTH - preparedWidth - 12;
-  prepared.forEach((line, i) => {
-    const w = fonts.regular.widthOfTextAtSize(line, BODY_PT);
-    sheet.drawLine([{ text: line, font: fonts.regular }], MARGIN_X + CONTENT_WIDTH - w, sheet.y + 2 + i * sheet.lineHeight(BODY_PT), { size: BODY_PT, color: MUTED });
-  });
-  sheet.drawLine([{ text: sheet.safe(REPORT_TITLE), font: fonts.bold }], MARGIN_X, sheet.y, { size: 14 });
-  sheet.y += 19;
-  const whoLines = sheet.wrap(reportWhoParts(r, day), leftWidth, BODY_PT);
-  // The code in a fixed-width face, as on the page.
-  const codeLines = whoLines.map((line) => line.map((run) => (run.text === r.patientCode && run.font === fonts.bold ? { ...run, font: fonts.code } : run)));
-  sheet.y += sheet.drawLines(codeLines, MARGIN_X, sheet.y, { size: BODY_PT });
-  sheet.y += sheet.drawLines(sheet.wrap([{ text: r.patientFacts }], leftWidth, BODY_PT), MARGIN_X, sheet.y, { size: BODY_PT, color: MUTED });
-  sheet.y = Math.max(sheet.y, MARGIN_TOP + 2 + prepared.length * sheet.lineHeight(BODY_PT)) + 3;
-  sheet.rule(sheet.y, BRAND, 1.5);
-  sheet.y += 6;
-  sheet.paragraph(reportScopeParts(r, day), { size: BODY_PT });
+  reportHeader(sheet, r, day);
 
-  sheet.heading(REPORT_HEADINGS.interventions, sheet.lineHeight(BODY_PT));
-  if (r.interventions.length === 0) sheet.paragraph([{ text: NO_INTERVENTIONS_TEXT }], { size: BODY_PT });
-  for (const i of r.interventions) {
-    const lines = sheet.wrap([{ text: `${day(i.day)} `, strong: true }, { text: interventionDetails(i) }], CONTENT_WIDTH - 10, BODY_PT);
-    sheet.ensure(lines.length * sheet.lineHeight(BODY_PT));
-    sheet.drawLine([{ text: '•', font: fonts.regular }], MARGIN_X + 2, sheet.y, { size: BODY_PT });
-    sheet.y += sheet.drawLines(lines, MARGIN_X + 10, sheet.y, { size: BODY_PT });
-  }
+  interventionList(sheet, r, day);
 
   sheet.heading(REPORT_HEADINGS.measures, 3 * sheet.lineHeight(BODY_PT) + CHART_HEIGHT);
   sheet.paragraph([{ text: r.summaryText, strong: true }], { size: BODY_PT });
@@ -426,38 +480,9 @@ export async function referralReportPdf(report: ReferralReport, options: Referra
     sheet.paragraph([{ text: visits.assessors }], { size: BODY_PT });
   }
 
-  if (r.notes.length > 0) {
-    sheet.heading(REPORT_HEADINGS.notes, sheet.lineHeight(SMALL_PT));
-    r.notes.forEach((note, n) => {
-      const lines = sheet.wrap([{ text: note }], CONTENT_WIDTH - 14, SMALL_PT);
-      sheet.ensure(lines.length * sheet.lineHeight(SMALL_PT));
-      sheet.drawLine([{ text: `${n + 1}.`, font: fonts.regular }], MARGIN_X + 2, sheet.y, { size: SMALL_PT });
-      sheet.y += sheet.drawLines(lines, MARGIN_X + 14, sheet.y, { size: SMALL_PT }) + 1;
-    });
-  }
-
-  // Cautions: kept together, with the accent bar at their left as on the page.
-  const cautionLines = r.cautions.map((c) => sheet.wrap([{ text: c }], CONTENT_WIDTH - 22, 8));
-  const cautionsHeight = 8 + 16 + cautionLines.reduce((sum, lines) => sum + lines.length * sheet.lineHeight(8) + 1, 0);
-  sheet.ensure(cautionsHeight);
-  sheet.y += 8;
-  const cautionsTop = sheet.y;
-  sheet.drawLine([{ text: sheet.safe(REPORT_HEADINGS.cautions), font: fonts.bold }], MARGIN_X + 9, sheet.y, { size: 10 });
-  sheet.y += 15;
-  for (const lines of cautionLines) {
-    sheet.drawLine([{ text: '•', font: fonts.regular }], MARGIN_X + 10, sheet.y, { size: 8 });
-    sheet.y += sheet.drawLines(lines, MARGIN_X + 18, sheet.y, { size: 8 }) + 1;
-  }
-  sheet.page.drawRectangle({ x: MARGIN_X, y: PAGE_HEIGHT - sheet.y, width: 3, height: sheet.y - cautionsTop, color: ACCENT });
-
-  // Footer on every page: what the report is, whose, the period, and the page number.
-  const footer = sheet.safe(reportFooterText(r, day));
-  sheet.pages.forEach((page, i) => {
-    const y = MARGIN_BOTTOM - 2;
-    page.drawText(footer, { x: MARGIN_X, y, size: 7, font: fonts.regular, color: MUTED });
-    const number = `Page ${i + 1} of ${sheet.pages.length}`;
-    page.drawText(number, { x: MARGIN_X + CONTENT_WIDTH - fonts.regular.widthOfTextAtSize(number, 7), y, size: 7, font: fonts.regular, color: MUTED });
-  });
+  mdcNotes(sheet, r);
+  cautions(sheet, r);
+  pageFooters(sheet, r, day);
 
   // Metadata: code and period only (never the name), so a file list or a mail client shows no name.
   doc.setTitle(`${REPORT_TITLE} ${r.patientCode} ${r.fromDay} to ${r.throughDay}`);

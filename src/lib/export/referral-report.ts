@@ -1,14 +1,14 @@
 import { EVENT_KIND_LABELS, type Assessment, type ClinicalEvent, type Clinician, type Observation, type Patient } from '../domain';
-import { mdcSourceLine, outcomeSeries, type LocalMdc, type MdcProvenance, type OutcomeOptions, type OutcomeSeries, type VerdictKind } from '../stats';
+import { outcomeSeries, type LocalMdc, type VerdictKind } from '../stats';
 import { localDateTime } from './local-date-time';
+import { reportAdherence } from './report-adherence';
+import { reportMeasure, type ReportMeasureContext } from './report-measure';
+import { checkDay, reportScope } from './report-scope';
+import { reportSummary } from './report-summary';
+import { reportIntervention, reportVisits } from './report-visits';
 
-const dayMs = 86_400_000;
-const DAY_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
-
-/** Refused input of the referral report: names the field and what is wrong with it. */
-export class ReferralReportError extends Error {
-  override readonly name = 'ReferralReportError';
-}
+export { ReferralReportError } from './referral-report-error';
+export { clinicianLabel } from './report-visits';
 
 /**
  * What the report covers: the change since an intervention (baseline: each measure's last assessment
@@ -156,72 +156,8 @@ export function defaultReportEvent<E extends Pick<ClinicalEvent, 'id' | 'kind' |
   return byDate.find((e) => e.kind === 'botulinum-toxin-injection') ?? byDate[0] ?? null;
 }
 
-function checkDay(value: string, field: string): void {
-  if (!DAY_PATTERN.test(value) || Number.isNaN(Date.parse(`${value}T00:00:00Z`)) || new Date(`${value}T00:00:00Z`).toISOString().slice(0, 10) !== value) {
-    throw new ReferralReportError(`referral report: ${field} "${value}" is not a calendar day (YYYY-MM-DD)`);
-  }
-}
-
-function addDays(day: string, days: number): string {
-  return new Date(Date.parse(`${day}T00:00:00Z`) + days * dayMs).toISOString().slice(0, 10);
-}
-
 function capitalise(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
-}
-
-/** A value as the report prints it: the grade label, or the number (≤ 2 decimals) with its unit. */
-function valueText(s: OutcomeSeries, value: number): string {
-  if (s.ordinalLabels) return s.ordinalLabels[value] ?? String(value);
-  // An index keeps two decimals (1.10), as the verdict sentence prints it; angles and scores drop a trailing .0.
-  return s.measure.kind === 'index' ? value.toFixed(2) : `${+value.toFixed(1)}${s.unitLabel}`;
-}
-
-function signedText(value: number, s: OutcomeSeries): string {
-  const decimals = s.measure.kind === 'index' ? 2 : 1;
-  const rounded = +value.toFixed(decimals);
-  const text = (n: number) => (decimals === 2 ? n.toFixed(2) : String(n));
-  // A true minus sign, as printed clinical letters use; "+" on a rise; 0 unsigned.
-  return rounded > 0 ? `+${text(rounded)}` : rounded < 0 ? `−${text(-rounded)}` : '0';
-}
-
-function changeText(s: OutcomeSeries, range: readonly [number, number]): string {
-  const [a, b] = range[0] <= range[1] ? range : [range[1], range[0]];
-  const unit = s.ordinalLabels ? (Math.abs(a) === 1 && a === b ? ' grade step' : ' grade steps') : s.unitLabel;
-  return a === b ? `${signedText(a, s)}${unit}` : `${signedText(a, s)} to ${signedText(b, s)}${unit}`;
-}
-
-function mdcValueText(s: OutcomeSeries, mdc: MdcProvenance | null): string {
-  if (!mdc) return 'none';
-  const value = +mdc.value.toFixed(2);
-  return s.ordinalLabels ? `${value} grade step${value === 1 ? '' : 's'}` : `${value}${s.unitLabel}`;
-}
-
-/** The note for an MDC: its full source for a reader who wants to check it, or why there is none. */
-function mdcNote(s: OutcomeSeries, mdc: MdcProvenance | null, note: string | null): string {
-  if (!mdc) return mdcSourceLine(null, s.unitLabel, s.ordinalLabels !== null, note);
-  switch (mdc.source) {
-    case 'local':
-      return `MDC from your team's own reliability study: ${mdc.citation}.`;
-    case 'reference':
-      return `MDC from a published figure: ${mdc.citation}.`;
-    default:
-      return 'MDC of one whole grade step: common practice for ordinal scales; no published MDC exists.';
-  }
-}
-
-/** "Ada Fenwick (physiotherapist)"; a display name that already names the profession is kept as it is. */
-export function clinicianLabel(c: Pick<Clinician, 'displayName' | 'profession'>): string {
-  const profession = c.profession.replace(/-/g, ' ');
-  return c.displayName.toLowerCase().includes(profession) ? c.displayName : `${c.displayName} (${profession})`;
-}
-
-function intervention(e: ClinicalEvent): ReportIntervention {
-  return { day: e.occurredOn, label: EVENT_KIND_LABELS[e.kind], side: e.side, muscles: e.muscles, dose: e.dose, summary: e.summary };
-}
-
-function percent(share: number): string {
-  return `${Math.round(share * 100)} %`;
 }
 
 /**
@@ -234,177 +170,51 @@ function percent(share: number): string {
  * (the patient page's choice of the same name, so the verdicts agree); a measure appears when it was
  * assessed on or after the event day. A period: observations whose local day lies in it, baseline the
  * first. Interventions, visits and adherence weeks are those that touch [fromDay, throughDay].
+ * Steps, one file each: the scope (report-scope), one row per series (report-measure), the tally and
+ * summary (report-summary), interventions and visits (report-visits), adherence (report-adherence).
  * Pure: no clock, no storage. Cost O(observations · log observations + events + weeks).
  * Throws ReferralReportError for a day that is not YYYY-MM-DD, a period that ends before it starts,
  * or an event id that is not among the patient's live events; RangeError for an unknown time zone.
+ *
+ * @example
+ * const report = referralReport({
+ *   patient, identity: null, observations, events, assessments, clinicians, adherence: [],
+ *   scope: { kind: 'since-event', eventId: injection.id, throughDay: '2026-04-30' },
+ *   timeZone: 'Europe/Berlin', preparedOn: '2026-04-30', preparedBy: null,
+ * });
+ * report.measures.map((m) => m.sentence); // one verdict sentence per measure, as on the patient page
+ * report.fileName; // "kinnote-report-K7QM-3XHD-2026-04-30"
  */
 export function referralReport(input: ReferralReportInput): ReferralReport {
-  const { scope } = input;
-  checkDay(scope.throughDay, 'scope.throughDay');
+  checkDay(input.scope.throughDay, 'scope.throughDay');
   checkDay(input.preparedOn, 'preparedOn');
   const liveEvents = input.events.filter((e) => !e.deleted);
-  const assessorByAssessment = new Map(input.assessments.map((a) => [a.id, a.assessorId]));
   const dayOf = (iso: string) => localDateTime(Date.parse(iso), input.timeZone).date;
-  const dayOfMs = (ms: number) => localDateTime(ms, input.timeZone).date;
-  const throughDay = scope.throughDay;
-  const live = input.observations.filter((o) => !o.deleted);
-
-  let fromDay: string;
-  let anchor: ClinicalEvent | null = null;
-  let options: OutcomeOptions;
-  let chosen: Observation[];
-  if (scope.kind === 'since-event') {
-    anchor = liveEvents.find((e) => e.id === scope.eventId) ?? null;
-    if (!anchor) throw new ReferralReportError(`referral report: scope.eventId "${scope.eventId}" is not an event of this patient`);
-    fromDay = anchor.occurredOn;
-    if (throughDay < fromDay) throw new ReferralReportError(`referral report: scope.throughDay ${throughDay} is before the event on ${fromDay}`);
-    chosen = live.filter((o) => dayOf(o.takenAt) <= throughDay);
-    // The same instant as the patient page's "Last before …" baseline.
-    options = { baselineRule: { kind: 'lastBeforeEvent', eventMs: Date.parse(`${anchor.occurredOn}T00:00:00Z`) }, assessorByAssessment, ...(input.localMdc ? { localMdc: input.localMdc } : {}) };
-  } else {
-    checkDay(scope.fromDay, 'scope.fromDay');
-    fromDay = scope.fromDay;
-    if (throughDay < fromDay) throw new ReferralReportError(`referral report: the period ends (${throughDay}) before it starts (${fromDay})`);
-    chosen = live.filter((o) => {
-      const day = dayOf(o.takenAt);
-      return day >= fromDay && day <= throughDay;
-    });
-    options = { baselineRule: { kind: 'first' }, assessorByAssessment, ...(input.localMdc ? { localMdc: input.localMdc } : {}) };
-  }
-  const anchorMs = anchor ? Date.parse(`${anchor.occurredOn}T00:00:00Z`) : Number.NEGATIVE_INFINITY;
-  const eventTimesMs = liveEvents.filter((e) => e.occurredOn <= throughDay).map((e) => Date.parse(`${e.occurredOn}T00:00:00Z`));
+  const { fromDay, throughDay, anchor, anchorMs, chosen, options } = reportScope(input, liveEvents, dayOf);
 
   const notes: string[] = [];
-  const noteNumber = (text: string): number => {
-    const at = notes.indexOf(text);
-    if (at >= 0) return at + 1;
-    notes.push(text);
-    return notes.length;
+  const context: ReportMeasureContext = {
+    scopeKind: input.scope.kind,
+    anchor,
+    anchorMs,
+    eventTimesMs: liveEvents.filter((e) => e.occurredOn <= throughDay).map((e) => Date.parse(`${e.occurredOn}T00:00:00Z`)),
+    dayOfMs: (ms) => localDateTime(ms, input.timeZone).date,
+    noteNumber: (text) => {
+      const at = notes.indexOf(text);
+      if (at >= 0) return at + 1;
+      notes.push(text);
+      return notes.length;
+    },
   };
   const measures: ReportMeasure[] = [];
   const notRemeasured: string[] = [];
   for (const s of outcomeSeries(chosen, options)) {
-    const after = s.points.some((p) => p.timeMs >= anchorMs);
-    if (!after) {
-      if (s.baseline) notRemeasured.push(s.title);
-      continue;
-    }
-    // The chart starts at the baseline (or, without one, at the first point after the event).
-    const firstShown = s.baseline ? Math.min(...s.baseline.indices) : s.points.findIndex((p) => p.timeMs >= anchorMs);
-    const shown = s.points.slice(firstShown);
-    const baselineIndices = s.baseline ? s.baseline.indices.map((i) => i - firstShown) : [];
-    const v = s.verdict;
-    const band = s.baseline && s.mdc && v ? { low: s.baseline.low - s.mdc.value, high: s.baseline.high + s.mdc.value } : null;
-    const values = shown.map((p) => p.value);
-    const yMin = Math.min(...values, ...(band ? [band.low] : []));
-    const yMax = Math.max(...values, ...(band ? [band.high] : []));
-    const chart: ReportChart = {
-      timesMs: shown.map((p) => p.timeMs),
-      values,
-      baselineIndices,
-      band,
-      eventTimesMs: eventTimesMs.filter((t) => t >= shown[0]!.timeMs && t <= shown[shown.length - 1]!.timeMs + dayMs),
-      yMin: s.ordinalLabels ? Math.max(0, yMin) : yMin,
-      yMax: s.ordinalLabels ? Math.min(s.ordinalLabels.length - 1, yMax) : yMax,
-      gradeLabels: s.ordinalLabels,
-      unit: s.unitLabel,
-    };
-    const baselineText = s.baseline
-      ? s.baseline.low === s.baseline.high
-        ? valueText(s, s.baseline.low)
-        : `${valueText(s, s.baseline.low)}–${valueText(s, s.baseline.high)}`
-      : null;
-    const baselineDays = s.baseline ? s.baseline.indices.map((i) => dayOfMs(s.points[i]!.timeMs)) : [];
-    if (v) {
-      measures.push({
-        key: s.key,
-        title: s.title,
-        baselineText,
-        baselineDays,
-        latestText: valueText(s, s.latest.value),
-        latestDay: dayOfMs(s.latest.timeMs),
-        changeText: changeText(s, v.changeRange),
-        mdcText: mdcValueText(s, v.mdcUsed),
-        noteNumber: noteNumber(mdcNote(s, v.mdcUsed, s.mdcNote)),
-        verdict: v.verdict,
-        sentence: v.text,
-        chart,
-      });
-      continue;
-    }
-    // No verdict: no baseline before the event, or one assessment only in the period.
-    const only = s.points.length === 1 || (s.baseline !== null && s.baseline.indices.includes(s.points.length - 1));
-    measures.push({
-      key: s.key,
-      title: s.title,
-      // A single assessment is no baseline of anything: it is shown as the latest value only.
-      baselineText: only ? null : baselineText,
-      baselineDays: only ? [] : baselineDays,
-      latestText: valueText(s, s.latest.value),
-      latestDay: dayOfMs(s.latest.timeMs),
-      // A measure with no better direction still shows its change, unjudged.
-      changeText: s.baseline && !only ? changeText(s, [s.latest.value - s.baseline.high, s.latest.value - s.baseline.low]) : '–',
-      mdcText: '–',
-      noteNumber: null,
-      verdict: 'not-compared',
-      sentence:
-        scope.kind === 'since-event' && !s.baseline
-          ? `No assessment before the ${EVENT_KIND_LABELS[anchor!.kind].toLowerCase()} to compare with; latest ${valueText(s, s.latest.value)}.`
-          : only
-            ? `Assessed once in this period (${valueText(s, s.latest.value)}); nothing to compare with.`
-            : 'No direction of improvement for this measure: the change is shown, not judged.',
-      chart,
-    });
+    const measure = reportMeasure(s, context);
+    if (measure) measures.push(measure);
+    else if (s.baseline) notRemeasured.push(s.title);
   }
-
-  const tally: Record<ReportVerdict, number> = { improved: 0, 'no-change': 0, worsened: 0, 'no-mdc': 0, 'not-compared': 0 };
-  for (const m of measures) tally[m.verdict]++;
-  const compared = measures.length - tally['not-compared'];
-  const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
-  const summaryText =
-    measures.length === 0
-      ? 'No measure was assessed in this period.'
-      : compared === 0
-        ? `${plural(measures.length, 'measure was', 'measures were')} assessed, none twice, so no change can be judged.`
-        : `Of ${plural(compared, 'measure', 'measures')} compared with baseline, ${tally.improved} improved and ${tally.worsened} got worse beyond measurement error; ${tally['no-change']} did not change beyond it` +
-          (tally['no-mdc'] > 0 ? `; for ${tally['no-mdc']} no MDC is known, so the change is shown but not judged` : '') +
-          '.';
-
-  const inWindow = (day: string) => day >= fromDay && day <= throughDay;
-  const interventions = liveEvents
-    .filter((e) => inWindow(e.occurredOn))
-    .sort((a, b) => (a.occurredOn < b.occurredOn ? -1 : a.occurredOn > b.occurredOn ? 1 : a.id < b.id ? -1 : 1))
-    .map(intervention);
-
-  const clinicianName = new Map(input.clinicians.map((c) => [c.id, clinicianLabel(c)]));
-  const visits: ReportVisit[] = input.assessments
-    .filter((a) => !a.deleted && inWindow(dayOf(a.performedAt)))
-    .sort((a, b) => (a.performedAt < b.performedAt ? -1 : 1))
-    .map((a) => ({ day: dayOf(a.performedAt), setting: a.setting, assessor: clinicianName.get(a.assessorId) ?? 'a clinician not known on this device' }));
-  const assessors = [...new Set(visits.map((v) => v.assessor))];
-
-  const weeks = input.adherence
-    .filter((w) => w.weekStart <= throughDay && addDays(w.weekStart, 6) >= fromDay)
-    .sort((a, b) => (a.weekStart < b.weekStart ? -1 : 1))
-    .map((w) => ({ weekStart: w.weekStart, planned: w.planned, done: w.done, share: w.planned > 0 ? w.done / w.planned : Number.NaN }));
-  let adherence: ReportAdherence | null = null;
-  if (weeks.length > 0) {
-    const planned = weeks.reduce((sum, w) => sum + w.planned, 0);
-    const done = weeks.reduce((sum, w) => sum + w.done, 0);
-    const share = planned > 0 ? done / planned : Number.NaN;
-    const shares = weeks.filter((w) => w.planned > 0).map((w) => w.share);
-    const range = shares.length > 1 ? `; weekly ${percent(Math.min(...shares))} to ${percent(Math.max(...shares))}` : '';
-    adherence = {
-      weeks,
-      planned,
-      done,
-      share,
-      text:
-        planned > 0
-          ? `${done} of ${planned} planned exercise sessions done in full (${percent(share)}) over ${plural(weeks.length, 'week', 'weeks')}${range}.`
-          : `No exercise sessions were planned in these ${plural(weeks.length, 'week', 'weeks')}.`,
-    };
-  }
+  const { tally, summaryText } = reportSummary(measures);
+  const { interventions, visits, assessors } = reportVisits(liveEvents, input.assessments, input.clinicians, { fromDay, throughDay, dayOf });
 
   const p = input.patient;
   const sides = p.affectedSides.length > 0 ? `affected side: ${p.affectedSides.join(' and ')}` : 'affected side not recorded';
@@ -418,7 +228,7 @@ export function referralReport(input: ReferralReportInput): ReferralReport {
     fromDay,
     throughDay,
     scopeText,
-    anchor: anchor ? intervention(anchor) : null,
+    anchor: anchor ? reportIntervention(anchor) : null,
     interventions,
     measures,
     notRemeasured,
@@ -426,7 +236,7 @@ export function referralReport(input: ReferralReportInput): ReferralReport {
     summaryText,
     visits,
     assessors,
-    adherence,
+    adherence: reportAdherence(input.adherence, fromDay, throughDay),
     notes,
     cautions: REPORT_CAUTIONS,
     preparedOn: input.preparedOn,

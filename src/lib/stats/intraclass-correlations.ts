@@ -75,6 +75,13 @@ function averageFromF(f: number): number {
  * A table with no variation at all (BMS = WMS = EMS = 0) gives NaN. Zero error with subject
  * variation gives 1 with the interval [1, 1] (ICC(2,·): computed in the limit EMS → 0).
  * Throws StatsInputError for confidence outside (0, 1).
+ *
+ * @example
+ * // Shrout & Fleiss (1979) Table 2: 6 targets × 4 judges, row-major (checked in
+ * // test/reference/stats/shrout-fleiss-icc.test.ts against their Table 4).
+ * const table = new Float64Array([9, 2, 5, 8, 6, 1, 3, 2, 8, 4, 6, 8, 7, 1, 2, 6, 10, 5, 6, 9, 6, 2, 4, 7]);
+ * const icc = intraclassCorrelations(anovaMeanSquares(table, 6, 4));
+ * icc['2,1'].value; // ≈ 0.29 (ICC(A,1)); icc['3,1'].value ≈ 0.71; icc['1,1'].value ≈ 0.17
  */
 export function intraclassCorrelations(ms: AnovaMeanSquares, confidence = 0.95): IntraclassCorrelations {
   if (!(confidence > 0 && confidence < 1)) {

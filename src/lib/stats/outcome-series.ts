@@ -1,11 +1,11 @@
 import { MEASURE_CATALOGUE, findMeasure, findSite, type Measure, type Observation } from '../domain';
-import { changeVerdict, type ChangeVerdict, type MdcProvenance, type MeasureScale } from './change-verdict';
-import { chooseMdc, type LocalMdc } from './choose-mdc';
-import { seriesKey } from './series-key';
-import { mannKendall, type MannKendall } from './mann-kendall';
-import { olsTrend } from './ols-trend';
+import type { ChangeVerdict, MdcProvenance } from './change-verdict';
+import type { LocalMdc } from './choose-mdc';
+import type { MannKendall } from './mann-kendall';
 import { selectBaseline, type Baseline, type BaselineRule } from './select-baseline';
-import { theilSen } from './theil-sen';
+import { seriesJudge } from './series-judge';
+import { seriesGroups, seriesPoints } from './series-points';
+import { seriesTrend } from './series-trend';
 
 const dayMs = 86_400_000;
 
@@ -71,20 +71,6 @@ export interface OutcomeOptions {
   readonly assessorByAssessment?: ReadonlyMap<string, string>;
 }
 
-function pointValue(measure: Measure, obs: Observation): { value: number; text: string } {
-  const v = obs.value;
-  switch (v.kind) {
-    case 'ordinal':
-      return { value: v.rank, text: v.grade };
-    case 'tardieu':
-      return { value: v.spasticityAngleDeg, text: `R2 − R1 ${v.spasticityAngleDeg}° (R1 ${v.r1Deg}°, R2 ${v.r2Deg}°, quality ${v.quality})` };
-    case 'angle':
-      return { value: v.angleDeg, text: `${v.angleDeg}°` };
-    default:
-      return { value: v.value, text: `${v.value}${measure.unit === 'deg' ? '°' : ''}` };
-  }
-}
-
 function unitLabel(measure: Measure): string {
   return measure.unit === 'deg' ? '°' : '';
 }
@@ -124,128 +110,45 @@ export function latestVerdicts(observations: readonly Observation[], options: Ou
   return buildSeries(observations, options, 'latest').map(({ key, title, verdict }) => ({ key, title, verdict }));
 }
 
-/** 'latest': judgements left empty and trend null (only latestVerdicts sees such series). */
+/**
+ * 'latest': judgements left empty and trend null (only latestVerdicts sees such series).
+ * Steps: group (series-points' seriesGroups), points, baseline (selectBaseline), judge each point
+ * (seriesJudge), trend (seriesTrend), then order by catalogue and title.
+ */
 function buildSeries(observations: readonly Observation[], options: OutcomeOptions, detail: 'full' | 'latest'): OutcomeSeries[] {
-  const groups = new Map<string, Observation[]>();
-  for (const obs of observations) {
-    if (obs.deleted || !findMeasure(obs.measureCode)) continue;
-    const key = seriesKey(obs);
-    const list = groups.get(key);
-    if (list) list.push(obs);
-    else groups.set(key, [obs]);
-  }
   const result: OutcomeSeries[] = [];
-  for (const [key, list] of groups) {
+  for (const [key, list] of seriesGroups(observations)) {
     const measure = findMeasure(list[0]!.measureCode) as Measure;
-    list.sort((a, b) => (a.takenAt < b.takenAt ? -1 : a.takenAt > b.takenAt ? 1 : a.id < b.id ? -1 : 1));
-    const points: OutcomePoint[] = list.map((obs) => ({
-      timeMs: Date.parse(obs.takenAt),
-      ...pointValue(measure, obs),
-      observationId: obs.id,
-      assessmentId: obs.assessmentId,
-      clinicianId: obs.clinicianId,
-    }));
     const first = list[0]!;
     const ordinal = measure.kind === 'ordinal';
-    const timesDay = new Float64Array(points.length);
-    const values = new Float64Array(points.length);
-    const t0 = points[0]!.timeMs;
-    points.forEach((p, i) => {
-      timesDay[i] = (p.timeMs - t0) / dayMs;
-      values[i] = p.value;
-    });
+    const { points, timesDay, values, t0Ms } = seriesPoints(measure, list);
     const rule: BaselineRule =
       options.baselineRule.kind === 'lastBeforeEvent'
-        ? { kind: 'lastBeforeEvent', eventDay: (options.baselineRule.eventMs - t0) / dayMs }
+        ? { kind: 'lastBeforeEvent', eventDay: (options.baselineRule.eventMs - t0Ms) / dayMs }
         : options.baselineRule;
     const baseline = selectBaseline(timesDay, values, rule, ordinal);
-    const latest = points[points.length - 1]!;
-    const betterWhen = measure.improvement === 'none' ? null : measure.improvement;
-
-    const scale: MeasureScale =
-      measure.kind === 'ordinal'
-        ? { kind: 'ordinal', grades: measure.grades.map((g) => ({ label: g.label, rank: g.rank })) }
-        : { kind: 'continuous', unit: measure.unit === 'deg' ? '°' : '', decimals: measure.kind === 'index' ? 2 : 0 };
-    // Each later point judged against the baseline; the MDC fits the comparison actually made
-    // (the baseline observation(s) and that point: their instruments and assessors).
-    const judge = (i: number): { mdc: MdcProvenance | null; mdcNote: string | null; verdict: ChangeVerdict | null } => {
-      const compared = baseline ? [...baseline.indices, i] : [i];
-      const choice = chooseMdc({
-        measureCode: measure.code,
-        siteCode: first.siteCode,
-        quantity: null,
-        compared: compared.map((k) => ({
-          instrument: list[k]!.instrument,
-          assessorId: options.assessorByAssessment?.get(list[k]!.assessmentId) ?? list[k]!.clinicianId,
-        })),
-        ...(options.localMdc ? { localMdc: options.localMdc } : {}),
-      });
-      // A baseline point itself is no change: a verdict needs a later assessment.
-      const verdict =
-        baseline && betterWhen && !baseline.indices.includes(i) && i > Math.min(...baseline.indices)
-          ? changeVerdict({ betterWhen, scale, baseline, followUp: points[i]!.value, mdc: choice.mdc })
-          : null;
-      return { mdc: choice.mdc, mdcNote: choice.note, verdict };
-    };
+    const judge = seriesJudge(measure, list, points, baseline, options);
     const last = judge(points.length - 1);
     const judgements = detail === 'full' ? points.map((_, i) => (i === points.length - 1 ? last : judge(i)).verdict) : [];
-    const { mdc, mdcNote } = last;
-    const title = seriesTitle(measure, first.siteCode, first.side, first.mode);
-    const verdict = last.verdict;
-
-    let trend: OutcomeTrend | null = null;
-    if (detail === 'full' && points.length >= 3 && timesDay[timesDay.length - 1]! > timesDay[0]!) {
-      if (ordinal) {
-        const ts = theilSen(timesDay, values);
-        let mk: MannKendall | null;
-        try {
-          mk = mannKendall(timesDay, values);
-        } catch {
-          mk = null; // tied times (two assessments at the same instant): no trend test
-        }
-        trend = {
-          method: 'theil-sen',
-          slopePer30Days: ts.slopePer30Days,
-          slopeCi95Per30Days: ts.slopeCiPer30Days,
-          intercept: ts.intercept,
-          t0Ms: t0,
-          slopePerDay: ts.slopePer30Days / 30,
-          rSquared: null,
-          mannKendall: mk,
-        };
-      } else {
-        const ols = olsTrend(timesDay, values);
-        trend = {
-          method: 'least-squares',
-          slopePer30Days: ols.slopePer30Days,
-          slopeCi95Per30Days: ols.slopeCi95Per30Days,
-          intercept: ols.intercept,
-          t0Ms: t0,
-          slopePerDay: ols.slopePer30Days / 30,
-          rSquared: ols.rSquared,
-          mannKendall: null,
-        };
-      }
-    }
     result.push({
       key,
       measure,
       siteCode: first.siteCode,
       side: first.side,
       mode: first.mode,
-      title,
+      title: seriesTitle(measure, first.siteCode, first.side, first.mode),
       valueLabel: measure.kind === 'tardieu' ? 'Spasticity angle R2 − R1' : measure.label,
       unitLabel: unitLabel(measure),
-      ordinalLabels: measure.kind === 'ordinal' ? measure.grades.map((g) => g.label) : null,
-      betterWhen,
+      ordinalLabels: ordinal ? measure.grades.map((g) => g.label) : null,
+      betterWhen: measure.improvement === 'none' ? null : measure.improvement,
       points,
       baseline,
-      latest,
-      verdict,
-      mdc,
-      mdcNote,
+      latest: points[points.length - 1]!,
+      verdict: last.verdict,
+      mdc: last.mdc,
+      mdcNote: last.mdcNote,
       judgements,
-      trend,
+      trend: detail === 'full' ? seriesTrend(timesDay, values, t0Ms, ordinal) : null,
     });
   }
   const rank = (m: Measure) => MEASURE_CATALOGUE.indexOf(m);

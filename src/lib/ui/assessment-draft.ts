@@ -126,14 +126,15 @@ export function draftObservations(draft: AssessmentDraft): { observations: Obser
       blank(`mas.${i}.grade`);
       return;
     }
-    add(`mas.${i}`, {
-      measureCode: 'mas',
-      siteCode: row.siteCode,
-      side: row.side,
-      mode: null,
-      instrument: null,
-      value: ordinalValue('mas', row.grade),
-    });
+    let value: ObservationValue;
+    try {
+      value = ordinalValue('mas', row.grade);
+    } catch (error) {
+      // A grade off the scale can only come from a draft read back from storage: named, never thrown.
+      issues.push({ field: `mas.${i}.grade`, message: error instanceof RangeError ? error.message : String(error) });
+      return;
+    }
+    add(`mas.${i}`, { measureCode: 'mas', siteCode: row.siteCode, side: row.side, mode: null, instrument: null, value });
   });
 
   draft.tardieu.forEach((row, i) => {

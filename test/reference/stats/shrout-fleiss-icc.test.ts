@@ -4,7 +4,7 @@ import { anovaMeanSquares, intraclassCorrelations, mcGrawWongNames } from '../..
 import { relativeError } from '../../support/relative-error';
 
 // Shrout PE, Fleiss JL (1979), Psychological Bulletin 86:420–428, Table 2: 6 targets × 4 judges.
-// Data VERIFIED in REFERENCES.md §1a (psych test file copy).
+// Data VERIFIED in REFERENCES.md §1a (psych test file copy). The worked @example of intraclassCorrelations.
 const table = new Float64Array([9, 2, 5, 8, 6, 1, 3, 2, 8, 4, 6, 8, 7, 1, 2, 6, 10, 5, 6, 9, 6, 2, 4, 7]);
 type Form = '1,1' | '2,1' | '3,1' | '1,k' | '2,k' | '3,k';
 const forms: Form[] = ['1,1', '2,1', '3,1', '1,k', '2,k', '3,k'];

@@ -2,19 +2,22 @@
 // export core does not validate records; the store does, and the CLI tests use real bundles).
 import type { Assessment, ClinicalEvent, Clinician, Observation, ObservationValue, Patient } from '../../../src/lib/domain';
 import type { CohortRecords } from '../../../src/lib/export';
+import { deepFreeze } from '../../support/deep-freeze';
+import { aPatient, anAssessment, anEvent, anObservation } from '../../support/records';
 
 const stamp = { createdAt: '2025-01-01T00:00:00.000Z', updatedAt: '2025-01-01T00:00:00.000Z', deviceId: 'dev', clinicianId: 'c1', deleted: false };
 
 export function patient(id: string, over: Partial<Patient> = {}): Patient {
-  return { ...stamp, id, code: 'ABCD-EFGH', birthYear: 1961, condition: 'stroke', affectedSides: ['left'], status: 'active', ...over };
+  return aPatient({ ...stamp, id, code: 'ABCD-EFGH', birthYear: 1961, ...over });
 }
 
 export function clinician(id: string, displayName: string): Clinician {
-  return { ...stamp, id, displayName, profession: 'physiotherapist', registration: null };
+  return deepFreeze({ ...stamp, id, displayName, profession: 'physiotherapist', registration: null });
 }
 
 export function event(id: string, patientId: string, kind: ClinicalEvent['kind'], occurredOn: string, side: ClinicalEvent['side'] = null): ClinicalEvent {
-  return { ...stamp, id, patientId, kind, occurredOn, endsOn: null, side, summary: '', muscles: kind === 'botulinum-toxin-injection' ? 'gastrocnemius' : null, dose: kind === 'botulinum-toxin-injection' ? '100 units' : null, notes: null };
+  const toxin = kind === 'botulinum-toxin-injection';
+  return anEvent({ ...stamp, id, patientId, kind, occurredOn, side, muscles: toxin ? 'gastrocnemius' : null, dose: toxin ? '100 units' : null });
 }
 
 /** Builder: one assessment per call with its observations. */
@@ -29,28 +32,30 @@ export class RecordsBuilder {
   assess(patientId: string, date: string, items: { measure: string; site: string; side: Observation['side']; value: ObservationValue; mode?: Observation['mode']; instrument?: Observation['instrument'] }[], over: Partial<Assessment> = {}): this {
     const id = `a${++this.#n}`;
     const performedAt = `${date}T10:00:00.000Z`;
-    this.assessments.push({ ...stamp, id, patientId, assessorId: 'c1', performedAt, setting: 'clinic', conditions: { position: null, minutesSinceMedication: null, painNrs: null }, notes: null, ...over });
+    this.assessments.push(anAssessment({ ...stamp, id, patientId, assessorId: 'c1', performedAt, setting: 'clinic', ...over }));
     for (const item of items) {
-      this.observations.push({
-        ...stamp,
-        id: `o${++this.#n}`,
-        patientId,
-        assessmentId: id,
-        takenAt: performedAt,
-        measureCode: item.measure,
-        siteCode: item.site,
-        side: item.side,
-        mode: item.mode ?? null,
-        instrument: item.instrument ?? null,
-        value: item.value,
-        traceId: null,
-      });
+      this.observations.push(
+        anObservation({
+          ...stamp,
+          id: `o${++this.#n}`,
+          patientId,
+          assessmentId: id,
+          takenAt: performedAt,
+          measureCode: item.measure,
+          siteCode: item.site,
+          side: item.side,
+          mode: item.mode ?? null,
+          instrument: item.instrument ?? null,
+          value: item.value,
+        }),
+      );
     }
     return this;
   }
 
   records(): CohortRecords {
-    return { patients: this.patients, events: this.events, assessments: this.assessments, observations: this.observations, clinicians: this.clinicians };
+    // Copies, frozen: the export core must not change what it is given.
+    return deepFreeze({ patients: [...this.patients], events: [...this.events], assessments: [...this.assessments], observations: [...this.observations], clinicians: [...this.clinicians] });
   }
 }
 

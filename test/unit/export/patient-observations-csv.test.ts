@@ -1,12 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import type { ClinicalEvent, Observation } from '../../../src/lib/domain';
+import { anEvent, anObservation } from '../../support/records';
 import { eventContext, localDateTime, patientObservationsCsv, PATIENT_CSV_COLUMNS } from '../../../src/lib/export';
 
-const base = { createdAt: '2026-01-01T00:00:00.000Z', updatedAt: '2026-01-01T00:00:00.000Z', deviceId: 'd', clinicianId: 'c', deleted: false, patientId: 'p' };
-const obs = (id: string, takenAt: string, extra: Partial<Observation>): Observation =>
-  ({ ...base, id, assessmentId: `a-${id}`, takenAt, measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null, value: { kind: 'ordinal', grade: '2', rank: 3 }, traceId: null, ...extra }) as Observation;
-const injection: ClinicalEvent = { ...base, id: 'e1', kind: 'botulinum-toxin-injection', occurredOn: '2026-02-01', endsOn: null, side: 'left', summary: '=HYPERLINK("x")', muscles: 'biceps', dose: '100 units', notes: null };
+const obs = (id: string, takenAt: string, extra: Partial<Observation>): Observation => anObservation({ id, assessmentId: `a-${id}`, takenAt, ...extra });
+const injection: ClinicalEvent = anEvent({ summary: '=HYPERLINK("x")' });
 
 describe('patientObservationsCsv (RFC 4180, one row per observation)', () => {
   it('writes every observation in time order, parses back with papaparse, and leaves out tombstones', () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Observation, ObservationValue } from '../../../src/lib/domain';
 import { ORDINAL_STEP_MDC, outcomeSeries } from '../../../src/lib/stats';
+import { anObservation, masGrade } from '../../support/records';
 
 let counter = 0;
 function obs(
@@ -13,27 +14,9 @@ function obs(
 ): Observation {
   counter++;
   const id = `0190a000-0000-7000-8000-${String(counter).padStart(12, '0')}`;
-  return {
-    id,
-    createdAt: takenAt,
-    updatedAt: takenAt,
-    deviceId: 'd',
-    clinicianId: 'c1',
-    deleted: false,
-    patientId: 'p',
-    assessmentId: `a-${takenAt}`,
-    takenAt,
-    measureCode,
-    siteCode,
-    side,
-    mode: null,
-    instrument: null,
-    value,
-    traceId: null,
-    ...extra,
-  };
+  return anObservation({ id, createdAt: takenAt, updatedAt: takenAt, clinicianId: 'c1', assessmentId: `a-${takenAt}`, takenAt, measureCode, siteCode, side, value, ...extra });
 }
-const mas = (grade: string, rank: number): ObservationValue => ({ kind: 'ordinal', grade, rank });
+const mas = masGrade;
 
 describe('outcomeSeries', () => {
   it('Modified Ashworth 3 → 1+ is two grade steps better, judged by the one-step convention (common practice)', () => {

@@ -2,39 +2,17 @@ import { describe, expect, it } from 'vitest';
 import type { Assessment, Observation, ObservationValue } from '../../../src/lib/domain';
 import { seriesKey } from '../../../src/lib/stats';
 import { draftObservations, emptyDraft } from '../../../src/lib/ui/assessment-draft';
+import { anAssessment, anObservation, masGrade } from '../../support/records';
 import { chooseProtocol, describeValue, draftFromProtocol, lastObservations, protocolFromDraft, visitProtocol } from '../../../src/lib/ui/visit-protocol';
 
 // Hand-written records (not produced by the code under test): two visits of one patient, the
 // second split the old way into a form assessment and a same-day pendulum assessment.
-const base = { createdAt: '2026-10-01T09:00:00.000Z', updatedAt: '2026-10-01T09:00:00.000Z', deviceId: 'd', clinicianId: 'c', deleted: false };
-const visit = (id: string, performedAt: string, deleted = false): Assessment => ({
-  ...base,
-  deleted,
-  id,
-  patientId: 'p',
-  assessorId: 'c',
-  performedAt,
-  setting: 'home',
-  conditions: { position: null, minutesSinceMedication: null, painNrs: null },
-  notes: null,
-});
+const stamp = { createdAt: '2026-10-01T09:00:00.000Z', updatedAt: '2026-10-01T09:00:00.000Z' };
+const visit = (id: string, performedAt: string, deleted = false): Assessment => anAssessment({ ...stamp, deleted, id, performedAt });
 let n = 0;
-const obs = (assessmentId: string, takenAt: string, measureCode: string, siteCode: string, side: Observation['side'], value: ObservationValue, extra: Partial<Observation> = {}): Observation => ({
-  ...base,
-  id: `o${n++}`,
-  patientId: 'p',
-  assessmentId,
-  takenAt,
-  measureCode,
-  siteCode,
-  side,
-  mode: null,
-  instrument: null,
-  value,
-  traceId: null,
-  ...extra,
-});
-const grade = (g: string, rank: number): ObservationValue => ({ kind: 'ordinal', grade: g, rank });
+const obs = (assessmentId: string, takenAt: string, measureCode: string, siteCode: string, side: Observation['side'], value: ObservationValue, extra: Partial<Observation> = {}): Observation =>
+  anObservation({ ...stamp, id: `o${n++}`, assessmentId, takenAt, measureCode, siteCode, side, value, ...extra });
+const grade = masGrade;
 
 const T1 = '2026-10-01T09:00:00.000Z';
 const T2 = '2026-11-05T09:00:00.000Z';

@@ -1,25 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import type { Observation, ObservationValue } from '../../../src/lib/domain';
 import { seriesKey } from '../../../src/lib/stats';
+import { anObservation, masGrade } from '../../support/records';
 import { reviewRows } from '../../../src/routes/patients/[id]/assess/visit-review';
 
 // Hand-written last-visit records (not produced by the code under test).
-const base = { createdAt: '2026-10-01T09:00:00.000Z', updatedAt: '2026-10-01T09:00:00.000Z', deviceId: 'd', clinicianId: 'c', deleted: false };
-const last = (siteCode: string, value: ObservationValue): Observation => ({
-  ...base,
-  id: `o-${siteCode}`,
-  patientId: 'p',
-  assessmentId: 'a1',
-  takenAt: '2026-10-01T09:00:00.000Z',
-  measureCode: 'mas',
-  siteCode,
-  side: 'left',
-  mode: null,
-  instrument: null,
-  value,
-  traceId: null,
-});
-const grade = (g: string, rank: number): ObservationValue => ({ kind: 'ordinal', grade: g, rank });
+const last = (siteCode: string, value: ObservationValue): Observation =>
+  anObservation({ createdAt: '2026-10-01T09:00:00.000Z', updatedAt: '2026-10-01T09:00:00.000Z', id: `o-${siteCode}`, takenAt: '2026-10-01T09:00:00.000Z', siteCode, value });
+const grade = masGrade;
 const today = (siteCode: string, value: ObservationValue) => ({ measureCode: 'mas', siteCode, side: 'left' as const, mode: null, instrument: null, value });
 
 describe('reviewRows: what changed since last time, by the one outcome rule', () => {

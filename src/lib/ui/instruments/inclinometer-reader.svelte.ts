@@ -1,4 +1,5 @@
-import { DeviceMotionSource, angleBetweenDeg, axisAngleToVerticalDeg, requestMotionPermission, steadyReading, type MotionProblem, type SteadyReading } from '$lib/sensors';
+import { DeviceMotionSource, angleBetweenDeg, axisAngleToVerticalDeg, steadyReading, type MotionProblem, type SteadyReading } from '$lib/sensors';
+import { startMotionInTap } from './motion-permission';
 
 /**
  * The phone inclinometer as page state, by the two-position method: a steady reading in the start
@@ -19,15 +20,7 @@ export class InclinometerReader {
   #frame = 0;
 
   async start(): Promise<void> {
-    // First thing in the tap: Safari grants motion access only during a user gesture.
-    const permission = await requestMotionPermission();
-    if (!permission.ok) {
-      this.problem = permission.problem;
-      this.problemDetail = permission.detail;
-      return;
-    }
-    this.problem = null;
-    this.problemDetail = '';
+    if (!(await startMotionInTap(this))) return;
     const source = new DeviceMotionSource();
     this.#source = source;
     source.start({

@@ -3,12 +3,12 @@ import {
   DeviceMotionSource,
   LiveSwingMonitor,
   analyseMotionRecording,
-  requestMotionPermission,
   steadyReading,
   type KneeAngleReconstruction,
   type MotionProblem,
   type MotionRecording,
 } from '$lib/sensors';
+import { startMotionInTap } from './motion-permission';
 
 const COUNTDOWN_S = 3;
 const MAX_RECORDING_S = 60;
@@ -37,15 +37,7 @@ export class PhoneSwingRecorder {
   #frame = 0;
 
   async start(): Promise<void> {
-    // Ask first, inside the tap: Safari grants motion access only during a user gesture.
-    const permission = await requestMotionPermission();
-    if (!permission.ok) {
-      this.problem = permission.problem;
-      this.problemDetail = permission.detail;
-      return;
-    }
-    this.problem = null;
-    this.problemDetail = '';
+    if (!(await startMotionInTap(this))) return;
     this.analysis = null;
     this.reconstruction = null;
     this.recording = null;
