@@ -1,6 +1,8 @@
-import type { DBCore, DBCoreKeyRange, DBCoreMutateRequest, DBCoreTable, DBCoreTransaction, Dexie, Transaction } from 'dexie';
+import type { DBCore, DBCoreMutateRequest, DBCoreTable, DBCoreTransaction, Dexie, Transaction } from 'dexie';
 import type { Observation, Patient } from '../domain';
 import { adoptedLocalMdc, caseloadSummary, caseloadSummaryBasis, type AdoptableStudy, type CaseloadSummary, type SummaryAssessment } from '../stats';
+import { ANY_RANGE, equalRange } from './core-ranges';
+import { coreAllObservations, coreObservationsOfPatient } from './observation-rows';
 import { toStoreError } from './store-error';
 
 /**
@@ -63,10 +65,6 @@ const SOURCE_TABLES: ReadonlySet<string> = new Set(['patients', 'assessments', '
 /** Every table the upkeep reads or writes (adopted MDCs come from the reliability studies). */
 export const CASELOAD_SUMMARY_SCOPE: readonly string[] = ['patients', 'assessments', 'observations', 'reliabilityStudies', CASELOAD_SUMMARIES_TABLE];
 
-// DBCoreRangeType is a const enum in Dexie's typings (Any = 3, Equal = 1); ANY_RANGE has the shape of
-// Dexie's own AnyRange, which the middlewares below this one read.
-const ANY_RANGE: DBCoreKeyRange = { type: 3, lower: -Infinity, lowerOpen: false, upper: [[]], upperOpen: false };
-const equalRange = (key: string): DBCoreKeyRange => ({ type: 1, lower: key, upper: key });
 
 interface Keeper {
   down: DBCore | null;
@@ -238,7 +236,7 @@ async function recompute(down: DBCore, trans: DBCoreTransaction, which: Readonly
     const [patients, assessments, observations] = await Promise.all([
       readAll(down, trans, 'patients') as Promise<Patient[]>,
       readAll(down, trans, 'assessments') as Promise<SummaryAssessment[]>,
-      readAll(down, trans, 'observations') as Promise<Observation[]>,
+      coreAllObservations(down, trans),
     ]);
     const wanted = which === 'all' ? patients : patients.filter((p) => which.has(p.id));
     const rows = summaryRows(wanted, groupByPatient(assessments), groupByPatient(observations), studies);
@@ -253,7 +251,7 @@ async function recompute(down: DBCore, trans: DBCoreTransaction, which: Readonly
   await Promise.all(
     patients.flatMap((p) => [
       readByPatient(down, trans, 'assessments', p.id).then((rows) => void assessments.set(p.id, rows as SummaryAssessment[])),
-      readByPatient(down, trans, 'observations', p.id).then((rows) => void observations.set(p.id, rows as Observation[])),
+      coreObservationsOfPatient(down, trans, p.id).then((rows) => void observations.set(p.id, rows)),
     ]),
   );
   const rows = summaryRows(patients, assessments, observations, studies);
