@@ -2,7 +2,7 @@ import type { DBCore, DBCoreMutateRequest, DBCoreTable, DBCoreTransaction, Dexie
 import type { Observation, Patient } from '../domain';
 import { adoptedLocalMdc, caseloadSummary, caseloadSummaryBasis, type AdoptableStudy, type CaseloadSummary, type SummaryAssessment } from '../stats';
 import { ANY_RANGE, equalRange } from './core-ranges';
-import { coreAllObservations, coreObservationsOfPatient } from './observation-rows';
+import { OBSERVATIONS_STORE, coreAllObservations, coreObservationsOfPatient, patientsOfStoredObservations } from './observation-rows';
 import { toStoreError } from './store-error';
 
 /**
@@ -131,14 +131,16 @@ function holdsSummaries(trans: DBCoreTransaction): boolean {
 
 /** Patients whose summary a write changes; null: all of them (a range delete). */
 async function patientsOf(table: string, core: DBCoreTable, req: DBCoreMutateRequest): Promise<string[] | null> {
-  const idOf = (row: { id: string; patientId?: string } | undefined) => (table === 'patients' ? row?.id : row?.patientId);
+  // A stored observation value holds several patients' observations (observation-rows.ts).
+  const idsOf = (row: { id: string; patientId?: string } | undefined): string[] =>
+    row === undefined ? [] : table === 'patients' ? [row.id] : table === OBSERVATIONS_STORE ? patientsOfStoredObservations(row) : typeof row.patientId === 'string' ? [row.patientId] : [];
   switch (req.type) {
     case 'add':
     case 'put':
-      return req.values.map((row) => idOf(row as { id: string; patientId?: string })).filter((id): id is string => typeof id === 'string');
+      return req.values.flatMap((row) => idsOf(row as { id: string; patientId?: string }));
     case 'delete': {
       const rows = (await core.getMany({ trans: req.trans, keys: req.keys })) as ({ id: string; patientId?: string } | undefined)[];
-      return table === 'patients' ? (req.keys as string[]) : rows.map(idOf).filter((id): id is string => typeof id === 'string');
+      return table === 'patients' ? (req.keys as string[]) : rows.flatMap(idsOf);
     }
     default:
       return null;

@@ -18,7 +18,7 @@ export interface TableRows<R extends RecordBase = RecordBase> {
   all(): Promise<R[]>;
   /** The rows of one patient (patient-scoped tables), in id order. */
   ofPatient(patientId: string): Promise<R[]>;
-  /** Rows whose `field` (updatedAt; createdAt for the append-only audit log) is after `mark`. */
+  /** Rows whose updatedAt (createdAt for the append-only audit log) is after `mark`, in no set order. */
   changedSince(mark: string): Promise<R[]>;
   countChangedSince(mark: string): Promise<number>;
   /** Adds new rows (fails, as a whole with the transaction, on an existing id). */
