@@ -144,7 +144,7 @@ async function upgradeToV14(): Promise<void> {}
 
 /**
  * Version 16 (15 unused; 17-19 are other branches'): observations packed into blocks of up to
- * BLOCK_SIZE, several to one stored value (observation-rows.ts says how they are found again),
+ * BLOCK_SIZE (50), several to one stored value (observation-rows.ts says how they are found again),
  * because Chromium's IndexedDB pays per stored value and per index entry: one value per observation
  * capped bulk writes near 2,000 observations/s (DEVELOPERS.md, store figures). Indexes: the blocks'
  * patients (multi-entry) and their newest updatedAt; the per-observation indexes patientId, updatedAt
