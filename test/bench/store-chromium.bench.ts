@@ -47,6 +47,12 @@ export async function run(print: (line: string) => void): Promise<void> {
           ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / unpacked.perSecond).toFixed(2)}× previous layout · ${(r.perSecond / previous.perSecond).toFixed(2)}× early path`,
       );
     }
+    // Where the rest goes: the same records prepared (validated, stamped, batch audit entry) and not written.
+    const prepared = (await page.evaluate(
+      (n) => (globalThis as unknown as { storeChecks: { prepareOnly: (n: number) => Promise<unknown> } }).storeChecks.prepareOnly(n),
+      20_000,
+    )) as Rate;
+    print(`Chromium bulk path without the write (validate, stamp, batch audit entry; nothing stored): ${Math.round(prepared.perSecond).toLocaleString('en')} observations/s, the most the bulk insert could reach with a free write · goal ≥ 25,000: ${(prepared.perSecond / 25_000).toFixed(2)}× of goal`);
     // Backup import (parse, verify, merge, one transaction) of a file written by the app's export.
     // Previous path (a75ca3f) in this page on 2026-12-03, load 13-19: 20,000 observations in 16.3-18.1 s.
     for (const total of sizes) {

@@ -160,6 +160,26 @@ export const storeChecks = {
     await Dexie.delete('kinnote-browser-bench');
     return { total, stored, seconds, perSecond: total / seconds };
   },
+
+  /**
+   * The bulk path's work before any write: validation, stamping (ids), sealing and the batch audit
+   * entry (canonical JSON and SHA-256), in batches of 5,000, nothing stored. Where the time goes.
+   */
+  async prepareOnly(total: number) {
+    const store = await freshStore('kinnote-browser-bench-prepare');
+    const patient = await store.patients.create({ code: 'K7QM-3XHD', birthYear: 1966, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+    const grades = ['0', '1', '1+', '2', '3', '4'];
+    const input = (i: number) => ({
+      patientId: patient.id, assessmentId: patient.id, takenAt: '2025-03-01T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors',
+      side: 'left' as const, mode: null, instrument: null, value: ordinalValue('mas', grades[i % 6] as string), traceId: null,
+    });
+    const start = performance.now();
+    for (let done = 0; done < total; done += 5000) await store.observations.prepareCreate(Array.from({ length: Math.min(5000, total - done) }, (_, k) => input(done + k)));
+    const seconds = (performance.now() - start) / 1000;
+    store.close();
+    await Dexie.delete('kinnote-browser-bench-prepare');
+    return { total, stored: 0, seconds, perSecond: total / seconds };
+  },
 };
 
 (globalThis as unknown as { storeChecks: typeof storeChecks }).storeChecks = storeChecks;
