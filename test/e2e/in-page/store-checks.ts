@@ -49,10 +49,13 @@ async function addObservations(store: KinnoteStore, where: { patientId: string; 
   for (let i = 0; i < inputs.length; i += batch) await store.observations.createMany(inputs.slice(i, i + batch));
 }
 
-/** Counts of every table, and the audit count, for before/after comparisons. */
+/**
+ * Counts of every table, and the audit count, for before/after comparisons. Observations are counted
+ * as records, not as stored values (schema 16 packs several per value).
+ */
 async function counts(store: KinnoteStore): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
-  for (const table of store.db.tables) out[table.name] = await table.count();
+  for (const table of store.db.tables) out[table.name] = table.name === 'observations' ? (await tableRows(store.db, 'observations').all()).length : await table.count();
   return out;
 }
 
