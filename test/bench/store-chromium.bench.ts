@@ -23,13 +23,17 @@ export async function run(print: (line: string) => void): Promise<void> {
     // Through the DevTools protocol: the page's Content-Security-Policy refuses inline <script> tags.
     await page.evaluate(`${bundle}\n;undefined`);
     type Rate = { total: number; stored: number; seconds: number; perSecond: number };
-    const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: (n: number) => Promise<Rate> }).bulkInsertPrevious(n), 20_000)) as Rate;
-    print(`Chromium ${browser.version()} IndexedDB bulk insert, previous path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
+    type Previous = (n: number, batch: number, schema: 2 | 14) => Promise<Rate>;
+    const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: Previous }).bulkInsertPrevious(n, 5000, 2), 20_000)) as Rate;
+    print(`Chromium ${browser.version()} IndexedDB bulk insert, early path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
+    // The layout before schema 16 (one stored value per observation, batch audit entries): the ratio's base.
+    const unpacked = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: Previous }).bulkInsertPrevious(n, 5000, 14), 20_000)) as Rate;
+    print(`Chromium IndexedDB bulk insert, previous layout (schema 14: one stored value per observation, one batch audit entry per 5,000): ${unpacked.stored.toLocaleString('en')} observations in ${unpacked.seconds.toFixed(2)} s = ${Math.round(unpacked.perSecond).toLocaleString('en')} observations/s`);
     let ceilingOnePerRow = Number.NaN;
-    for (const perRow of [1, 50]) {
+    for (const perRow of [1, 50, 200]) {
       const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
       if (perRow === 1) ceilingOnePerRow = ceiling.perSecond;
-      print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / previous.perSecond).toFixed(2)}× previous`);
+      print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / unpacked.perSecond).toFixed(2)}× previous layout`);
     }
     // STORE_BENCH_OBSERVATIONS: one smaller size on a loaded machine (printed with each figure).
     const sizes = process.env.STORE_BENCH_OBSERVATIONS ? [Number(process.env.STORE_BENCH_OBSERVATIONS)] : [20_000, 100_000];
@@ -40,9 +44,15 @@ export async function run(print: (line: string) => void): Promise<void> {
       )) as Rate;
       print(
         `Chromium IndexedDB bulk insert (repository, validated, stamped, one batch audit entry per 5,000): ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s` +
-          ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / previous.perSecond).toFixed(2)}× previous`,
+          ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / unpacked.perSecond).toFixed(2)}× previous layout · ${(r.perSecond / previous.perSecond).toFixed(2)}× early path`,
       );
     }
+    // Where the rest goes: the same records prepared (validated, stamped, batch audit entry) and not written.
+    const prepared = (await page.evaluate(
+      (n) => (globalThis as unknown as { storeChecks: { prepareOnly: (n: number) => Promise<unknown> } }).storeChecks.prepareOnly(n),
+      20_000,
+    )) as Rate;
+    print(`Chromium bulk path without the write (validate, stamp, batch audit entry; nothing stored): ${Math.round(prepared.perSecond).toLocaleString('en')} observations/s, the most the bulk insert could reach with a free write · goal ≥ 25,000: ${(prepared.perSecond / 25_000).toFixed(2)}× of goal`);
     // Backup import (parse, verify, merge, one transaction) of a file written by the app's export.
     // Previous path (a75ca3f) in this page on 2026-12-03, load 13-19: 20,000 observations in 16.3-18.1 s.
     for (const total of sizes) {

@@ -92,7 +92,10 @@ export async function pixelsNear(page: Page, selector: string, rgb: [number, num
   );
 }
 
-/** Every row of one IndexedDB table of the app's database, read in the page (e.g. "drafts"). */
+/**
+ * Every row of one IndexedDB table of the app's database, read in the page (e.g. "drafts"). Stored
+ * values that pack several records (observations since schema 16: `items`) are unpacked.
+ */
 export async function tableRows<T = Record<string, unknown>>(page: Page, table: string): Promise<T[]> {
   return page.evaluate(
     (name) =>
@@ -109,7 +112,8 @@ export async function tableRows<T = Record<string, unknown>>(page: Page, table: 
           const request = db.transaction(name, 'readonly').objectStore(name).getAll();
           request.onsuccess = () => {
             db.close();
-            resolve(request.result as T[]);
+            const values = request.result as { items?: unknown }[];
+            resolve(values.flatMap((v) => (Array.isArray(v.items) ? v.items : [v])) as T[]);
           };
           request.onerror = () => reject(request.error);
         };

@@ -5,6 +5,7 @@ import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
 import type { Input, Patch, PreparedChange, WriteOptions } from './repository';
 import type { Row } from './rows';
 import { StoreError, toStoreError } from './store-error';
+import { tableRows } from './table-rows';
 
 /** One observation as the amended visit should hold it (matched to the stored ones by series). */
 export type AmendedObservation = Pick<Input<'observations'>, 'measureCode' | 'siteCode' | 'side' | 'mode' | 'instrument' | 'value'>;
@@ -72,7 +73,7 @@ export async function amendAssessment(
     await store.db.transaction('rw', ['assessments', 'observations', 'audit', DRAFTS_TABLE], async (tx) => {
       await store.assessments.writePrepared(assessmentChange);
       for (const u of updates) await store.observations.writePrepared(u);
-      if (created.rows.length > 0) await store.db.table('observations').bulkAdd(created.rows as Row<'observations'>[]);
+      await tableRows(store.db, 'observations').add(created.rows as Row<'observations'>[]);
       if (createAudits.length > 0) await store.db.table('audit').bulkAdd(createAudits);
       await discardDraftInTransaction(store.db, options.draftId);
       await settleCaseloadSummaries(store.db, tx);

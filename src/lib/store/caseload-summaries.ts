@@ -1,6 +1,8 @@
-import type { DBCore, DBCoreKeyRange, DBCoreMutateRequest, DBCoreTable, DBCoreTransaction, Dexie, Transaction } from 'dexie';
+import type { DBCore, DBCoreMutateRequest, DBCoreTable, DBCoreTransaction, Dexie, Transaction } from 'dexie';
 import type { Observation, Patient } from '../domain';
 import { adoptedLocalMdc, caseloadSummary, caseloadSummaryBasis, type AdoptableStudy, type CaseloadSummary, type SummaryAssessment } from '../stats';
+import { ANY_RANGE, equalRange } from './core-ranges';
+import { OBSERVATIONS_STORE, coreAllObservations, coreObservationsOfPatient, patientsOfStoredObservations } from './observation-rows';
 import { toStoreError } from './store-error';
 
 /**
@@ -63,10 +65,6 @@ const SOURCE_TABLES: ReadonlySet<string> = new Set(['patients', 'assessments', '
 /** Every table the upkeep reads or writes (adopted MDCs come from the reliability studies). */
 export const CASELOAD_SUMMARY_SCOPE: readonly string[] = ['patients', 'assessments', 'observations', 'reliabilityStudies', CASELOAD_SUMMARIES_TABLE];
 
-// DBCoreRangeType is a const enum in Dexie's typings (Any = 3, Equal = 1); ANY_RANGE has the shape of
-// Dexie's own AnyRange, which the middlewares below this one read.
-const ANY_RANGE: DBCoreKeyRange = { type: 3, lower: -Infinity, lowerOpen: false, upper: [[]], upperOpen: false };
-const equalRange = (key: string): DBCoreKeyRange => ({ type: 1, lower: key, upper: key });
 
 interface Keeper {
   down: DBCore | null;
@@ -133,14 +131,16 @@ function holdsSummaries(trans: DBCoreTransaction): boolean {
 
 /** Patients whose summary a write changes; null: all of them (a range delete). */
 async function patientsOf(table: string, core: DBCoreTable, req: DBCoreMutateRequest): Promise<string[] | null> {
-  const idOf = (row: { id: string; patientId?: string } | undefined) => (table === 'patients' ? row?.id : row?.patientId);
+  // A stored observation value holds several patients' observations (observation-rows.ts).
+  const idsOf = (row: { id: string; patientId?: string } | undefined): string[] =>
+    row === undefined ? [] : table === 'patients' ? [row.id] : table === OBSERVATIONS_STORE ? patientsOfStoredObservations(row) : typeof row.patientId === 'string' ? [row.patientId] : [];
   switch (req.type) {
     case 'add':
     case 'put':
-      return req.values.map((row) => idOf(row as { id: string; patientId?: string })).filter((id): id is string => typeof id === 'string');
+      return req.values.flatMap((row) => idsOf(row as { id: string; patientId?: string }));
     case 'delete': {
       const rows = (await core.getMany({ trans: req.trans, keys: req.keys })) as ({ id: string; patientId?: string } | undefined)[];
-      return table === 'patients' ? (req.keys as string[]) : rows.map(idOf).filter((id): id is string => typeof id === 'string');
+      return table === 'patients' ? (req.keys as string[]) : rows.flatMap(idsOf);
     }
     default:
       return null;
@@ -238,7 +238,7 @@ async function recompute(down: DBCore, trans: DBCoreTransaction, which: Readonly
     const [patients, assessments, observations] = await Promise.all([
       readAll(down, trans, 'patients') as Promise<Patient[]>,
       readAll(down, trans, 'assessments') as Promise<SummaryAssessment[]>,
-      readAll(down, trans, 'observations') as Promise<Observation[]>,
+      coreAllObservations(down, trans),
     ]);
     const wanted = which === 'all' ? patients : patients.filter((p) => which.has(p.id));
     const rows = summaryRows(wanted, groupByPatient(assessments), groupByPatient(observations), studies);
@@ -253,7 +253,7 @@ async function recompute(down: DBCore, trans: DBCoreTransaction, which: Readonly
   await Promise.all(
     patients.flatMap((p) => [
       readByPatient(down, trans, 'assessments', p.id).then((rows) => void assessments.set(p.id, rows as SummaryAssessment[])),
-      readByPatient(down, trans, 'observations', p.id).then((rows) => void observations.set(p.id, rows as Observation[])),
+      coreObservationsOfPatient(down, trans, p.id).then((rows) => void observations.set(p.id, rows)),
     ]),
   );
   const rows = summaryRows(patients, assessments, observations, studies);

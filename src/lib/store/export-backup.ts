@@ -7,6 +7,7 @@ import type { KinnoteStore } from './open-store';
 import type { Row } from './rows';
 import { LATEST_SCHEMA_VERSION } from './schema';
 import { StoreError, toStoreError } from './store-error';
+import { tableRows } from './table-rows';
 
 export interface ExportOptions {
   /** Whole store (default) or one patient with what hangs on them. */
@@ -38,11 +39,11 @@ export async function exportBackup(store: KinnoteStore, options: ExportOptions):
       // The photos of the exported programmes (read in the same snapshot), filtered below.
       photoRows = await store.db.table<ExercisePhotoRow, string>(EXERCISE_PHOTOS_TABLE).toArray();
       for (const table of TABLE_NAMES) {
-        const t = store.db.table(table);
-        if (scope.kind === 'patient' && PATIENT_TABLES.has(table)) rows[table] = await t.where('patientId').equals(scope.patientId).toArray();
-        else if (scope.kind === 'patient' && table === 'patients') rows[table] = (await t.where('id').equals(scope.patientId).toArray());
+        const t = tableRows(store.db, table);
+        if (scope.kind === 'patient' && PATIENT_TABLES.has(table)) rows[table] = await t.ofPatient(scope.patientId);
+        else if (scope.kind === 'patient' && table === 'patients') rows[table] = [...(await t.present([scope.patientId])).values()];
         else if (scope.kind === 'patient' && table === 'reliabilityStudies') rows[table] = [];
-        else rows[table] = await t.toArray();
+        else rows[table] = await t.all();
       }
     });
   } catch (error) {

@@ -1,4 +1,3 @@
-import type { Table } from 'dexie';
 import { TABLE_NAMES, withoutByteOrderMark, type AuditEntry, type RecordBase, type TableName } from '../domain';
 import { toPortable, verifyBundle, type BundleHeader, type VerifiedBundle } from './backup-bundle';
 import { canonicalJson } from './canonical-json';
@@ -8,6 +7,7 @@ import { decryptBundleText, isEncryptedBundle } from './encrypted-bundle';
 import { planPhotoImport, writePhotoImport, type PhotoMode } from './import-photos';
 import { EXERCISE_PHOTOS_TABLE } from './exercise-photos';
 import type { KinnoteStore } from './open-store';
+import { tableRows } from './table-rows';
 import { SEALED_MARKER, auditSnapshot } from './rows';
 import { auditEntry, nextTimestamp, requireActor } from './store-context';
 import { StoreError, toStoreError } from './store-error';
@@ -119,8 +119,7 @@ export async function importBackup(
 ): Promise<MergeReport> {
   const outside: OutsideLookup = async (table, ids) => {
     try {
-      const found = (await store.db.table(table).bulkGet([...ids])) as (RecordBase | undefined)[];
-      return new Set(found.filter((r): r is RecordBase => r !== undefined).map((r) => r.id));
+      return new Set((await tableRows(store.db, table).present([...ids])).keys());
     } catch (error) {
       throw toStoreError(error, 'reading the store before import');
     }
@@ -134,7 +133,7 @@ export async function importBackup(
   const local = new Map<TableName, Map<string, RecordBase>>();
   try {
     await store.db.transaction('r', [...TABLE_NAMES], async () => {
-      for (const table of TABLE_NAMES) local.set(table, await presentRows(store.db.table(table), bundle.tables[table].map((r) => r.id)));
+      for (const table of TABLE_NAMES) local.set(table, await tableRows(store.db, table).present(bundle.tables[table].map((r) => r.id)));
     });
   } catch (error) {
     throw toStoreError(error, 'reading the store before import');
@@ -241,7 +240,7 @@ export async function importBackup(
       for (const table of TABLE_NAMES) {
         const mine = planned.filter((w) => w.table === table);
         if (mine.length === 0) continue;
-        const now = await presentRows(store.db.table(table), mine.map((w) => w.id));
+        const now = await tableRows(store.db, table).present(mine.map((w) => w.id));
         for (const w of mine) {
           if (now.get(w.id)?.updatedAt !== w.localUpdatedAt) {
             throw new StoreError('VersionConflict', `${table} ${w.id} changed during the import; nothing was imported, try again`);
@@ -250,7 +249,7 @@ export async function importBackup(
       }
       for (const table of TABLE_NAMES) {
         const rows = writes.filter((w) => w.table === table).map((w) => w.row);
-        for (let i = 0; i < rows.length; i += WRITE_CHUNK) await store.db.table(table).bulkPut(rows.slice(i, i + WRITE_CHUNK));
+        for (let i = 0; i < rows.length; i += WRITE_CHUNK) await tableRows(store.db, table).put(rows.slice(i, i + WRITE_CHUNK) as RecordBase[]);
       }
       await store.db.table('audit').bulkAdd(audits);
       await writePhotoImport(store, photoPlan);
@@ -269,37 +268,6 @@ export async function importBackup(
  * 12 s of a 28 s Node import in the profile).
  */
 const WRITE_CHUNK = 5_000;
-
-/**
- * Below this many ids, rows are read one by one (bulkGet); above it, the keys the ids span are read
- * first in one request and only the rows present are fetched.
- */
-const PER_ID_READ_MAX = 256;
-
-/**
- * The rows of `table` among `ids`, by id, inside the caller's transaction. A backup's ids are
- * time-ordered UUIDv7s, so they span a narrow key range; reading the primary keys in that range
- * (one request) tells which ids are present, and only those rows are read. An import into an empty
- * or unrelated store then reads no row at all, where a bulkGet cost one request per id (in the
- * Chromium profile, issuing 20,000 gets took 1 s of the page's time, twice per import).
- */
-async function presentRows(table: Table, ids: readonly string[]): Promise<Map<string, RecordBase>> {
-  let wanted: readonly string[] = ids;
-  if (ids.length > PER_ID_READ_MAX) {
-    let lowest = ids[0]!;
-    let highest = ids[0]!;
-    for (const id of ids) {
-      if (id < lowest) lowest = id;
-      if (id > highest) highest = id;
-    }
-    const keys = new Set((await table.where(':id').between(lowest, highest, true, true).primaryKeys()) as string[]);
-    wanted = ids.filter((id) => keys.has(id));
-  }
-  const out = new Map<string, RecordBase>();
-  if (wanted.length === 0) return out;
-  for (const row of (await table.bulkGet([...wanted])) as (RecordBase | undefined)[]) if (row !== undefined) out.set(row.id, row);
-  return out;
-}
 
 /** With protected content omitted from the bundle, the local sealed text stays as it was. */
 function keepSealedWhenOmitted(row: unknown, current: RecordBase, sealedFields: readonly string[], included: boolean): unknown {

@@ -5,6 +5,7 @@ export { StoreError, describeIssues, toStoreError, type StoreErrorCode, type Sto
 export { openStore, type KinnoteStore, type OpenStoreOptions, type StoreClock, type StoreSettings } from './open-store';
 export { CHANGED_ELSEWHERE, IdentityRepository, ObservationRepository, Repository, type EditOptions, type Input, type Patch, type PreparedChange, type WritableTable, type WriteOptions } from './repository';
 export type { Actor, StoreContext } from './store-context';
+export { tableRows, type TableRows } from './table-rows';
 export type { AssessmentRow, EventRow, IdentityRow, Row, RowTables } from './rows';
 export { SCHEMA_VERSIONS, LATEST_SCHEMA_VERSION, TEAM_BASES_TABLE, declareSchema, type SchemaVersion } from './schema';
 export { Vault, type Timers, type VaultStatus } from './vault';

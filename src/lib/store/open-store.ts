@@ -9,6 +9,7 @@ import { LATEST_SCHEMA_VERSION, declareSchema } from './schema';
 import { auditEntry, type Actor, type StoreContext } from './store-context';
 import { installedNativeVersion } from './installed-version';
 import { StoreError, toStoreError } from './store-error';
+import { tableRows } from './table-rows';
 import { Vault, type Timers, type VaultRecord } from './vault';
 
 export interface OpenStoreOptions {
@@ -213,7 +214,7 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
       forRecord: async (table, recordId) => {
         const entries = await audit.where('[table+recordId]').equals([table, recordId]).toArray();
         // A record created in bulk is named by a batch entry stamped with the record's createdAt.
-        const row = isTableName(table) ? ((await db.table(table).get(recordId)) as { createdAt?: string } | undefined) : undefined;
+        const row = isTableName(table) ? ((await tableRows(db, table).get(recordId)) as { createdAt?: string } | undefined) : undefined;
         if (row?.createdAt) {
           for (const e of await audit.where('createdAt').equals(row.createdAt).toArray()) {
             if (e.table === table && batchContent(e)?.recordIds.includes(recordId)) entries.push(e);

@@ -14,6 +14,7 @@ import {
 import { auditSnapshot } from './rows';
 import { auditEntry, nextTimestamp } from './store-context';
 import { toStoreError } from './store-error';
+import { observationRows } from './observation-rows';
 
 // The schema-7 step itself (phone-reanalysis.ts says why it runs after the open). Imported by its
 // own path, not through the store's index, so that it loads only on a device where the step is
@@ -63,7 +64,7 @@ export async function runPendingPhoneReanalysis(store: KinnoteStore, reanalyse: 
     if (marker.doneTraceIds.includes(traceId)) continue;
     const trace = await db.table<Trace, string>('traces').get(traceId);
     if (!trace) continue;
-    const observations = (await db.table<Observation, string>('observations').where('patientId').equals(trace.patientId).toArray()).filter((o) => o.traceId === traceId);
+    const observations = (await observationRows(db).ofPatient(trace.patientId)).filter((o) => o.traceId === traceId);
     let outcome: RecordingReanalysis;
     try {
       outcome = reanalyse(trace, observations);
@@ -172,15 +173,15 @@ async function writeOne(store: KinnoteStore, trace: Trace, observations: readonl
       if (!marker || marker.doneTraceIds.includes(trace.id)) return;
       const stale = new Set<string>();
       for (const o of observations) {
-        const now = await db.table<Observation, string>('observations').get(o.id);
+        const now = await observationRows(db).get(o.id);
         if (!now || now.updatedAt !== o.updatedAt) stale.add(o.id);
       }
       const freshTrace = await db.table<Trace, string>('traces').get(trace.id);
       const writeTrace = newTrace !== null && freshTrace?.updatedAt === trace.updatedAt;
       const keptUpdates = updates.filter((o) => !stale.has(o.id));
       const keptAudits = audits.filter((a) => !(a.table === 'observations' && a.recordId !== null && stale.has(a.recordId)) && (a.table !== 'traces' || writeTrace));
-      if (keptUpdates.length > 0) await db.table('observations').bulkPut(keptUpdates);
-      if (added.length > 0) await db.table('observations').bulkAdd(added);
+      await observationRows(db).put(keptUpdates);
+      await observationRows(db).add(added);
       if (writeTrace) await db.table('traces').put(newTrace!);
       if (keptAudits.length > 0) await db.table('audit').bulkAdd(keptAudits);
       await meta.put({ key: PHONE_REANALYSIS_MARKER, value: { doneTraceIds: [...marker.doneTraceIds, trace.id] } satisfies Marker });

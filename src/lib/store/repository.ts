@@ -1,10 +1,11 @@
-import Dexie, { type Table } from 'dexie';
-import { validateRecord, type AuditEntry, type RecordInput, type RecordTables, type TableName } from '../domain';
+import { validateRecord, type AuditEntry, type RecordBase, type RecordInput, type RecordTables, type TableName } from '../domain';
 import type { Codec } from './codecs';
 import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
 import { batchAuditEntry, BATCH_AUDIT_MIN_RECORDS } from './batch-audit';
 import { settleCaseloadSummaries } from './caseload-summaries';
+import { observationSeries } from './observation-rows';
 import { auditSnapshot, type Row } from './rows';
+import { tableRows, type TableRows } from './table-rows';
 import { auditEntry, nextTimestamp, requireActor, type StoreContext } from './store-context';
 import { StoreError, toStoreError, type StoreIssue } from './store-error';
 
@@ -56,14 +57,15 @@ export class Repository<K extends WritableTable> {
     return this.ctx.codecs[this.table] as Codec<K>;
   }
 
-  protected get dexieTable(): Table<Row<K>, string> {
-    return this.ctx.db.table(this.table);
+  /** This table's rows in IndexedDB, whatever their layout (table-rows.ts). */
+  protected get rows(): TableRows<Row<K> & RecordBase> {
+    return tableRows(this.ctx.db, this.table);
   }
 
   /** The row with `id`, tombstoned or not; undefined when there is none. Protected text stays sealed. */
   async get(id: string): Promise<Row<K> | undefined> {
     try {
-      return await this.dexieTable.get(id);
+      return await this.rows.get(id);
     } catch (error) {
       throw toStoreError(error, `reading ${this.table} ${id}`);
     }
@@ -72,7 +74,7 @@ export class Repository<K extends WritableTable> {
   /** All rows, in id (= creation) order; tombstones only when asked. */
   async list(options: { includeDeleted?: boolean } = {}): Promise<Row<K>[]> {
     try {
-      const rows = await this.dexieTable.toArray();
+      const rows = await this.rows.all();
       return options.includeDeleted ? rows : rows.filter((r) => !(r as { deleted: boolean }).deleted);
     } catch (error) {
       throw toStoreError(error, `reading ${this.table}`);
@@ -83,7 +85,7 @@ export class Repository<K extends WritableTable> {
   async byPatient(patientId: string, options: { includeDeleted?: boolean } = {}): Promise<Row<K>[]> {
     if (!PATIENT_SCOPED.has(this.table)) throw new StoreError('ValidationFailed', `${this.table} is not kept per patient`);
     try {
-      const rows = await this.dexieTable.where('patientId').equals(patientId).sortBy('id');
+      const rows = await this.rows.ofPatient(patientId);
       return options.includeDeleted ? rows : rows.filter((r) => !(r as { deleted: boolean }).deleted);
     } catch (error) {
       throw toStoreError(error, `reading ${this.table} of patient ${patientId}`);
@@ -123,11 +125,11 @@ export class Repository<K extends WritableTable> {
         if (options.firstForPatient) {
           for (const patientId of new Set(rows.map((r) => (r as { patientId?: string }).patientId))) {
             if (patientId === undefined) throw new StoreError('ValidationFailed', `${this.table} is not kept per patient`);
-            const live = (await this.dexieTable.where('patientId').equals(patientId).toArray()).filter((r) => !(r as { deleted: boolean }).deleted);
+            const live = (await this.rows.ofPatient(patientId)).filter((r) => !(r as { deleted: boolean }).deleted);
             if (live.length > 0) throw new StoreError('VersionConflict', `${this.table}: ${CHANGED_ELSEWHERE} (patient ${patientId} already has one)`);
           }
         }
-        await this.dexieTable.bulkAdd(rows);
+        await this.rows.add(rows as (Row<K> & RecordBase)[]);
         await this.ctx.db.table('audit').bulkAdd(audits);
         await discardDraftInTransaction(this.ctx.db, options.draftId);
         await settleCaseloadSummaries(this.ctx.db, tx);
@@ -226,11 +228,11 @@ export class Repository<K extends WritableTable> {
 
   /** Writes a prepared change inside the caller's transaction; VersionConflict when the record moved on. */
   async writePrepared(prepared: PreparedChange<K>): Promise<void> {
-    const now = await this.dexieTable.get(prepared.id);
+    const now = await this.rows.get(prepared.id);
     if (!now || (now as { updatedAt: string }).updatedAt !== prepared.readUpdatedAt) {
       throw new StoreError('VersionConflict', `${this.table} ${prepared.id}: ${CHANGED_ELSEWHERE} (changed while saving)`);
     }
-    await this.dexieTable.put(prepared.row);
+    await this.rows.put([prepared.row as Row<K> & RecordBase]);
     await this.ctx.db.table('audit').add(prepared.audit);
   }
 
@@ -302,10 +304,7 @@ export class ObservationRepository extends Repository<'observations'> {
    */
   async series(patientId: string, measureCode: string): Promise<Row<'observations'>[]> {
     try {
-      const rows = await this.dexieTable
-        .where('[patientId+measureCode+takenAt]')
-        .between([patientId, measureCode, Dexie.minKey], [patientId, measureCode, Dexie.maxKey])
-        .toArray();
+      const rows = await observationSeries(this.ctx.db, patientId, measureCode);
       return rows.filter((r) => !r.deleted);
     } catch (error) {
       throw toStoreError(error, `reading ${measureCode} of patient ${patientId}`);

@@ -4,6 +4,7 @@ import { DRAFTS_TABLE, discardDraftInTransaction } from './drafts';
 import type { Input, WriteOptions } from './repository';
 import type { Row } from './rows';
 import { toStoreError } from './store-error';
+import { tableRows } from './table-rows';
 
 /** An observation of the assessment; `traceIndex` points into the traces saved with it (or null). */
 export type AssessmentObservationInput = Omit<Input<'observations'>, 'assessmentId' | 'traceId'> & {
@@ -43,7 +44,7 @@ export async function saveAssessment(
     await store.db.transaction('rw', ['assessments', 'traces', 'observations', 'audit', DRAFTS_TABLE], async (tx) => {
       await store.db.table('assessments').add(assessmentRow);
       if (t.rows.length > 0) await store.db.table('traces').bulkAdd(t.rows);
-      await store.db.table('observations').bulkAdd(o.rows);
+      await tableRows(store.db, 'observations').add(o.rows);
       await store.db.table('audit').bulkAdd([...a.audits, ...t.audits, ...o.audits]);
       await discardDraftInTransaction(store.db, options.draftId);
       await settleCaseloadSummaries(store.db, tx);

@@ -2,6 +2,7 @@ import type { Dexie, Transaction } from 'dexie';
 import { doseFromLegacyLine, type ExerciseDose, type Observation, type Patient } from '../domain';
 import type { AdoptableStudy, SummaryAssessment } from '../stats';
 import { CASELOAD_SUMMARIES_TABLE, allSummaryRows } from './caseload-summaries';
+import { OBSERVATIONS_STORE, packObservations } from './observation-rows';
 import { PHONE_REANALYSIS_MARKER } from './phone-reanalysis';
 
 /**
@@ -141,6 +142,34 @@ async function upgradeToV10(tx: Transaction): Promise<void> {
 export const TEAM_BASES_TABLE = 'teamBases';
 async function upgradeToV14(): Promise<void> {}
 
+/**
+ * Version 16 (15 unused; 17-19 are other branches'): observations packed into blocks of up to
+ * BLOCK_SIZE (50), several to one stored value (observation-rows.ts says how they are found again),
+ * because Chromium's IndexedDB pays per stored value and per index entry: one value per observation
+ * capped bulk writes near 2,000 observations/s (DEVELOPERS.md, store figures). Indexes: the blocks'
+ * patients (multi-entry) and their newest updatedAt; the per-observation indexes patientId, updatedAt
+ * and [patientId+measureCode+takenAt] go. The upgrade reads every observation as stored by version
+ * 2-14 (one value each), clears the store and writes them back packed in id order: every field of
+ * every observation, tombstones included, is kept as it was (nothing is re-stamped or audited: the
+ * records do not change, only where they sit).
+ */
+async function upgradeToV16(tx: Transaction): Promise<void> {
+  const rows = (await tx.table(OBSERVATIONS_STORE).toArray()) as (Observation & { items?: unknown })[];
+  const flat = rows.filter((r) => r.items === undefined).sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  if (flat.length === 0) return;
+  // Written on the native store, below the caseload summaries' middleware: the observations do not
+  // change, so neither do the summaries (through Dexie, the clear would drop every summary and the
+  // re-add mark each patient stale for nothing). A failed request aborts the upgrade as a whole.
+  const store = tx.idbtrans.objectStore(OBSERVATIONS_STORE);
+  store.clear();
+  let last: IDBRequest | null = null;
+  for (const block of packObservations(flat)) last = store.add(block);
+  await new Promise<void>((resolve, reject) => {
+    last!.onsuccess = () => resolve();
+    last!.onerror = () => reject(last!.error);
+  });
+}
+
 export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
   { version: 1, stores: V1_STORES, summary: 'first release: one table per record kind, meta and audit' },
   {
@@ -197,6 +226,12 @@ export const SCHEMA_VERSIONS: readonly SchemaVersion[] = [
     stores: { [TEAM_BASES_TABLE]: 'key' },
     upgrade: upgradeToV14,
     summary: 'teamBases table (device-local: the team server version each exchanged record was last known at)',
+  },
+  {
+    version: 16,
+    stores: { [OBSERVATIONS_STORE]: 'id, *patientIds, changedAt' },
+    upgrade: upgradeToV16,
+    summary: "observations packed into blocks (several per stored value, keyed by their lowest id); indexes: each block's patients and newest updatedAt",
   },
 ];
 

@@ -9,6 +9,7 @@ import {
   createBundle,
   importBackup,
   readLocalState,
+  tableRows,
   writeLocalState,
   type BundleTables,
   type KinnoteStore,
@@ -198,15 +199,12 @@ export function isRevoked(error: unknown): boolean {
 }
 
 /**
- * The rows of `table` stamped after `mark`: through the table's updatedAt index where it has one
- * (the audit log, append-only, through createdAt, its updatedAt); observations lost that index in
- * schema 5 (each index costs a write per record), so there it is one scan of the table.
+ * The rows of `table` stamped after `mark` (updatedAt; for the append-only audit log, createdAt), read
+ * through the store's layout of the table (store/table-rows.ts: an index where there is one).
  */
 export function rowsChangedSince(store: KinnoteStore, table: TableName, mark: string): { toArray(): Promise<unknown[]>; count(): Promise<number> } {
-  const t = store.db.table(table);
-  const field = table === 'audit' ? 'createdAt' : 'updatedAt';
-  if (t.schema.idxByName[field] || t.schema.primKey.name === field) return t.where(field).above(mark);
-  return t.filter((row: Record<string, unknown>) => (row[field] as string) > mark);
+  const rows = tableRows(store.db, table);
+  return { toArray: () => rows.changedSince(mark), count: () => rows.countChangedSince(mark) };
 }
 
 /**

@@ -2,8 +2,9 @@
 // test/e2e/bundle-for-page.ts and driven by test/e2e/store.e2e.ts and the Chromium bench.
 import Dexie from 'dexie';
 import { ordinalValue, validateRecord } from '../../../src/lib/domain';
-import { declareSchema, exportBackupText, importBackup, openStore, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { canonicalJson, declareSchema, exportBackupText, importBackup, openStore, sha256Hex, StoreError, type KinnoteStore } from '../../../src/lib/store';
 import { auditSnapshot } from '../../../src/lib/store/rows';
+import { tableRows } from '../../../src/lib/store/table-rows';
 import { adoptedLocalMdc, caseloadSummary } from '../../../src/lib/stats';
 
 const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;
@@ -48,10 +49,13 @@ async function addObservations(store: KinnoteStore, where: { patientId: string; 
   for (let i = 0; i < inputs.length; i += batch) await store.observations.createMany(inputs.slice(i, i + batch));
 }
 
-/** Counts of every table, and the audit count, for before/after comparisons. */
+/**
+ * Counts of every table, and the audit count, for before/after comparisons. Observations are counted
+ * as records, not as stored values (schema 16 packs several per value).
+ */
 async function counts(store: KinnoteStore): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
-  for (const table of store.db.tables) out[table.name] = await table.count();
+  for (const table of store.db.tables) out[table.name] = table.name === 'observations' ? (await tableRows(store.db, 'observations').all()).length : await table.count();
   return out;
 }
 
@@ -154,25 +158,47 @@ export const storeChecks = {
     const start = performance.now();
     await seed(store, total);
     const seconds = (performance.now() - start) / 1000;
-    const stored = await store.db.table('observations').count();
+    const stored = (await tableRows(store.db, 'observations').all()).length;
     store.close();
     await Dexie.delete('kinnote-browser-bench');
     return { total, stored, seconds, perSecond: total / seconds };
+  },
+
+  /**
+   * The bulk path's work before any write: validation, stamping (ids), sealing and the batch audit
+   * entry (canonical JSON and SHA-256), in batches of 5,000, nothing stored. Where the time goes.
+   */
+  async prepareOnly(total: number) {
+    const store = await freshStore('kinnote-browser-bench-prepare');
+    const patient = await store.patients.create({ code: 'K7QM-3XHD', birthYear: 1966, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+    const grades = ['0', '1', '1+', '2', '3', '4'];
+    const input = (i: number) => ({
+      patientId: patient.id, assessmentId: patient.id, takenAt: '2025-03-01T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors',
+      side: 'left' as const, mode: null, instrument: null, value: ordinalValue('mas', grades[i % 6] as string), traceId: null,
+    });
+    const start = performance.now();
+    for (let done = 0; done < total; done += 5000) await store.observations.prepareCreate(Array.from({ length: Math.min(5000, total - done) }, (_, k) => input(done + k)));
+    const seconds = (performance.now() - start) / 1000;
+    store.close();
+    await Dexie.delete('kinnote-browser-bench-prepare');
+    return { total, stored: 0, seconds, perSecond: total / seconds };
   },
 };
 
 (globalThis as unknown as { storeChecks: typeof storeChecks }).storeChecks = storeChecks;
 
 /**
- * The bulk path as it was before schema 5 (for the bench's ratio, same run, same page): the
- * version-2 indexes, and one audit entry with a full snapshot per record. Validation and stamping
- * are the same calls the repository makes.
+ * Earlier bulk paths (for the bench's ratios, same run, same page). `schema` 2: the version-2
+ * indexes and one audit entry with a full snapshot per record (before schema 5). `schema` 14: one
+ * stored value per observation with the schema-5 indexes and one batch audit entry (ids and a
+ * SHA-256 digest) per batch, as the repository wrote them before schema 16 packed observations.
+ * Validation and stamping are the same calls the repository makes.
  */
-export async function bulkInsertPrevious(total: number, batch = 5000): Promise<{ total: number; stored: number; seconds: number; perSecond: number }> {
-  const name = 'kinnote-browser-bench-previous';
+export async function bulkInsertPrevious(total: number, batch = 5000, schema: 2 | 14 = 2): Promise<{ total: number; stored: number; seconds: number; perSecond: number }> {
+  const name = `kinnote-browser-bench-previous-${schema}`;
   await Dexie.delete(name);
   const db = new Dexie(name);
-  declareSchema(db, 2);
+  declareSchema(db, schema);
   await db.open();
   const uuid = () => {
     const b = crypto.getRandomValues(new Uint8Array(16));
@@ -199,10 +225,17 @@ export async function bulkInsertPrevious(total: number, batch = 5000): Promise<{
       if (!result.ok) throw new Error(JSON.stringify(result.issues));
       rows.push(result.record as unknown as Record<string, unknown>);
     }
-    const audits = rows.map((row) => ({
-      id: uuid(), createdAt: at, updatedAt: at, ...actor, deleted: false, action: 'create', table: 'observations', recordId: row.id, before: null,
-      after: auditSnapshot('observations', row as never), note: null,
-    }));
+    const audits =
+      schema === 14
+        ? [{
+            id: uuid(), createdAt: at, updatedAt: at, ...actor, deleted: false, action: 'create', table: 'observations', recordId: null, before: null,
+            after: { recordIds: rows.map((r) => r.id), count: rows.length, digest: { algorithm: 'SHA-256', over: 'canonical-json-of-audit-snapshots', value: await sha256Hex(canonicalJson(rows)) } },
+            note: `batch of ${rows.length} observations`,
+          }]
+        : rows.map((row) => ({
+            id: uuid(), createdAt: at, updatedAt: at, ...actor, deleted: false, action: 'create', table: 'observations', recordId: row.id, before: null,
+            after: auditSnapshot('observations', row as never), note: null,
+          }));
     await db.transaction('rw', ['observations', 'audit'], async () => {
       await db.table('observations').bulkAdd(rows);
       await db.table('audit').bulkAdd(audits);
@@ -368,7 +401,7 @@ export async function importBench(total: number): Promise<{ total: number; store
   const t2 = performance.now();
   await importBackup(target, text);
   const t3 = performance.now();
-  const stored = await target.db.table('observations').count();
+  const stored = (await tableRows(target.db, 'observations').all()).length;
   target.close();
   await Dexie.delete('kinnote-browser-bench-import-b');
   return { total, stored, exportSeconds: (t1 - t0) / 1000, importSeconds: (t3 - t2) / 1000, bytes: text.length };

@@ -4,6 +4,7 @@ import { ordinalValue } from '../../../src/lib/domain';
 import { StoreError, canonicalJson, type KinnoteStore } from '../../../src/lib/store';
 import { BATCH_AUDIT_MIN_RECORDS } from '../../../src/lib/store/batch-audit';
 import { dumpAll, freshStore, seedPatient } from './store-helpers';
+import { tableRows } from '../../../src/lib/store/table-rows';
 
 async function inputs(store: KinnoteStore, n: number) {
   const { patient, assessment } = await seedPatient(store);
@@ -37,7 +38,8 @@ describe('batch audit entries for bulk creates', () => {
     expect(after.recordIds).toEqual(rows.map((r) => r.id));
     expect(after.count).toBe(rows.length);
     // Reconstruction from what is stored: the rows as they are now (none changed since).
-    const stored = await store.db.table('observations').bulkGet(after.recordIds);
+    const present = await tableRows(store.db, 'observations').present(after.recordIds);
+    const stored = after.recordIds.map((id) => present.get(id));
     expect(after.digest.value).toBe(nodeSha256(canonicalJson(stored)));
     // Each record's history names the batch entry.
     expect((await store.audit.forRecord('observations', rows[7]!.id)).map((e) => e.id)).toEqual([entry!.id]);
@@ -53,7 +55,8 @@ describe('batch audit entries for bulk creates', () => {
     const history = await store.audit.forRecord('observations', changed.id);
     expect(history.map((e) => e.action)).toEqual(['create', 'update']);
     const batch = history[0]!.after as { recordIds: string[]; digest: { value: string } };
-    const now = await store.db.table('observations').bulkGet(batch.recordIds);
+    const current = await tableRows(store.db, 'observations').present(batch.recordIds);
+    const now = batch.recordIds.map((id) => current.get(id));
     // Current rows no longer match (one changed, one tombstoned) ...
     expect(nodeSha256(canonicalJson(now))).not.toBe(batch.digest.value);
     // ... the states rebuilt from the first later entry of each record do.

@@ -20,13 +20,14 @@ import {
 } from '../../../src/lib/store';
 import { caseloadRows, filterCaseload } from '../../../src/lib/ui/caseload-summary';
 import { freshStore, quotaFault, steppingClock } from './store-helpers';
+import { tableRows } from '../../../src/lib/store/table-rows';
 
 /** The oracle: every live patient's summary computed from whole tables, grouped here, in patient id order. */
 async function recomputed(store: KinnoteStore) {
   const [patients, assessments, observations, studies] = await Promise.all([
     store.db.table<Patient>('patients').toArray(),
     store.db.table<SummaryAssessment>('assessments').toArray(),
-    store.db.table<Observation>('observations').toArray(),
+    tableRows<Observation>(store.db, 'observations').all(),
     store.db.table<AdoptableStudy>('reliabilityStudies').toArray(),
   ]);
   const localMdc = adoptedLocalMdc(studies);
@@ -187,7 +188,7 @@ describe('caseload summaries', () => {
 
     // A write that bypasses the repositories is marked stale in its own transaction, then recomputed on read.
     const obs = await store.observations.get(second.observations[0]!.id);
-    await store.db.table('observations').put({ ...obs, value: ordinalValue('mas', '4') });
+    await store.db.transaction('rw', ['observations'], () => tableRows<Observation>(store.db, 'observations').put([{ ...obs!, value: ordinalValue('mas', '4') }]));
     expect(await staleRows(store)).toEqual([p.id]);
     expect(await shown(store)).toEqual(await recomputed(store));
     expect(await staleRows(store)).toEqual([]);
@@ -277,7 +278,7 @@ describe('schema v10', () => {
       ['K7QM-3XHD', Date.parse('2025-02-02T09:00:00.000Z'), 1],
       ['K7QM-4XHD', null, 0],
     ]);
-    expect(await store.db.table('observations').where('updatedAt').above('2024-12-31').count()).toBe(2);
+    expect(await tableRows(store.db, 'observations').countChangedSince('2024-12-31')).toBe(2);
     store.close();
   });
 });

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import Dexie from 'dexie';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { LATEST_SCHEMA_VERSION, SCHEMA_VERSIONS, declareSchema, openStore } from '../../../src/lib/store';
+import { tableRows } from '../../../src/lib/store/table-rows';
 
 const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;
 const stamps = { createdAt: '2025-01-01T10:00:00.000Z', updatedAt: '2025-01-01T10:00:00.000Z', deviceId: ids(900), clinicianId: ids(901), deleted: false };
@@ -63,11 +64,12 @@ describe('schema migrations', () => {
     }
     // New compound index answers range queries; the kept patientId index still works.
     expect((await store.observations.series(ids(1), 'mas')).map((o) => o.id)).toEqual([ids(12), ids(10), ids(11)]);
-    expect(await store.db.table('observations').where('patientId').equals(ids(1)).count()).toBe(3);
+    expect((await tableRows(store.db, 'observations').ofPatient(ids(1))).length).toBe(3);
     expect(await store.audit.forRecord('patients', ids(1))).toEqual(rows.audit);
     expect(store.actor).toEqual({ deviceId: ids(900), clinicianId: ids(901) });
+    // Since schema 16 the series is read through the blocks' patient index (observation-rows.ts).
     const schema = store.db.table('observations').schema;
-    expect(schema.indexes.map((i) => i.name)).toContain('[patientId+measureCode+takenAt]');
+    expect(schema.indexes.map((i) => i.name)).toContain('patientIds');
     // Records written after the upgrade still validate against the current schema.
     const { validateRecord } = await import('../../../src/lib/domain');
     for (const o of observations) expect(validateRecord('observations', o).ok).toBe(true);
@@ -92,8 +94,9 @@ describe('schema migrations', () => {
     const store = await openStore({ indexedDB: factory, IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
     expect(store.db.verno).toBe(LATEST_SCHEMA_VERSION);
     const names = (table: string) => new Set(store.db.backendDB().transaction(table).objectStore(table).indexNames);
-    // assessmentId and measureCode are dropped; updatedAt stays (team sync reads it).
-    expect(names('observations')).toEqual(new Set(['patientId', 'updatedAt', '[patientId+measureCode+takenAt]']));
+    // assessmentId and measureCode are dropped; since schema 16 observations are packed, indexed by each
+    // block's patients and newest updatedAt (the team sync reads it).
+    expect(names('observations')).toEqual(new Set(['patientIds', 'changedAt']));
     expect(names('audit')).toEqual(new Set(['createdAt', '[table+recordId]']));
     expect(await store.observations.list()).toEqual(observations);
     expect(await store.assessments.list()).toEqual(rows.assessments);
