@@ -57,3 +57,31 @@ describe('reviewRows: what changed since last time, by the one outcome rule', ()
     expect(judged[0]?.mdcLine).toMatch(/Invented local study|team|local/i);
   });
 });
+
+describe('reviewRows: no MDC, and the first visit', () => {
+  // A Tardieu pair has no published MDC: the catalogue's reason names what was found instead
+  // (Ben-Shabat et al. 2013: ICC ≈ .79 for R1/R2), and the review must show it, not "none known".
+  const tardieuLast: Observation = { ...last('ankle-soleus', { kind: 'tardieu', r1Deg: -10, r2Deg: 10, quality: 2, spasticityAngleDeg: 20 }), measureCode: 'tardieu' };
+  it("shows the catalogue's reason when a test has no MDC", () => {
+    const [row] = reviewRows(
+      new Map([[seriesKey(tardieuLast), tardieuLast]]),
+      [{ measureCode: 'tardieu', siteCode: 'ankle-soleus', side: 'left', mode: null, instrument: null, value: { kind: 'tardieu', r1Deg: -5, r2Deg: 12, quality: 2, spasticityAngleDeg: 17 } }],
+      { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c' },
+    );
+    expect(row?.beyondMdc).toBe(false);
+    expect(row?.mdcLine).toMatch(/^MDC: none published for this measure/);
+    expect(row?.mdcLine).toContain('Ben-Shabat');
+    expect(row?.mdcLine).not.toContain('none known');
+  });
+
+  it('says "first visit" when the patient has none earlier, and "new test" when only this test is new', () => {
+    const todayRows = [today('elbow-flexors', grade('1', 1))];
+    const [first] = reviewRows(new Map(), todayRows, { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c', firstVisit: true });
+    expect(first?.lastText).toBe('first visit');
+    expect(first?.mdcLine).toMatch(/^First visit/);
+    const [later] = reviewRows(new Map(), todayRows, { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c', firstVisit: false });
+    expect(later?.lastText).toBe('new test');
+    const [carried] = reviewRows(new Map([[seriesKey(last('elbow-flexors', grade('1+', 2))), last('elbow-flexors', grade('1+', 2))]]), todayRows, { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c', firstVisit: false });
+    expect(carried?.lastText).toMatch(/^1\+ \(/);
+  });
+});

@@ -22,6 +22,8 @@ export class VisitForm {
   /** The latest observation of each series, for "last time" beside each row. */
   // eslint-disable-next-line svelte/prefer-svelte-reactivity -- replaced whole (raw state), never changed in place
   lastBySeries = $state.raw(new Map<string, Observation>());
+  /** No live visit of the patient before this one (a new visit, or the visit amended): said plainly. */
+  firstVisit = $state(false);
   #keyCounter = 0;
 
   constructor(patientId: string, amendId: string | null) {
@@ -48,7 +50,7 @@ export class VisitForm {
   /** "Last time" for a row: the latest value of its series, with its date. */
   lastTime(measureCode: string, siteCode: string, side: string, mode: string | null = null): string {
     const o = this.lastBySeries.get(seriesKey({ measureCode, siteCode, side: side as Observation['side'], mode: mode as Observation['mode'] }));
-    return lastTimeText(o);
+    return lastTimeText(o, this.firstVisit);
   }
 
   isSkipped(key: string): boolean {
