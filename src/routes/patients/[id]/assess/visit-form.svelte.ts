@@ -3,6 +3,7 @@ import { findMeasure, findSite, type Observation } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
 import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue } from '$lib/ui/assessment-draft';
 import { repeatedReadings, type UnreadableReading, type VisitReading } from '$lib/ui/visit-readings';
+import { missingReadings } from '$lib/ui/visit-protocol';
 import { lastTimeText, localNow } from './visit-words';
 
 
@@ -36,6 +37,7 @@ export class VisitForm {
     const form = draftObservations(this.draft);
     const issues: DraftIssue[] = [...form.issues];
     for (const r of repeatedReadings(this.readings, form.observations)) issues.push({ field: `reading-${r.key}`, message: r.message });
+    if (!this.amendId) issues.push(...missingReadings(this.draft, this.readings));
     if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: 'say why the visit is amended (kept in the audit)' });
     return { observations: form.observations, issues };
   });
