@@ -128,6 +128,35 @@ describe('a first visit laid out from a template', () => {
     });
   }
 
+  it('the issue\'s home visit as a first visit from "Leg tone and spasms at home", counted in taps (by hand: 32 taps + 8 digits in visit.e2e.ts)', async () => {
+    const context = await newAppContext(browser, { viewport: smallPhone });
+    const page = await context.newPage();
+    await setUpDevice(page, { demo: false });
+    await addPatient(page, 'Left');
+    const t = new Taps();
+    await openVisit(page, t);
+    await t.tap(section(page, 'First visit: what to test').getByRole('button', { name: 'Leg tone and spasms at home' }));
+    const mas = section(page, 'Modified Ashworth');
+    await expect(mas.locator('.entry').count()).resolves.toBe(4);
+    for (const [i, grade] of ['1+', '1', '2', '1'].entries()) await t.tap(mas.locator('.entry').nth(i).getByRole('radio', { name: grade, exact: true }));
+    const tardieu = section(page, 'Modified Tardieu');
+    await t.type(tardieu.getByLabel('R1, fast (°)'), '70');
+    await t.type(tardieu.getByLabel('R2, slow (°)'), '115');
+    await t.tap(tardieu.getByRole('radio', { name: '2', exact: true }));
+    await t.type(section(page, 'Range of motion').getByLabel('Angle (°)'), '118');
+    const spasms = section(page, 'Spasms');
+    await t.tap(spasms.getByRole('group', { name: 'Penn spasm frequency' }).getByRole('radio', { name: '2', exact: true }));
+    await t.tap(spasms.getByRole('group', { name: /Spasm severity/ }).getByRole('radio', { name: '5', exact: true }));
+    await t.tap(page.getByRole('button', { name: 'Save assessment' }));
+    await t.tap(page.locator('section.review').getByRole('button', { name: 'Save visit' }));
+    await page.getByText('Assessment saved.').waitFor();
+    console.log(`[visit taps, phone] the issue's home visit as a first visit from the template "Leg tone and spasms at home": ${t.taps} taps + ${t.digits} digits (from opening the app to saved)`);
+    const stored = (await tableRows<StoredObservation>(page, 'observations')).filter((o) => !o.deleted);
+    expect(stored.length).toBe(8);
+    expect(t.taps).toBeLessThan(32);
+    await context.close();
+  });
+
   it('"Start empty" leaves the form empty, as before templates', async () => {
     const context = await newAppContext(browser, { viewport: smallPhone });
     const page = await context.newPage();
