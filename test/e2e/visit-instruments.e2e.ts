@@ -190,7 +190,14 @@ describe('instruments inside the visit', () => {
     await inclinometerRow.getByRole('button', { name: 'Not tested today' }).click();
     await screenshot(page, 'visit-instruments-carried-360');
     expect(await seriousAxeViolations(page)).toEqual([]);
+    await setTextScale(page, 2);
+    const carriedLayout = (await reflowProblems(page)).join('\n');
+    await screenshot(page, 'visit-instruments-carried-360-text200');
+    expect(carriedLayout).toBe('');
+    await setTextScale(page, 1);
     await page.getByRole('button', { name: 'Save assessment' }).click();
+    // The review compares the pendulum's R2 with last visit, like a form row.
+    await page.locator('section.review li', { hasText: 'Pendulum relaxation index' }).getByText(/^1\.66 \(.+\) → 1\.66 today$/).waitFor();
     await page.getByRole('button', { name: 'Save visit' }).click();
     await page.getByText('Assessment saved.').waitFor();
     const second = (await tableRows<Row>(page, 'observations')).filter((o) => !o.deleted && o.assessmentId !== visitId);

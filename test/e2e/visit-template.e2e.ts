@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, screenshot, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -69,6 +69,13 @@ describe('a first visit laid out from a template', () => {
       await chooser.waitFor();
       await screenshot(page, `visit-template-chooser-${size}`);
       expect(await seriousAxeViolations(page)).toEqual([]);
+      // At 200 % text the chooser reflows (nothing cut off or overlapping).
+      await setTextScale(page, 2);
+      expect(await rootFontPx(page), 'text size really doubled').toBe(32);
+      const layout = (await reflowProblems(page)).join('\n');
+      await screenshot(page, `visit-template-chooser-${size}-text200`);
+      expect(layout).toBe('');
+      await setTextScale(page, 1);
       await t.tap(chooser.getByRole('button', { name: 'Ankle after an injection' }));
       await page.getByText('Laid out from the template “Ankle after an injection”').waitFor();
       expect(await chooser.count()).toBe(0);

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Observation, ObservationValue } from '../../../src/lib/domain';
 import { seriesKey } from '../../../src/lib/stats';
-import { reviewRows } from '../../../src/routes/patients/[id]/assess/visit-review';
+import { readingsForReview, reviewRows } from '../../../src/routes/patients/[id]/assess/visit-review';
+import type { VisitReading } from '../../../src/lib/ui/visit-readings';
 
 // Hand-written last-visit records (not produced by the code under test).
 const base = { createdAt: '2026-10-01T09:00:00.000Z', updatedAt: '2026-10-01T09:00:00.000Z', deviceId: 'd', clinicianId: 'c', deleted: false };
@@ -83,5 +84,31 @@ describe('reviewRows: no MDC, and the first visit', () => {
     expect(later?.lastText).toBe('new test');
     const [carried] = reviewRows(new Map([[seriesKey(last('elbow-flexors', grade('1+', 2))), last('elbow-flexors', grade('1+', 2))]]), todayRows, { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c', firstVisit: false });
     expect(carried?.lastText).toMatch(/^1\+ \(/);
+  });
+});
+
+describe('readingsForReview: an instrument reading compared with last time', () => {
+  it('shows a pendulum test by its R2 against last visit, with the catalogue\'s reason for having no MDC', () => {
+    const lastRi: Observation = { ...last('knee', { kind: 'index', value: 1.1 }), measureCode: 'pendulum-ri' };
+    const reading: VisitReading = {
+      key: 'r1',
+      instrument: 'pendulum-file',
+      title: 'Pendulum from a file, left knee: R2 1.25',
+      skipped: [],
+      // Hand-written indices (not from the engine): the first swing comes first, R2 second.
+      observations: [
+        { measureCode: 'pendulum-first-swing', siteCode: 'knee', side: 'left', mode: null, instrument: null, value: { kind: 'index', value: 61 } },
+        { measureCode: 'pendulum-ri', siteCode: 'knee', side: 'left', mode: null, instrument: null, value: { kind: 'index', value: 1.25 } },
+      ],
+      trace: { kind: 'pendulum-knee-angle', startedAt: '2026-11-05T09:00:00.000Z', sampleRateHz: 100, channels: [] },
+    };
+    const today = readingsForReview([reading]);
+    expect(today.map((o) => o.measureCode)).toEqual(['pendulum-ri']);
+    const [row] = reviewRows(new Map([[seriesKey(lastRi), lastRi]]), today, { takenAt: '2026-11-05T09:00:00.000Z', clinicianId: 'c' });
+    expect(row?.lastText).toMatch(/^1\.10 \(/);
+    expect(row?.today).toBe('1.25');
+    expect(row?.beyondMdc).toBe(false);
+    // REFERENCES via the catalogue: ICC 0.93 for the first swing angle (J NeuroEng Rehabil 2024, 21:50).
+    expect(row?.mdcLine).toContain('ICC 0.93');
   });
 });

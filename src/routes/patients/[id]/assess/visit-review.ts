@@ -1,7 +1,20 @@
 import type { Observation } from '$lib/domain';
 import { latestVerdicts, mdcSourceLine, seriesKey, type ChangeVerdict, type LocalMdc } from '$lib/stats';
 import type { ObservationDraft } from '$lib/ui/assessment-draft';
-import { describeValue } from '$lib/ui/visit-protocol';
+import { describeValue, PENDULUM_PRIMARY } from '$lib/ui/visit-protocol';
+import type { VisitReading } from '$lib/ui/visit-readings';
+
+/**
+ * One value per instrument reading for the review (compared with last time like a form row): a
+ * pendulum test's relaxation index R2 (else its first index kept), an inclinometer's angle. The
+ * reading's other indices are saved with it all the same.
+ */
+export function readingsForReview(readings: readonly VisitReading[]): ObservationDraft[] {
+  return readings.flatMap((r) => {
+    const primary = r.observations.find((o) => o.measureCode === PENDULUM_PRIMARY) ?? r.observations[0];
+    return primary ? [primary] : [];
+  });
+}
 
 /** One test of the visit as the review before saving shows it: last time → today, and the verdict. */
 export interface ReviewRow {
