@@ -19,7 +19,7 @@ export function templateSummary(t: VisitTemplate): string {
   for (const test of t.tests) {
     const m = findMeasure(test.measureCode);
     const name = m?.code === 'mas' ? 'Modified Ashworth' : m?.code === 'tardieu' ? 'Tardieu' : m?.code === 'rom' ? 'Range of motion' : 'Ratings';
-    const site = m && m.lateral ? (findSite(m, test.siteCode)?.label ?? test.siteCode).toLowerCase() + (test.mode ? ` (${test.mode})` : '') : (m?.label ?? test.measureCode).toLowerCase();
+    const site = m && m.lateral ? (findSite(m, test.siteCode)?.label ?? test.siteCode).toLowerCase() + (test.mode ? ` (${test.mode})` : '') : (m?.label ?? test.measureCode);
     groups.set(name, [...(groups.get(name) ?? []), site]);
   }
   return [...groups].map(([name, sites]) => `${name}: ${sites.join(', ')}`).join(' · ');
