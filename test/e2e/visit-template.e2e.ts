@@ -3,7 +3,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { join } from 'node:path';
+import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -73,7 +74,9 @@ describe('a first visit laid out from a template', () => {
       await setTextScale(page, 2);
       expect(await rootFontPx(page), 'text size really doubled').toBe(32);
       const layout = (await reflowProblems(page)).join('\n');
-      await screenshot(page, `visit-template-chooser-${size}-text200`);
+      // What the person sees (the viewport): a full-page capture redraws at 100 % text.
+      await chooser.getByRole('heading', { name: 'First visit: what to test' }).scrollIntoViewIfNeeded();
+      await page.screenshot({ path: join(screenshotDir, `visit-template-chooser-${size}-text200-view.png`) });
       expect(layout).toBe('');
       await setTextScale(page, 1);
       await t.tap(chooser.getByRole('button', { name: 'Ankle after an injection' }));
