@@ -142,6 +142,43 @@ describe('instruments inside the visit', () => {
     await screenshot(page, 'visit-instruments-patient-1024');
     await page.setViewportSize(smallPhone);
     await screenshot(page, 'visit-instruments-patient-360');
+
+    // 4. The next visit carries both readings as rows to take today, with last time's values; the
+    // pendulum row opens the file panel for its knee, and the inclinometer is marked not tested today.
+    await page.getByRole('link', { name: 'New assessment' }).click();
+    await page.locator('form.assessment[aria-busy="false"]').waitFor();
+    const pendulumRow = instruments.locator('li', { hasText: 'Left knee · Pendulum test' });
+    await pendulumRow.getByText('Relaxation index (R2): last time 1.66').waitFor();
+    const inclinometerRow = instruments.locator('li', { hasText: 'Right knee flexion, passive · Phone inclinometer' });
+    const inclinometerLast = (await inclinometerRow.locator('.last').textContent()) ?? '';
+    expect(Math.abs(Number(/^Last time (-?[\d.]+)°/.exec(inclinometerLast)?.[1]) - angle), inclinometerLast).toBeLessThan(0.06);
+    // Save refuses while a carried reading is neither taken nor marked, and names it.
+    await mas.getByRole('radio', { name: '1', exact: true }).check();
+    await page.getByRole('button', { name: 'Save assessment' }).click();
+    await page.getByText('Instrument reading to take today: not taken yet').first().waitFor();
+    await pendulumRow.getByRole('button', { name: 'From a file' }).click();
+    await instruments.getByLabel('Choose a recording').setInputFiles('test/fixtures/pendulum/healthy-100hz.csv');
+    await instruments.getByRole('heading', { name: /Results: healthy-100hz.csv/ }).waitFor();
+    expect(await instruments.getByRole('radio', { name: 'Left' }).isChecked()).toBe(true);
+    await instruments.getByRole('button', { name: 'Add to this visit' }).click();
+    await pendulumRow.getByText(/^Taken today: Pendulum from a file, left knee: R2 1\.66/).waitFor();
+    await inclinometerRow.getByRole('button', { name: 'Not tested today' }).click();
+    await screenshot(page, 'visit-instruments-carried-360');
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    await setTextScale(page, 2);
+    const carriedLayout = (await reflowProblems(page)).join('\n');
+    await screenshot(page, 'visit-instruments-carried-360-text200');
+    expect(carriedLayout).toBe('');
+    await setTextScale(page, 1);
+    await page.getByRole('button', { name: 'Save assessment' }).click();
+    // The review compares the pendulum's R2 with last visit, like a form row.
+    await page.locator('section.review li', { hasText: 'Pendulum relaxation index' }).getByText(/^1\.66 \(.+\) → 1\.66 today$/).waitFor();
+    await page.getByRole('button', { name: 'Save visit' }).click();
+    await page.getByText('Assessment saved.').waitFor();
+    const second = (await tableRows<Row>(page, 'observations')).filter((o) => !o.deleted && o.assessmentId !== visitId);
+    expect(second.filter((o) => o.measureCode?.startsWith('pendulum-')).every((o) => o.side === 'left')).toBe(true);
+    expect(second.filter((o) => o.measureCode?.startsWith('pendulum-')).length).toBe(5);
+    expect(second.filter((o) => o.measureCode === 'rom')).toEqual([]);
     await context.close();
   });
 

@@ -228,6 +228,12 @@ describe('a follow-up home visit carries the last visit forward', () => {
     await page.getByLabel('Reason for the amendment').fill('grade entered on the wrong side of the scale');
     await screenshot(page, 'visit-amend-tablet');
     await page.getByRole('button', { name: 'Save the amendment' }).click();
+    // The patient's only visit: nothing before it to compare with, said plainly (not "new test").
+    const review = page.locator('section.review');
+    await review.getByText('Nothing earlier to compare with.').waitFor();
+    expect(await review.getByText('new test').count()).toBe(0);
+    expect(await review.getByText('first visit →').count()).toBe(await review.locator('li').count());
+    expect(await mas.getByText('First visit: nothing earlier').count()).toBe(4);
     // The review opens in place; "Back to the form" closes it and returns focus to the Save button.
     await page.getByRole('button', { name: 'Back to the form' }).click();
     expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Save the amendment');

@@ -84,3 +84,5 @@ export {
   type PhotoEncodingAttempt,
   type PhotoType,
 } from './exercise-photo';
+// Visit templates (visit-templates.ts) are imported by their own path: only the visit form uses them,
+// and this door is on the first screen.

@@ -12,5 +12,5 @@ export {
 } from './device-motion-source';
 // The pendulum measures are built by the engine's own helper, for a file or a phone recording alike.
 export { pendulumObservations } from '../pendulum';
-export { DERIVED_ANGLE_CHANNEL, PHONE_MOTION_CHANNELS, romObservation, motionTraceChannels, saveSensorMeasurement, type SensorSaveStore, type SensorSaveInput } from './save-sensor-measurement';
+export { DERIVED_ANGLE_CHANNEL, PHONE_MOTION_CHANNELS, romObservation, motionTraceChannels } from './sensor-records';
 export { reanalyseSavedRecording, type AddedValue, type ReanalysedValue, type ReanalysisOutcome } from './reanalyse-saved-recording';

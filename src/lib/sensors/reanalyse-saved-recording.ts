@@ -4,7 +4,7 @@
 // writes the changes and their audit entries is the store's `runPendingPhoneReanalysis`.
 import { type Observation, type ObservationValue, type Trace } from '../domain';
 import { pendulumObservations } from '../pendulum';
-import { DERIVED_ANGLE_CHANNEL, PHONE_MOTION_CHANNELS } from './save-sensor-measurement';
+import { DERIVED_ANGLE_CHANNEL, PHONE_MOTION_CHANNELS } from './sensor-records';
 import { analyseMotionRecording, MotionInputError, type MotionRecording } from './signal';
 
 /** One saved observation whose value the re-analysis changes. */

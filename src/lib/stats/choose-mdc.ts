@@ -128,12 +128,20 @@ function shortSource(source: string): string {
  * Where an MDC comes from, in plain words for a clinician (the quieter second line under a verdict),
  * e.g. "MDC 6°: published figure (Armstrong et al. 1998)" or "MDC 1 grade step: common practice for
  * ordinal scales (no published figure)". `unit` is appended to the value ("°", "" for an index);
- * `grades` says the value is in grade steps. With no MDC, the note (or "none known").
+ * `grades` says the value is in grade steps. With no MDC, the catalogue's reason (chooseMdc's note,
+ * with what the catalogue found instead), or "none known" when no note is given.
  */
 export function mdcSourceLine(mdc: MdcProvenance | null, unit: string, grades: boolean, note: string | null = null): string {
   if (!mdc) {
-    const reason = note && /establish locally/i.test(note) ? 'none published for this measure; your team can establish one with a reliability study' : (note ?? 'none known');
-    return `MDC: ${reason}`;
+    if (!note) return 'MDC: none known';
+    // The catalogue's reason opens with "none: establish locally…"; what follows it (what was found
+    // instead, e.g. an ICC without an error in units) is kept, so the person sees why there is none.
+    const lead = /^none:\s*establish locally(?: with a reliability study)?\.?\s*/i.exec(note);
+    if (lead || /establish locally/i.test(note)) {
+      const detail = lead ? note.slice(lead[0].length).trim() : '';
+      return `MDC: none published for this measure; your team can establish one with a reliability study${detail ? `. ${detail}` : ''}`;
+    }
+    return `MDC: ${note}`;
   }
   const value = grades ? `${+mdc.value.toFixed(2)} grade step${mdc.value === 1 ? '' : 's'}` : `${+mdc.value.toFixed(2)}${unit}`;
   switch (mdc.source) {

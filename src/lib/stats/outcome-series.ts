@@ -104,10 +104,14 @@ export function outcomeSeries(observations: readonly Observation[], options: Out
  * Each series' title and latest verdict only (what the caseload's improved/worsened flags need),
  * by the very code outcomeSeries runs, in the same order, without judging every earlier point and
  * without the trend (Theil–Sen and Mann–Kendall cost O(n²) in the series length). Cost: a sort
- * and one verdict per series. `verdict` is always the `verdict` outcomeSeries gives that series.
+ * and one verdict per series. `verdict` is always the `verdict` outcomeSeries gives that series;
+ * `mdcNote` is why there is no MDC (the catalogue's reason), as outcomeSeries gives it.
  */
-export function latestVerdicts(observations: readonly Observation[], options: OutcomeOptions): { readonly key: string; readonly title: string; readonly verdict: ChangeVerdict | null }[] {
-  return buildSeries(observations, options, 'latest').map(({ key, title, verdict }) => ({ key, title, verdict }));
+export function latestVerdicts(
+  observations: readonly Observation[],
+  options: OutcomeOptions,
+): { readonly key: string; readonly title: string; readonly verdict: ChangeVerdict | null; readonly mdcNote: string | null }[] {
+  return buildSeries(observations, options, 'latest').map(({ key, title, verdict, mdcNote }) => ({ key, title, verdict, mdcNote }));
 }
 
 /**

@@ -15,6 +15,15 @@ import {
  * What the assessment form holds while the therapist types: plain strings for number fields so that
  * a half-typed value survives a reload. Kept as a draft on every change (see draft-keeper.ts).
  */
+/** An instrument reading to take today: the pendulum test of one knee, or an inclinometer ROM reading. */
+export interface InstrumentRow {
+  key: string;
+  kind: 'pendulum' | 'inclinometer';
+  siteCode: string;
+  side: 'left' | 'right';
+  mode: RomMode | null;
+}
+
 export interface AssessmentDraft {
   readonly version: 1;
   patientId: string;
@@ -41,6 +50,11 @@ export interface AssessmentDraft {
   notes: string;
   /** Keys of rows marked "Not tested today": saved nowhere, and never an issue. */
   notTested?: string[];
+  /**
+   * Instrument readings carried from the last visit, to take today from within the visit (a pendulum
+   * test by file or phone, a phone inclinometer reading): done when a reading of this visit matches.
+   */
+  instruments?: InstrumentRow[];
 }
 
 export function emptyDraft(patientId: string, performedAtLocal: string): AssessmentDraft {

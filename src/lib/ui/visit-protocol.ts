@@ -1,6 +1,7 @@
 import { findMeasure, type Assessment, type Instrument, type Observation, type ObservationValue, type RomMode } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
-import type { AssessmentDraft } from './assessment-draft';
+import type { AssessmentDraft, InstrumentRow } from './assessment-draft';
+import type { VisitReading } from './visit-readings';
 
 /**
  * A patient's visit protocol: the tests of the last visit (measure, site, side, ROM mode and
@@ -13,6 +14,25 @@ export interface ProtocolTest {
   readonly side: Observation['side'];
   readonly mode: RomMode | null;
   readonly instrument: Instrument | null;
+  /**
+   * Taken with an instrument from within the visit (absent: a row of the form): a pendulum test
+   * (file or phone; measureCode 'pendulum-ri', the knee) or a phone inclinometer ROM reading.
+   */
+  readonly reading?: InstrumentRow['kind'];
+}
+
+/** The pendulum test's primary index: the series a carried pendulum row shows "last time" from. */
+export const PENDULUM_PRIMARY = 'pendulum-ri';
+const isPendulum = (measureCode: string) => measureCode.startsWith('pendulum-');
+
+/**
+ * The instrument reading an observation comes from, if any: every pendulum index, and a range of
+ * motion with a raw trace (the phone inclinometer). A typed ROM value has no trace.
+ */
+function readingKind(o: Pick<Observation, 'measureCode' | 'traceId'>): InstrumentRow['kind'] | null {
+  if (isPendulum(o.measureCode)) return 'pendulum';
+  if (o.measureCode === 'rom' && o.traceId !== null) return 'inclinometer';
+  return null;
 }
 
 /** Measures the visit form lays out as rows; instrument readings (pendulum) come from their own flows. */
@@ -31,7 +51,7 @@ function localDay(iso: string): string {
  * left before right. Empty when the patient has no history.
  */
 export function visitProtocol(assessments: readonly Assessment[], observations: readonly Observation[]): ProtocolTest[] {
-  const live = observations.filter((o) => !o.deleted && (FORM_MEASURES as readonly string[]).includes(o.measureCode));
+  const live = observations.filter((o) => !o.deleted && ((FORM_MEASURES as readonly string[]).includes(o.measureCode) || isPendulum(o.measureCode)));
   const withForm = new Set(live.map((o) => o.assessmentId));
   const candidates = assessments.filter((a) => !a.deleted && withForm.has(a.id));
   if (candidates.length === 0) return [];
@@ -41,11 +61,17 @@ export function visitProtocol(assessments: readonly Assessment[], observations: 
   const tests = new Map<string, ProtocolTest>();
   for (const o of live) {
     if (!visitIds.has(o.assessmentId)) continue;
-    const key = seriesKey(o);
-    if (!tests.has(key)) tests.set(key, { measureCode: o.measureCode, siteCode: o.siteCode, side: o.side, mode: o.mode, instrument: o.instrument });
+    const reading = readingKind(o);
+    if (reading === 'pendulum') {
+      const test: ProtocolTest = { measureCode: PENDULUM_PRIMARY, siteCode: o.siteCode, side: o.side, mode: null, instrument: null, reading };
+      tests.set(`${seriesKey(test)}|pendulum`, test);
+      continue;
+    }
+    const key = `${seriesKey(o)}|${reading ?? ''}`;
+    if (!tests.has(key)) tests.set(key, { measureCode: o.measureCode, siteCode: o.siteCode, side: o.side, mode: o.mode, instrument: o.instrument, ...(reading ? { reading } : {}) });
   }
   const order = (t: ProtocolTest) => {
-    const measureIndex = (FORM_MEASURES as readonly string[]).indexOf(t.measureCode);
+    const measureIndex = t.reading === 'pendulum' ? FORM_MEASURES.length : (FORM_MEASURES as readonly string[]).indexOf(t.measureCode);
     const siteIndex = findMeasure(t.measureCode)?.sites.findIndex((s) => s.code === t.siteCode) ?? 0;
     const sideIndex = t.side === 'left' ? 0 : t.side === 'right' ? 1 : 2;
     return [measureIndex, siteIndex, sideIndex, t.mode === 'active' ? 1 : 0];
@@ -80,6 +106,9 @@ export function describeValue(value: ObservationValue): string {
       return `R1 ${deg(value.r1Deg)} · R2 ${deg(value.r2Deg)} · quality ${value.quality}`;
     case 'angle':
       return deg(value.angleDeg);
+    case 'index':
+      // Pendulum indices: two decimals, as the patient page and the report show them.
+      return value.value.toFixed(2);
     default:
       return String(value.value);
   }
@@ -90,11 +119,12 @@ export function describeValue(value: ObservationValue): string {
  * instrument fixed, so the series continue) and no values: the therapist records today's.
  */
 export function draftFromProtocol(patientId: string, performedAtLocal: string, protocol: readonly ProtocolTest[], empty: AssessmentDraft): AssessmentDraft {
-  const draft: AssessmentDraft = { ...empty, patientId, performedAtLocal, mas: [], tardieu: [], rom: [], notTested: [] };
+  const draft: AssessmentDraft = { ...empty, patientId, performedAtLocal, mas: [], tardieu: [], rom: [], notTested: [], instruments: [] };
   protocol.forEach((t, i) => {
     const key = `carried-${i}`;
     const side = t.side === 'right' ? 'right' : 'left';
-    if (t.measureCode === 'mas') draft.mas.push({ key, siteCode: t.siteCode, side, grade: null, carried: true });
+    if (t.reading) draft.instruments?.push({ key, kind: t.reading, siteCode: t.siteCode, side, mode: t.mode });
+    else if (t.measureCode === 'mas') draft.mas.push({ key, siteCode: t.siteCode, side, grade: null, carried: true });
     else if (t.measureCode === 'tardieu') draft.tardieu.push({ key, siteCode: t.siteCode, side, r1Deg: '', r2Deg: '', quality: null, carried: true });
     else if (t.measureCode === 'rom') {
       draft.rom.push({ key, siteCode: t.siteCode, side, mode: t.mode ?? 'passive', instrument: t.instrument ?? 'universal-goniometer', angleDeg: '', carried: true });
@@ -114,7 +144,7 @@ export interface KeptProtocol {
  * "Not tested today" (they stay in the protocol), without rows the therapist removed; the spasm
  * ratings when recorded.
  */
-export function protocolFromDraft(draft: AssessmentDraft): ProtocolTest[] {
+export function protocolFromDraft(draft: AssessmentDraft, readings: readonly VisitReading[] = []): ProtocolTest[] {
   const tests: ProtocolTest[] = [
     ...draft.mas.map((r) => ({ measureCode: 'mas', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
     ...draft.tardieu.map((r) => ({ measureCode: 'tardieu', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
@@ -122,8 +152,44 @@ export function protocolFromDraft(draft: AssessmentDraft): ProtocolTest[] {
   ];
   if (draft.pennFrequency !== null) tests.push({ measureCode: 'penn-spasm-frequency', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
   if (draft.spasmSeverity !== null) tests.push({ measureCode: 'spasm-severity', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
-  const unique = new Map(tests.map((t) => [seriesKey(t), t]));
+  // Instrument readings: the rows carried (taken today or not) and any reading taken today.
+  for (const r of draft.instruments ?? []) tests.push(instrumentTest(r));
+  for (const reading of readings) {
+    const row = rowOfReading(reading);
+    if (row) tests.push(instrumentTest(row));
+  }
+  const unique = new Map(tests.map((t) => [`${seriesKey(t)}|${t.reading ?? ''}`, t]));
   return [...unique.values()];
+}
+
+function instrumentTest(r: Omit<InstrumentRow, 'key'>): ProtocolTest {
+  return r.kind === 'pendulum'
+    ? { measureCode: PENDULUM_PRIMARY, siteCode: r.siteCode, side: r.side, mode: null, instrument: null, reading: 'pendulum' }
+    : { measureCode: 'rom', siteCode: r.siteCode, side: r.side, mode: r.mode, instrument: 'phone-sensor', reading: 'inclinometer' };
+}
+
+/** The instrument row a reading of this visit fulfils (pendulum: its knee; inclinometer: its motion, side and mode). */
+export function rowOfReading(reading: VisitReading): Omit<InstrumentRow, 'key'> | null {
+  const o = reading.observations[0];
+  if (!o || (o.side !== 'left' && o.side !== 'right')) return null;
+  if (reading.instrument === 'inclinometer') return { kind: 'inclinometer', siteCode: o.siteCode, side: o.side, mode: o.mode };
+  return { kind: 'pendulum', siteCode: o.siteCode, side: o.side, mode: null };
+}
+
+/** The reading of this visit that fulfils a carried instrument row, if one was taken. */
+export function readingForRow(row: InstrumentRow, readings: readonly VisitReading[]): VisitReading | undefined {
+  return readings.find((reading) => {
+    const r = rowOfReading(reading);
+    return r !== null && r.kind === row.kind && r.siteCode === row.siteCode && r.side === row.side && (row.kind === 'pendulum' || r.mode === row.mode);
+  });
+}
+
+/** Carried instrument rows neither taken today nor marked "Not tested today": each named, as a blank form row is. */
+export function missingReadings(draft: AssessmentDraft, readings: readonly VisitReading[]): Array<{ field: string; message: string }> {
+  const skipped = new Set(draft.notTested ?? []);
+  return (draft.instruments ?? [])
+    .filter((row) => !skipped.has(row.key) && !readingForRow(row, readings))
+    .map((row) => ({ field: `instrument-${row.key}`, message: 'not taken yet: take the reading here, or tap "Not tested today"' }));
 }
 
 /**
@@ -153,7 +219,8 @@ export function localDateTime(iso: string): string {
 /** The form of a saved visit, to amend it: its conditions and every live form observation, filled. */
 export function draftFromVisit(visit: Assessment, observations: readonly Observation[], empty: AssessmentDraft): AssessmentDraft {
   const own = observations.filter((o) => o.assessmentId === visit.id && !o.deleted);
-  const draft = draftFromProtocol(visit.patientId, localDateTime(visit.performedAt), visitProtocol([visit], own), empty);
+  // Readings stay as saved when a visit is amended: only the form's rows are laid out.
+  const draft = draftFromProtocol(visit.patientId, localDateTime(visit.performedAt), visitProtocol([visit], own).filter((t) => !t.reading), empty);
   const c = visit.conditions;
   Object.assign(draft, {
     setting: visit.setting,

@@ -24,6 +24,8 @@ function app(extra: Partial<Record<string, ChunkInfo>> = {}): ChunkInfo[] {
     layout: chunk('nodes/0.js', `${gen}/nodes/0.js`, ['shared.js'], [`${root}/src/routes/+layout.svelte`]),
     home: chunk('nodes/3.js', `${gen}/nodes/3.js`, ['home-dep.js'], [`${gen}/nodes/3.js`, `${root}/src/routes/+page.svelte`]),
     homeDep: chunk('home-dep.js', null, [], [`${root}/src/lib/ui/thing.ts`]),
+    caseload: chunk('nodes/5.js', `${gen}/nodes/5.js`, ['caseload-dep.js', 'shared.js'], [`${gen}/nodes/5.js`, `${root}/src/routes/patients/+page.svelte`]),
+    caseloadDep: chunk('caseload-dep.js', null, [], [`${root}/src/lib/ui/caseload-row.ts`]),
     shared: chunk('shared.js', null, [], [`${root}/node_modules/svelte/src/index.js`]),
     cohort: chunk('nodes/4.js', `${gen}/nodes/4.js`, ['charts.js'], [`${root}/src/routes/cohort/+page.svelte`]),
     charts: chunk('charts.js', null, [], [`${root}/node_modules/uplot/dist/uPlot.esm.js`], 40_000),
@@ -32,9 +34,9 @@ function app(extra: Partial<Record<string, ChunkInfo>> = {}): ChunkInfo[] {
 }
 
 describe('first-load budget', () => {
-  it('counts the entries, root layout and home page with their static imports, and nothing else', () => {
+  it('counts the entries, root layout, home and caseload pages with their static imports, and nothing else', () => {
     const load = firstLoad(app(), root);
-    expect(load.files.map((f) => f.fileName)).toEqual(['entry/app.js', 'entry/start.js', 'home-dep.js', 'nodes/0.js', 'nodes/3.js', 'shared.js']);
+    expect(load.files.map((f) => f.fileName)).toEqual(['caseload-dep.js', 'entry/app.js', 'entry/start.js', 'home-dep.js', 'nodes/0.js', 'nodes/3.js', 'nodes/5.js', 'shared.js']);
     // Sizes from node:zlib directly, file by file.
     const expected = app().filter((c) => load.files.some((f) => f.fileName === c.fileName)).reduce((s, c) => s + gzipSync(c.code, { level: 9 }).length, 0);
     expect(load.gzipBytes).toBe(expected);
@@ -57,6 +59,8 @@ describe('first-load budget', () => {
 
   it('refuses to pass when it cannot find the home page (a changed layout must not pass silently)', () => {
     const withoutHome = app().filter((c) => c.fileName !== 'nodes/3.js');
-    expect(() => firstLoad(withoutHome, root)).toThrow(/cannot find home page node/);
+    expect(() => firstLoad(withoutHome, root)).toThrow(/cannot find page node \(src\/routes\/\+page\.svelte\)/);
+    // Nor without the caseload, where a set-up device opens.
+    expect(() => firstLoad(app().filter((c) => c.fileName !== 'nodes/5.js'), root)).toThrow(/cannot find page node \(src\/routes\/patients\/\+page\.svelte\)/);
   });
 });

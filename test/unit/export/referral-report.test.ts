@@ -153,11 +153,14 @@ describe('referralReport since an injection (hand-worked invented patient)', () 
     expect(report.notes[2]).toBe(`MDC from a published figure: ${ARMSTRONG}; change-for-95-percent-confidence 10; VERIFIED (abstract).`);
   });
 
-  it('pendulum R2 1.10 → 1.25 and Penn 3 → 2 have no known MDC: the change is shown, not judged; both share one note', () => {
+  it('pendulum R2 1.10 → 1.25 and Penn 3 → 2 have no known MDC: the change is shown, not judged; each note gives the catalogue\'s reason', () => {
     expect(row('Left knee (leg-drop pendulum) · Pendulum relaxation index (R2)')).toMatchObject({ baselineText: '1.10', latestText: '1.25', changeText: '+0.15', mdcText: 'none', noteNumber: 2, verdict: 'no-mdc' });
     // Penn's baseline is the 10 Jan rating: 25 Feb has none.
-    expect(row('Whole body · Penn Spasm Frequency Scale')).toMatchObject({ baselineText: '3', baselineDays: ['2026-01-10'], latestText: '2', changeText: '−1', noteNumber: 2, verdict: 'no-mdc' });
-    expect(report.notes).toEqual([STEP_NOTE, NO_MDC_NOTE, expect.stringContaining('Armstrong')]);
+    expect(row('Whole body · Penn Spasm Frequency Scale')).toMatchObject({ baselineText: '3', baselineDays: ['2026-01-10'], latestText: '2', changeText: '−1', noteNumber: 4, verdict: 'no-mdc' });
+    // The reasons as the catalogue words them: ICC 0.93 for the first swing angle (J NeuroEng Rehabil
+    // 2024, 21:50) for the pendulum, ICC 0.91 in chronic SCI (Adams et al. 2007) for Penn.
+    expect(report.notes).toEqual([STEP_NOTE, expect.stringMatching(/^MDC: none published .*\. No SEM or MDC in index units .*ICC 0\.93/), expect.stringContaining('Armstrong'), expect.stringMatching(/^MDC: none published .*\. SEM\/MDC not established .*ICC 0\.91/)]);
+    expect(report.notes[1]?.startsWith(NO_MDC_NOTE)).toBe(true);
   });
 
   it('a measure first assessed after the injection is shown but not compared', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Observation, ObservationValue } from '../../../src/lib/domain';
-import { ORDINAL_STEP_MDC, outcomeSeries } from '../../../src/lib/stats';
+import { ORDINAL_STEP_MDC, latestVerdicts, mdcSourceLine, outcomeSeries } from '../../../src/lib/stats';
 import { anObservation, masGrade } from '../../support/records';
 
 let counter = 0;
@@ -106,6 +106,19 @@ describe('outcomeSeries', () => {
     expect(s.betterWhen).toBe('lower');
     expect(s.verdict?.verdict).toBe('no-mdc');
     expect(s.mdcNote).toContain('establish locally');
+    // latestVerdicts (the caseload's and the visit review's path) passes the same reason on.
+    const latest = latestVerdicts(
+      [
+        obs('tardieu', 'ankle-soleus', 'right', '2026-01-01T09:00:00.000Z', t(60, 100, 2)),
+        obs('tardieu', 'ankle-soleus', 'right', '2026-02-01T09:00:00.000Z', t(80, 100, 1)),
+      ],
+      { baselineRule: { kind: 'first' } },
+    )[0]!;
+    expect(latest.mdcNote).toBe(s.mdcNote);
+    // Shown with what the catalogue found instead (Ben-Shabat et al. 2013), not a bare "none".
+    expect(mdcSourceLine(null, '°', false, latest.mdcNote)).toMatch(/^MDC: none published for this measure; your team can establish one with a reliability study\. No MDC in degrees .*Ben-Shabat/);
+    expect(mdcSourceLine(null, '°', false, 'none: establish locally with a reliability study')).toBe('MDC: none published for this measure; your team can establish one with a reliability study');
+    expect(mdcSourceLine(null, '°', false, null)).toBe('MDC: none known');
   });
 
   it('baseline "last before event" picks the assessment before an injection', () => {

@@ -3,7 +3,17 @@ import type { Assessment, Observation, ObservationValue } from '../../../src/lib
 import { seriesKey } from '../../../src/lib/stats';
 import { draftObservations, emptyDraft } from '../../../src/lib/ui/assessment-draft';
 import { anAssessment, anObservation, masGrade } from '../../support/records';
-import { chooseProtocol, describeValue, draftFromProtocol, lastObservations, protocolFromDraft, visitProtocol } from '../../../src/lib/ui/visit-protocol';
+import { chooseProtocol, describeValue, draftFromProtocol, draftFromVisit, lastObservations, missingReadings, protocolFromDraft, readingForRow, visitProtocol } from '../../../src/lib/ui/visit-protocol';
+import type { ReadingObservation, VisitReading } from '../../../src/lib/ui/visit-readings';
+
+const reading = (instrument: VisitReading['instrument'], observations: ReadingObservation[]): VisitReading => ({
+  key: `${instrument}-${observations[0]?.side}-${observations[0]?.mode}`,
+  instrument,
+  title: instrument,
+  skipped: [],
+  observations,
+  trace: { kind: 'pendulum-knee-angle', startedAt: '2026-12-08T10:00:00.000Z', sampleRateHz: 100, channels: [] },
+});
 
 // Hand-written records (not produced by the code under test): two visits of one patient, the
 // second split the old way into a form assessment and a same-day pendulum assessment.
@@ -33,8 +43,8 @@ const observations = [
 ];
 
 describe('visitProtocol', () => {
-  it('lays out the tests of the last visit day (same-day assessments together), in form order, without instrument readings, deleted rows or deleted visits', () => {
-    const tests = visitProtocol(assessments, observations).map((t) => `${t.measureCode} ${t.side} ${t.siteCode} ${t.mode ?? ''} ${t.instrument ?? ''}`.trim());
+  it('lays out the tests of the last visit day (same-day assessments together), in form order, its instrument readings last, without deleted rows or deleted visits', () => {
+    const tests = visitProtocol(assessments, observations).map((t) => `${t.measureCode} ${t.side} ${t.siteCode} ${t.mode ?? ''} ${t.instrument ?? ''} ${t.reading ?? ''}`.replace(/ +/g, ' ').trim());
     expect(tests).toEqual([
       // Catalogue site order: elbow flexors come before ankle plantarflexors.
       'mas right elbow-flexors',
@@ -42,12 +52,47 @@ describe('visitProtocol', () => {
       'tardieu left ankle-soleus',
       'rom left ankle-dorsiflexion passive inclinometer',
       'penn-spasm-frequency none whole-body',
+      // The pendulum test of the same day (a separate assessment of the old kind) is carried as a reading to take.
+      'pendulum-ri left knee pendulum',
     ]);
   });
 
-  it('is empty for a patient with no history, or only instrument readings', () => {
+  it('is empty for a patient with no history; a visit of instrument readings only carries those readings', () => {
     expect(visitProtocol([], [])).toEqual([]);
-    expect(visitProtocol([visit('a2b', T2b)], observations.filter((o) => o.measureCode === 'pendulum-ri'))).toEqual([]);
+    expect(visitProtocol([visit('a2b', T2b)], observations.filter((o) => o.measureCode === 'pendulum-ri'))).toEqual([
+      { measureCode: 'pendulum-ri', siteCode: 'knee', side: 'left', mode: null, instrument: null, reading: 'pendulum' },
+    ]);
+  });
+
+  it('carries a pendulum test (every index one row per knee) and a phone inclinometer reading (ROM with a trace) as readings, a typed ROM as a form row', () => {
+    const day = '2026-12-01T10:00:00.000Z';
+    const v = visit('r', day);
+    const recorded = [
+      ...['pendulum-ri', 'pendulum-first-swing', 'pendulum-swing-count'].map((code) => obs('r', day, code, 'knee', 'right', { kind: 'index', value: 1.31 }, { traceId: 't1' })),
+      obs('r', day, 'rom', 'knee-flexion', 'right', { kind: 'angle', angleDeg: 112.4 }, { mode: 'passive', instrument: 'phone-sensor', traceId: 't2' }),
+      obs('r', day, 'rom', 'knee-flexion', 'left', { kind: 'angle', angleDeg: 120 }, { mode: 'passive', instrument: 'universal-goniometer' }),
+    ];
+    const protocol = visitProtocol([v], recorded);
+    const draft = draftFromProtocol('p', '2026-12-08T10:00', protocol, emptyDraft('p', ''));
+    expect(draft.rom.map((r) => `${r.side} ${r.siteCode} ${r.instrument}`)).toEqual(['left knee-flexion universal-goniometer']);
+    expect(draft.instruments?.map(({ kind, siteCode, side, mode }) => `${kind} ${side} ${siteCode} ${mode ?? ''}`.trim())).toEqual(['inclinometer right knee-flexion passive', 'pendulum right knee']);
+    // Not taken and not marked: named, like a blank form row; "Not tested today" clears it.
+    const rows = draft.instruments ?? [];
+    expect(missingReadings(draft, []).map((i) => i.field)).toEqual(rows.map((r) => `instrument-${r.key}`));
+    expect(missingReadings({ ...draft, notTested: rows.map((r) => r.key) }, [])).toEqual([]);
+    // A reading of this visit fulfils its row only when knee (and motion, mode) match.
+    const pendulumLeft = reading('pendulum-phone', [{ measureCode: 'pendulum-ri', siteCode: 'knee', side: 'left', mode: null, instrument: null, value: { kind: 'index', value: 1.4 } }]);
+    const pendulumRight = reading('pendulum-file', [{ measureCode: 'pendulum-ri', siteCode: 'knee', side: 'right', mode: null, instrument: null, value: { kind: 'index', value: 1.4 } }]);
+    const activeKnee = reading('inclinometer', [{ measureCode: 'rom', siteCode: 'knee-flexion', side: 'right', mode: 'active', instrument: 'phone-sensor', value: { kind: 'angle', angleDeg: 100 } }]);
+    expect(missingReadings(draft, [pendulumLeft, activeKnee]).length).toBe(2);
+    expect(missingReadings(draft, [pendulumRight]).map((i) => i.field)).toEqual([`instrument-${rows[0]?.key}`]);
+    expect(readingForRow(rows[1]!, [pendulumLeft, pendulumRight])).toBe(pendulumRight);
+    // Saved, the rows and today's new readings are the protocol for next time.
+    const next = protocolFromDraft(draft, [pendulumLeft]).filter((t) => t.reading).map((t) => `${t.reading} ${t.side} ${t.siteCode}`);
+    expect(next.sort()).toEqual(['inclinometer right knee-flexion', 'pendulum left knee', 'pendulum right knee']);
+    // Amending that visit lays out only its form rows: readings stay as saved.
+    expect(draftFromVisit(v, recorded, emptyDraft('p', '')).instruments).toEqual([]);
+    expect(describeValue({ kind: 'index', value: 1.3149 })).toBe('1.31');
   });
 });
 
@@ -107,7 +152,7 @@ describe('the protocol kept after a save', () => {
   const a3obs = obs('a3', '2026-12-01T10:00:00.000Z', 'mas', 'elbow-flexors', 'right', grade('1', 1));
 
   it('keeps a test "not tested today" and drops a removed one', () => {
-    expect(kept.tests.map((t) => seriesKey(t))).toEqual(['mas|elbow-flexors|right|', 'tardieu|ankle-soleus|left|', 'rom|ankle-dorsiflexion|left|passive', 'penn-spasm-frequency|whole-body|none|']);
+    expect(kept.tests.map((t) => seriesKey(t))).toEqual(['mas|elbow-flexors|right|', 'tardieu|ankle-soleus|left|', 'rom|ankle-dorsiflexion|left|passive', 'penn-spasm-frequency|whole-body|none|', 'pendulum-ri|knee|left|']);
   });
 
   it('is used while its visit is the latest, and given up for a later visit saved elsewhere or when its visit is deleted', () => {

@@ -6,6 +6,8 @@ import { chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, pr
 
 export interface VisitFormStart {
   readonly lastBySeries: Map<string, Observation>;
+  /** No live visit before this one (amending: before the amended visit). */
+  readonly firstVisit: boolean;
   /** The form as laid out: the saved visit (amending) or the patient's protocol (a new visit). */
   readonly laidOut: AssessmentDraft;
   readonly amendedUpdatedAt: string;
@@ -33,12 +35,15 @@ export async function loadVisitForm(store: KinnoteStore, patientId: string, amen
   const observations = observationRows as Observation[];
   const amended = amendId ? visits.find((a) => a.id === amendId && !a.deleted) : undefined;
   if (amendId && !amended) throw new Error('that visit is not on this device (deleted, or another patient)');
-  const lastBySeries = lastObservations(amended ? observations.filter((o) => Date.parse(o.takenAt) < Date.parse(amended.performedAt)) : observations);
+  // Amending: "last time" is the visit before the amended one (its own values are not compared with themselves).
+  const before = (iso: string) => !amended || Date.parse(iso) < Date.parse(amended.performedAt);
+  const lastBySeries = lastObservations(observations.filter((o) => before(o.takenAt)));
+  const firstVisit = !visits.some((a) => !a.deleted && a.id !== amended?.id && before(a.performedAt));
   if (!amended) {
     const laidOut = draftFromProtocol(patientId, performedAtLocal, chooseProtocol(kept, visits, observations), emptyDraft(patientId, performedAtLocal));
-    return { lastBySeries, laidOut, amendedUpdatedAt: '', amendHistory: [] };
+    return { lastBySeries, firstVisit, laidOut, amendedUpdatedAt: '', amendHistory: [] };
   }
   // The one reading of "amended" (store/amendments.ts), shared with the patient page's mark.
   const amendHistory = ((await amendmentsOf(store, 'assessments', [amended.id])).get(amended.id) ?? []).map((a) => ({ at: a.at, note: a.reason }));
-  return { lastBySeries, laidOut: draftFromVisit(amended, observations, emptyDraft(patientId, '')), amendedUpdatedAt: amended.updatedAt, amendHistory };
+  return { lastBySeries, firstVisit, laidOut: draftFromVisit(amended, observations, emptyDraft(patientId, '')), amendedUpdatedAt: amended.updatedAt, amendHistory };
 }

@@ -25,7 +25,7 @@ export async function saveNewVisit(
     fromReadings.traces,
     { draftId: input.draftId },
   );
-  const kept: KeptProtocol = { afterAssessmentId: saved.assessment.id, tests: protocolFromDraft(draft) };
+  const kept: KeptProtocol = { afterAssessmentId: saved.assessment.id, tests: protocolFromDraft(draft, input.readings) };
   await writeLocalState(store, protocolStateKey(patientId), kept).catch(() => undefined);
 }
 

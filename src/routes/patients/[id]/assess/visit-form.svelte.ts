@@ -3,6 +3,7 @@ import { findMeasure, findSite, type Observation } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
 import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue } from '$lib/ui/assessment-draft';
 import { repeatedReadings, type UnreadableReading, type VisitReading } from '$lib/ui/visit-readings';
+import { missingReadings } from '$lib/ui/visit-protocol';
 import { lastTimeText, localNow } from './visit-words';
 
 
@@ -22,6 +23,8 @@ export class VisitForm {
   /** The latest observation of each series, for "last time" beside each row. */
   // eslint-disable-next-line svelte/prefer-svelte-reactivity -- replaced whole (raw state), never changed in place
   lastBySeries = $state.raw(new Map<string, Observation>());
+  /** No live visit of the patient before this one (a new visit, or the visit amended): said plainly. */
+  firstVisit = $state(false);
   #keyCounter = 0;
 
   constructor(patientId: string, amendId: string | null) {
@@ -34,6 +37,7 @@ export class VisitForm {
     const form = draftObservations(this.draft);
     const issues: DraftIssue[] = [...form.issues];
     for (const r of repeatedReadings(this.readings, form.observations)) issues.push({ field: `reading-${r.key}`, message: r.message });
+    if (!this.amendId) issues.push(...missingReadings(this.draft, this.readings));
     if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: 'say why the visit is amended (kept in the audit)' });
     return { observations: form.observations, issues };
   });
@@ -48,7 +52,7 @@ export class VisitForm {
   /** "Last time" for a row: the latest value of its series, with its date. */
   lastTime(measureCode: string, siteCode: string, side: string, mode: string | null = null): string {
     const o = this.lastBySeries.get(seriesKey({ measureCode, siteCode, side: side as Observation['side'], mode: mode as Observation['mode'] }));
-    return lastTimeText(o);
+    return lastTimeText(o, this.firstVisit);
   }
 
   isSkipped(key: string): boolean {

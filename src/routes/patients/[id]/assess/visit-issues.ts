@@ -27,6 +27,7 @@ const NAMED: Record<string, string> = {
 export function issueLabel(form: VisitForm, issue: DraftIssue): string {
   const [section, index] = issue.field.split('.');
   if (section?.startsWith('reading-')) return 'Instrument reading';
+  if (section?.startsWith('instrument-')) return 'Instrument reading to take today';
   const i = Number(index);
   const draft = form.draft;
   const row = section === 'mas' ? draft.mas[i] : section === 'tardieu' ? draft.tardieu[i] : section === 'rom' ? draft.rom[i] : undefined;

@@ -1,7 +1,20 @@
 import type { Observation } from '$lib/domain';
 import { latestVerdicts, mdcSourceLine, seriesKey, type ChangeVerdict, type LocalMdc } from '$lib/stats';
 import type { ObservationDraft } from '$lib/ui/assessment-draft';
-import { describeValue } from '$lib/ui/visit-protocol';
+import { describeValue, PENDULUM_PRIMARY } from '$lib/ui/visit-protocol';
+import type { VisitReading } from '$lib/ui/visit-readings';
+
+/**
+ * One value per instrument reading for the review (compared with last time like a form row): a
+ * pendulum test's relaxation index R2 (else its first index kept), an inclinometer's angle. The
+ * reading's other indices are saved with it all the same.
+ */
+export function readingsForReview(readings: readonly VisitReading[]): ObservationDraft[] {
+  return readings.flatMap((r) => {
+    const primary = r.observations.find((o) => o.measureCode === PENDULUM_PRIMARY) ?? r.observations[0];
+    return primary ? [primary] : [];
+  });
+}
 
 /** One test of the visit as the review before saving shows it: last time → today, and the verdict. */
 export interface ReviewRow {
@@ -10,6 +23,8 @@ export interface ReviewRow {
   readonly title: string;
   /** Last time's value and date ("1+ on 01/12/2026"), or null when this test is new. */
   readonly last: { readonly value: string; readonly date: string } | null;
+  /** Last time in words: "1+ (01/12/2026)", "new test" (earlier visits, not this test) or "first visit" (none earlier). */
+  readonly lastText: string;
   readonly today: string;
   /** The stats engine's verdict (chooseMdc + changeVerdict); null when there is nothing to compare or no direction. */
   readonly verdict: ChangeVerdict | null;
@@ -25,11 +40,13 @@ export interface ReviewRow {
  * patient's page runs (baseline = last time, MDC by chooseMdc on both observations' instruments and
  * assessors, verdict by changeVerdict). No second MDC rule lives here. `today` must be later than
  * every last value (a new visit, or an amendment whose "last time" was read from before it).
+ * `firstVisit`: the patient has no visit before this one (new, or the one amended), said plainly
+ * instead of "new test".
  */
 export function reviewRows(
   lastBySeries: ReadonlyMap<string, Observation>,
   today: readonly ObservationDraft[],
-  context: { takenAt: string; clinicianId: string; localMdc?: readonly LocalMdc[] },
+  context: { takenAt: string; clinicianId: string; localMdc?: readonly LocalMdc[]; firstVisit?: boolean },
 ): ReviewRow[] {
   return today.map((o, i) => {
     const key = seriesKey(o);
@@ -46,16 +63,19 @@ export function reviewRows(
     const verdict = judged?.verdict ?? null;
     const unit = o.value.kind === 'ordinal' ? '' : o.value.kind === 'tardieu' || o.value.kind === 'angle' ? '°' : '';
     const mdcLine = !last
-      ? 'First value of this test: nothing to compare yet'
+      ? context.firstVisit
+        ? 'First visit: nothing earlier to compare with'
+        : 'First value of this test: nothing to compare yet'
       : refused
         ? `Not compared: ${refused}`
         : verdict
-          ? mdcSourceLine(verdict.mdcUsed, unit, o.value.kind === 'ordinal')
+          ? mdcSourceLine(verdict.mdcUsed, unit, o.value.kind === 'ordinal', judged?.mdcNote ?? null)
           : 'Change not judged for this measure (no direction of improvement)';
     return {
       key,
       title: judged?.title ?? key,
       last: last ? { value: describeValue(last.value), date: new Date(last.takenAt).toLocaleDateString() } : null,
+      lastText: last ? `${describeValue(last.value)} (${new Date(last.takenAt).toLocaleDateString()})` : context.firstVisit ? 'first visit' : 'new test',
       today: describeValue(o.value),
       verdict,
       beyondMdc: verdict?.verdict === 'improved' || verdict?.verdict === 'worsened',

@@ -1,4 +1,5 @@
-import type { Observation } from '$lib/domain';
+import { findMeasure, findSite, type Observation } from '$lib/domain';
+import type { VisitTemplate } from '$lib/domain/visit-templates';
 import { describeValue } from '$lib/ui/visit-protocol';
 
 /** Local date-time as the form's date and time fields hold it, e.g. "2026-12-01T09:30". */
@@ -7,7 +8,19 @@ export function localNow(): string {
   return new Date(Date.now() - offsetMs).toISOString().slice(0, 16);
 }
 
-/** "Last time" beside a row: the latest value of its series, with its date. */
-export function lastTimeText(o: Observation | undefined): string {
-  return o ? `Last time ${describeValue(o.value)} (${new Date(o.takenAt).toLocaleDateString()})` : 'No earlier value';
+/** "Last time" beside a row: the latest value of its series, with its date; "first visit" when the patient has none earlier. */
+export function lastTimeText(o: Observation | undefined, firstVisit = false): string {
+  return o ? `Last time ${describeValue(o.value)} (${new Date(o.takenAt).toLocaleDateString()})` : firstVisit ? 'First visit: nothing earlier' : 'No earlier value';
+}
+
+/** A template's tests in the catalogue's words: "Modified Ashworth: ankle plantarflexors · Tardieu: …". */
+export function templateSummary(t: VisitTemplate): string {
+  const groups = new Map<string, string[]>();
+  for (const test of t.tests) {
+    const m = findMeasure(test.measureCode);
+    const name = m?.code === 'mas' ? 'Modified Ashworth' : m?.code === 'tardieu' ? 'Tardieu' : m?.code === 'rom' ? 'Range of motion' : 'Ratings';
+    const site = m && m.lateral ? (findSite(m, test.siteCode)?.label ?? test.siteCode).toLowerCase() + (test.mode ? ` (${test.mode})` : '') : (m?.label ?? test.measureCode);
+    groups.set(name, [...(groups.get(name) ?? []), site]);
+  }
+  return [...groups].map(([name, sites]) => `${name}: ${sites.join(', ')}`).join(' · ');
 }
