@@ -89,8 +89,10 @@ export async function streamBackup(store: KinnoteStore, options: StreamBackupOpt
       if (page.rows === 0) break;
       after = page.lastId;
       done += page.rows;
-      if (page.texts.length > 0) emit(`${first ? '' : ','}${page.texts.join(',')}`);
-      if (page.texts.length > 0) first = false;
+      if (page.text !== '') {
+        emit(`${first ? '' : ','}${page.text}`);
+        first = false;
+      }
       await options.onProgress?.({ done, total });
     }
     emit(']');
@@ -126,7 +128,7 @@ async function startSnapshot(store: KinnoteStore) {
 }
 
 /**
- * One page of a table's records after `after` by id, as canonical JSON texts in bundle form. The one
+ * One page of a table's records after `after` by id, as canonical JSON (records in bundle form, joined by commas). The one
  * place the streamed backup reads rows: records come out through the table's codec (open or redact),
  * as exportBackup reads them.
  */
@@ -141,10 +143,13 @@ async function readPage(store: KinnoteStore, table: TableName, after: string | n
     throw toStoreError(error, 'reading the store for backup');
   }
   const codec = store.context.codecs[table];
-  const texts: string[] = [];
+  const records: Record<string, unknown>[] = [];
   for (const row of rows) {
     const record = include ? await codec.fromRow(row as never) : codec.redact(row as never);
-    if (record !== null) texts.push(canonicalJson(toPortable(table, record as object)));
+    if (record !== null) records.push(toPortable(table, record as object));
   }
-  return { rows: rows.length, lastId: rows.length > 0 ? (rows[rows.length - 1] as { id: string }).id : after, texts };
+  // One serialisation per page (the array's text without its brackets is the records joined by
+  // commas): per record it took three times as long.
+  const text = records.length > 0 ? canonicalJson(records).slice(1, -1) : '';
+  return { rows: rows.length, lastId: rows.length > 0 ? (rows[rows.length - 1] as { id: string }).id : after, text };
 }
