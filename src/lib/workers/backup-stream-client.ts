@@ -1,0 +1,49 @@
+import type { KinnoteStore } from '../store';
+import type { BackupProgress } from '../store/backup-stream';
+import { runBackupJob, type BackupJobReply } from './backup-stream-job';
+
+export interface StreamedBackupJob {
+  readonly result: Promise<{ blob: Blob; checksum: string; records: number; ranOn: 'worker' | 'main-thread' }>;
+  /** Stops between pages; `result` then rejects with code 'Aborted'. The store is only read. */
+  cancel(): void;
+}
+
+export class BackupJobError extends Error {
+  constructor(
+    message: string,
+    readonly code: string,
+  ) {
+    super(message);
+  }
+}
+
+/**
+ * Starts a streamed backup of the clinical records in a Web Worker (one per job, ended when it
+ * settles), or on the main thread where workers are unavailable or fail to start.
+ */
+export function startStreamedBackup(store: KinnoteStore, source: string, onProgress: (p: BackupProgress) => void): StreamedBackupJob {
+  let settle!: { resolve: (r: Awaited<StreamedBackupJob['result']>) => void; reject: (e: Error) => void };
+  const result = new Promise<Awaited<StreamedBackupJob['result']>>((resolve, reject) => (settle = { resolve, reject }));
+  let worker: Worker | null = null;
+  try {
+    worker = typeof Worker === 'undefined' ? null : new Worker(new URL('./backup-stream.worker.ts', import.meta.url), { type: 'module' });
+  } catch {
+    worker = null;
+  }
+  const ranOn = worker ? 'worker' : 'main-thread';
+  const handle = (reply: BackupJobReply) => {
+    if (reply.type === 'progress') return onProgress(reply.progress);
+    worker?.terminate();
+    if (reply.type === 'done') settle.resolve({ blob: reply.blob, checksum: reply.checksum, records: reply.records, ranOn });
+    else settle.reject(new BackupJobError(reply.message, reply.code));
+  };
+  if (worker) {
+    worker.onmessage = (event: MessageEvent<BackupJobReply>) => handle(event.data);
+    worker.onerror = (event) => handle({ type: 'error', code: 'Unknown', message: event.message || 'the backup worker failed' });
+    worker.postMessage({ type: 'start', dbName: store.db.name, source });
+    return { result, cancel: () => worker?.postMessage({ type: 'cancel' }) };
+  }
+  const abort = new AbortController();
+  void runBackupJob(store, source, abort.signal, handle);
+  return { result, cancel: () => abort.abort() };
+}
