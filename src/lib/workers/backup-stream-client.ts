@@ -3,7 +3,7 @@ import type { BackupProgress } from '../store/backup-stream';
 import type { BackupJobReply } from './backup-stream-job';
 
 export interface StreamedBackupJob {
-  readonly result: Promise<{ blob: Blob; checksum: string; records: number; ranOn: 'worker' | 'main-thread' }>;
+  readonly result: Promise<{ blob: Blob; checksum: string; records: number }>;
   /** Stops between pages; `result` then rejects with code 'Aborted'. The store is only read. */
   cancel(): void;
 }
@@ -32,11 +32,10 @@ export function startStreamedBackup(store: KinnoteStore, source: string, onProgr
   } catch {
     worker = null;
   }
-  const ranOn = worker ? 'worker' : 'main-thread';
   const handle = (reply: BackupJobReply) => {
     if (reply.type === 'progress') return onProgress(reply.progress);
     worker?.terminate();
-    if (reply.type === 'done') settle.resolve({ blob: reply.blob, checksum: reply.checksum, records: reply.records, ranOn });
+    if (reply.type === 'done') settle.resolve({ blob: reply.blob, checksum: reply.checksum, records: reply.records });
     else settle.reject(new BackupJobError(reply.message, reply.code));
   };
   if (worker) {

@@ -1,7 +1,7 @@
 import type { KinnoteStore } from '../store';
 import { streamBackup, type BackupProgress } from '../store/backup-stream';
 
-/** What a streamed backup job sends back, in the worker and on the main thread alike. */
+/** What a streamed backup job posts back from its worker. */
 export type BackupJobReply =
   | { readonly type: 'progress'; readonly progress: BackupProgress }
   | { readonly type: 'done'; readonly blob: Blob; readonly checksum: string; readonly records: number }
