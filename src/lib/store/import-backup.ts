@@ -38,7 +38,7 @@ export async function readBackup(input: string | unknown, options: ReadBackupOpt
     parsed = parseJson(text, 'decrypted backup');
   }
   const bundle = await verifyBundle(parsed, (options.now ?? Date.now)(), text);
-  await checkReferences(bundle.tables, options.outside ?? null, { patientIds: options.knownPatientIds ?? [] });
+  await checkReferences(bundle.tables, options.outside ?? null, { patientIds: options.knownPatientIds ?? [], identitiesOmitted: bundle.header.protectedContent === 'omitted' });
   return bundle;
 }
 

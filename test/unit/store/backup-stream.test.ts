@@ -2,7 +2,7 @@
 // bundle in memory) and against Node's own SHA-256 (node:crypto, outside the project) for the checksum.
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { exportBackupText, readBackup, StoreError } from '../../../src/lib/store';
+import { exportBackupText, importBackup, readBackup, StoreError } from '../../../src/lib/store';
 import { streamBackup } from '../../../src/lib/store/backup-stream';
 import { freshStore, seedPatient, steppingClock } from './store-helpers';
 
@@ -49,6 +49,18 @@ describe('streamed backup', () => {
     expect(bundle.tables.patients).toHaveLength(3);
     expect(bundle.tables.identities.map((r) => r.familyName).sort()).toEqual(['Invented0', 'Invented1', 'Invented2']);
     store.close();
+  });
+
+  it('a backup without names and notes imports into a new device although its audit names identities', async () => {
+    const store = await storeWithRecords(2);
+    const { text } = await streamed(store, 'omit', 3);
+    const fresh = await freshStore();
+    const report = await importBackup(fresh, text);
+    expect(report.counts.patients.inserted).toBe(2);
+    expect(report.counts.identities.inserted).toBe(0);
+    expect((await fresh.db.table('identities').count())).toBe(0);
+    store.close();
+    fresh.close();
   });
 
   it('reports progress page by page up to every record', async () => {
