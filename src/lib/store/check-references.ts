@@ -10,13 +10,15 @@ export type OutsideLookup = (table: TableName, ids: readonly string[]) => Promis
  * assessment and trace, an identity's patient, an audit entry's record, …) resolves to a record of
  * the right table, in the bundle or, through `outside`, in the store. Ids the caller vouches for
  * (`known`, e.g. the patient a phone's programme is for, whose record never reaches the phone) are
- * accepted as patients. Throws StoreError InvalidBundle naming record, field and the missing id;
+ * accepted as patients. With `identitiesOmitted` (a backup without names and notes), references to
+ * identities (the audit entries of a patient's identity) need not resolve: the backup leaves every
+ * identity out by design, so refusing them made such a backup unreadable on a new device. Throws StoreError InvalidBundle naming record, field and the missing id;
  * writes nothing. Cost: one pass over the records and one lookup per table with unresolved ids.
  */
 export async function checkReferences(
   tables: BundleTables,
   outside: OutsideLookup | null,
-  known: { readonly patientIds?: readonly string[] } = {},
+  known: { readonly patientIds?: readonly string[]; readonly identitiesOmitted?: boolean } = {},
 ): Promise<void> {
   const inBundle = new Map<TableName, Set<string>>(TABLE_NAMES.map((t) => [t, new Set(tables[t].map((r) => r.id))]));
   for (const id of known.patientIds ?? []) inBundle.get('patients')!.add(id);
@@ -24,6 +26,7 @@ export async function checkReferences(
   for (const table of TABLE_NAMES) {
     (tables[table] as unknown as Record<string, unknown>[]).forEach((record, i) => {
       for (const ref of referencedIds(table, record, TABLE_NAMES)) {
+        if (ref.target === 'identities' && known.identitiesOmitted === true) continue;
         if (!inBundle.get(ref.target)!.has(ref.id)) pending.push({ where: `tables.${table}[${i}] (${String(record.id)})`, ...ref });
       }
     });

@@ -90,12 +90,35 @@ export function observationRows(db: Dexie): TableRows<Observation> {
       return out;
     },
     all: async () => flat(await t.toArray()),
+    count: async () => {
+      let n = 0;
+      await t.each((block) => {
+        n += block.items.length;
+      });
+      return n;
+    },
+    page: (after, limit) => observationPage(t, after, limit),
     ofPatient: async (patientId) => flat(await t.where('patientIds').equals(patientId).toArray()).filter((o) => o.patientId === patientId),
     changedSince: changed,
     countChangedSince: async (mark) => (await changed(mark)).length,
     add: (rows) => write(t, rows, 'add'),
     put: (rows) => write(t, rows, 'put'),
   };
+}
+
+/** Up to `limit` observations with an id after `after`, in id order: the floor block's tail, then whole blocks above. */
+async function observationPage(t: Table<ObservationBlock, string>, after: string | null, limit: number): Promise<Observation[]> {
+  const out: Observation[] = [];
+  if (limit <= 0) return out;
+  if (after !== null) for (const o of (await floorBlock(t, after))?.items ?? []) if (o.id > after && out.length < limit) out.push(o);
+  let key = after;
+  while (out.length < limit) {
+    const blocks = await (key === null ? t.orderBy(':id') : t.where(':id').above(key)).limit(Math.ceil((limit - out.length) / BLOCK_SIZE) + 1).toArray();
+    if (blocks.length === 0) break;
+    for (const block of blocks) for (const o of block.items) if (out.length < limit) out.push(o);
+    key = blocks[blocks.length - 1]!.id;
+  }
+  return out;
 }
 
 /** The block that holds (or would hold) `id`: the one with the greatest key ≤ id. */

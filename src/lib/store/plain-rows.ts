@@ -16,6 +16,10 @@ export interface TableRows<R extends RecordBase = RecordBase> {
   present(ids: readonly string[]): Promise<Map<string, R>>;
   /** Every row, in id order. */
   all(): Promise<R[]>;
+  /** How many rows (tombstones included). */
+  count(): Promise<number>;
+  /** Up to `limit` rows with an id after `after` (from the first when null), in id order: a table read in pages. */
+  page(after: string | null, limit: number): Promise<R[]>;
   /** The rows of one patient (patient-scoped tables), in id order. */
   ofPatient(patientId: string): Promise<R[]>;
   /** Rows whose updatedAt (createdAt for the append-only audit log) is after `mark`, in no set order. */
@@ -43,6 +47,8 @@ export function plainRows<R extends RecordBase>(t: Table<R, string>, changedFiel
     get: (id) => t.get(id),
     present: (ids) => presentIn(t, ids),
     all: () => t.toArray(),
+    count: () => t.count(),
+    page: (after, limit) => (after === null ? t.orderBy(':id') : t.where(':id').above(after)).limit(limit).toArray(),
     ofPatient: (patientId) => t.where('patientId').equals(patientId).sortBy('id'),
     changedSince: (mark) => changed(mark).toArray(),
     countChangedSince: (mark) => changed(mark).count(),
