@@ -8,6 +8,8 @@ import {
   bytesToBase64,
   createBundle,
   importBackup,
+  moveStampsAheadOfTeamTime,
+  rowsChangedSince,
   readLocalState,
   writeLocalState,
   type BundleTables,
@@ -198,18 +200,6 @@ export function isRevoked(error: unknown): boolean {
 }
 
 /**
- * The rows of `table` stamped after `mark`: through the table's updatedAt index where it has one
- * (the audit log, append-only, through createdAt, its updatedAt); observations lost that index in
- * schema 5 (each index costs a write per record), so there it is one scan of the table.
- */
-export function rowsChangedSince(store: KinnoteStore, table: TableName, mark: string): { toArray(): Promise<unknown[]>; count(): Promise<number> } {
-  const t = store.db.table(table);
-  const field = table === 'audit' ? 'createdAt' : 'updatedAt';
-  if (t.schema.idxByName[field] || t.schema.primKey.name === field) return t.where(field).above(mark);
-  return t.filter((row: Record<string, unknown>) => (row[field] as string) > mark);
-}
-
-/**
  * The rows this device has to push, table by table, and the newest stamp scanned (the next mark).
  * The scan starts MAX_CLOCK_SKEW_MS before the mark: the mark is the newest stamp seen at the last
  * push, and pulled records may carry a teammate's clock up to that much ahead of ours, so a record
@@ -253,12 +243,15 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
   if (!link) throw new TeamSyncError('this device has not joined a team', null);
   const key = await teamKeyOf(store, link);
   // First the time: records pulled below are checked against the team's clock, and edits from here on
-  // are stamped by it. (Records already stamped by a fast clock wait until the server's clock reaches them.)
+  // are stamped by it. Records already stamped by a fast clock are moved onto it below (stamps-ahead.ts).
   const probe: ClockProbe = { device: store.clock.device, offset: null };
   await api(deps, link.serverUrl, link.token, 'GET', '/v1/me', undefined, probe);
   await followServerClock(store, probe);
   let pushed = 0;
   if (link.role !== 'auditor' && key) {
+    // Records stamped by a clock that ran fast before this device knew the team's time would be
+    // refused by the server on every push (stopping the sync): moved onto team time, audited.
+    await moveStampsAheadOfTeamTime(store);
     const pending = await pendingRows(store, link.pushedThrough);
     const changed = await Promise.all(
       pending.rows.map(async ({ table, row, base }) => ({ table, base, record: (await store.context.codecs[table].fromRow(row as never)) as RecordBase })),

@@ -212,6 +212,64 @@ describe('a device whose clock is 25 minutes behind its team (PGlite, in process
   });
 });
 
+describe('a device whose clock ran 2 hours fast before its first sync (PGlite, in process)', () => {
+  it('its earlier records reach the team on team time, content unchanged, and the move is audited', { timeout: 300_000 }, async () => {
+    const db = await openTemplatePglite();
+    await migrate(db);
+    try {
+      const service = new TeamService(db);
+      const app = createApp(service, { enrolLimit: 100 });
+      const deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+      // Tablet B was set up and used with its clock 2 hours fast (±300 ms jitter per reading): its
+      // device, clinician, patient, assessment and observation are all stamped 2 hours ahead.
+      const aheadMs = 2 * 3600_000;
+      const a = await freshStore({ now: () => Date.now() });
+      const b = await freshStore({ now: () => Date.now() + aheadMs + Math.round((Math.random() - 0.5) * 600) });
+      const madeAt = Date.now();
+      const { patient, assessment, observation } = await seedPatient(b);
+      const before = await b.observations.get(observation.id);
+      expect(Date.parse(before!.updatedAt) - madeAt).toBeGreaterThan(aheadMs - 60_000);
+
+      const team = await service.createTeam('Fast clock team');
+      await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+      await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B (fast clock)' }, deps);
+      // Before the fix this sync failed on every try: "… is later than the team server's clock allows".
+      const first = await syncNow(b, deps);
+      expect(first.pushed).toBeGreaterThanOrEqual(5); // device, clinician, patient, assessment, observation (and audit entries)
+      await syncNow(a, deps);
+
+      // A has B's records, stamped when they were made in real time, with their content as written.
+      const onA = await a.observations.get(observation.id);
+      expect(onA).toBeDefined();
+      expect(Math.abs(Date.parse(onA!.updatedAt) - madeAt)).toBeLessThan(60_000);
+      expect(onA!.value).toEqual(before!.value);
+      expect(onA!.takenAt).toBe(before!.takenAt); // the clinical time is not touched
+      expect(await notesOf(a, assessment.id)).toBe('Invented note: stiffer in the cold');
+      expect((await a.patients.get(patient.id))!.code).toBe('K7QM-3XHD');
+      // B holds the same version it pushed (nothing left waiting, nothing listed as a conflict).
+      expect((await b.observations.get(observation.id))!.updatedAt).toBe(onA!.updatedAt);
+      expect((await syncNow(b, deps)).pushed).toBe(0);
+      expect((await readTeamLink(a))!.conflicts).toEqual([]);
+      expect((await readTeamLink(b))!.conflicts).toEqual([]);
+
+      // The move is in B's audit log (and so in A's after the sync): old and new stamps, the offset.
+      for (const store of [b, a]) {
+        const entries = (await store.db.table('audit').toArray()) as { table: string; note: string | null; before: { stamps?: { id: string; updatedAt: string }[] } | null; after: { stamps?: { id: string; updatedAt: string }[]; offsetMs?: number } | null }[];
+        const moves = entries.filter((e) => e.table === '*' && e.after?.stamps !== undefined);
+        expect(moves.length).toBe(1);
+        const was = moves[0]!.before!.stamps!.find((m) => m.id === observation.id);
+        const now = moves[0]!.after!.stamps!.find((m) => m.id === observation.id);
+        expect(was!.updatedAt).toBe(before!.updatedAt);
+        expect(now!.updatedAt).toBe(onA!.updatedAt);
+        expect(Math.abs(moves[0]!.after!.offsetMs! + aheadMs)).toBeLessThan(5000);
+        expect(moves[0]!.note).toMatch(/120 min ahead/);
+      }
+    } finally {
+      await db.close();
+    }
+  });
+});
+
 describe('kinnote cohort --server', () => {
   it('reads the whole team from the server with a device token, and writes no name or note', { timeout: 400_000 }, async () => {
     const { mkdtempSync, readdirSync, readFileSync } = await import('node:fs');
