@@ -1,4 +1,4 @@
-import { MAX_CLOCK_SKEW_MS, TABLE_NAMES, type RecordBase, type TableName } from '../domain';
+import { MAX_CLOCK_SKEW_MS, TABLE_NAMES, type AuditEntry, type RecordBase, type TableName } from '../domain';
 import {
   BUNDLE_FORMAT,
   BUNDLE_FORMAT_VERSION,
@@ -222,6 +222,41 @@ async function pendingRows(store: KinnoteStore, mark: string): Promise<{ rows: {
   return { rows: out, newest };
 }
 
+/**
+ * A device that synced before schema 14 has an empty bases table: without bases, its first sync after
+ * the upgrade would list every record a teammate changed since, and each of its own edits of pulled
+ * records, as conflicts once more. Runs once, on the first sync that finds the table empty after
+ * earlier syncs, and gives a base to each version the server held for certain:
+ * - a row not changed on this device since the last push: written by another device (it came from
+ *   the team, or from a file), or stamped at or before the last push mark (pushed or pulled then);
+ * - a row changed here since: the version its first change started from (the `before` of its audit
+ *   entry), under the same test.
+ * Anything else gets no base and is listed as before. (A record imported here from a backup file
+ * after the last sync, written by another device, would count as the server's and not be pushed: it
+ * was not pushed before either unless stamped after the mark; noted in DEVELOPERS.md.)
+ */
+async function seedBasesAfterUpgrade(store: KinnoteStore, link: TeamLink): Promise<void> {
+  const own = store.actor?.deviceId;
+  if (!own || link.cursor === 0 || (await store.db.table(TEAM_BASES_TABLE).count()) > 0) return;
+  const fromServer = (version: { deviceId?: unknown; updatedAt?: unknown }) =>
+    typeof version.updatedAt === 'string' && (version.deviceId !== own || version.updatedAt <= link.pushedThrough);
+  const audit = store.db.table('audit');
+  for (const table of TABLE_NAMES) {
+    const rows = (await store.db.table(table).toArray()) as RecordBase[];
+    const bases: { key: string; updatedAt: string }[] = [];
+    for (const row of rows) {
+      let version: { deviceId?: unknown; updatedAt?: unknown } = row;
+      if (table !== 'audit' && !fromServer(row)) {
+        const changes = (await audit.where('[table+recordId]').equals([table, row.id]).toArray()) as AuditEntry[];
+        const first = changes.filter((e) => e.deviceId === own && e.createdAt > link.pushedThrough && e.before !== null).sort((x, y) => (x.createdAt < y.createdAt ? -1 : 1))[0];
+        if (first) version = first.before as { deviceId?: unknown; updatedAt?: unknown };
+      }
+      if (fromServer(version)) bases.push({ key: baseKey(table, row.id), updatedAt: version.updatedAt as string });
+    }
+    await writeBases(store, bases);
+  }
+}
+
 /** How many local records wait for the next push (the Team section's quiet status; audit entries not counted). */
 export async function countWaiting(store: KinnoteStore, link: TeamLink): Promise<number> {
   return (await pendingRows(store, link.pushedThrough)).rows.filter((r) => r.table !== 'audit').length;
@@ -247,6 +282,7 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
   const probe: ClockProbe = { device: store.clock.device, offset: null };
   await api(deps, link.serverUrl, link.token, 'GET', '/v1/me', undefined, probe);
   await followServerClock(store, probe);
+  await seedBasesAfterUpgrade(store, link);
   let pushed = 0;
   if (link.role !== 'auditor' && key) {
     // Records stamped by a clock that ran fast before this device knew the team's time would be

@@ -4,6 +4,7 @@ import { createApp, migrate, TeamService, type SqlClient } from '../../../src/se
 import { openTemplatePglite } from '../server/pglite-template';
 import { issueEnrolmentCode, joinTeam, readTeamLink, syncNow, parseEnrolmentCode, unwrapTeamKey, wrapTeamKey, newTeamKey, toWire, fromWire } from '../../../src/lib/sync';
 import { freshStore, seedPatient, steppingClock } from '../store/store-helpers';
+import { TEAM_BASES_TABLE } from '../../../src/lib/store';
 
 const rb = (n: number) => new Uint8Array(randomBytes(n));
 type Store = Awaited<ReturnType<typeof freshStore>>;
@@ -163,6 +164,42 @@ describe('ordinary edits through the team server are no conflicts (PGlite, in pr
     for (const device of [a, b]) {
       const listed = (await readTeamLink(device))!.conflicts.filter((c) => c.recordId === assessment.id);
       expect(listed.length, JSON.stringify(listed)).toBe(2);
+    }
+  });
+});
+
+describe('a device upgraded to schema 14 while in a team (PGlite, in process)', () => {
+  it('lists no conflict for a teammate\'s later edit, nor for its own edit of a pulled record', { timeout: 300_000 }, async () => {
+    const db = await openTemplatePglite();
+    await migrate(db);
+    try {
+      const app = createApp(new TeamService(db), { enrolLimit: 100 });
+      const deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+      const team = await new TeamService(db).createTeam('Upgrade team');
+      const a = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9)) });
+      await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+      const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 30)) });
+      await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B' }, deps);
+      const first = await seedPatient(a);
+      const second = await seedPatient(a, 'QW3E-7RTY');
+      await syncNow(a, deps);
+      await syncNow(b, deps);
+      // B as it is right after the upgrade to schema 14: in the team, synced, and no bases at all.
+      await b.db.table(TEAM_BASES_TABLE).clear();
+      // A edits one assessment; B edits the other (which it had pulled before the upgrade).
+      await a.assessments.update(first.assessment.id, { notes: 'A: after the upgrade' });
+      await syncNow(a, deps);
+      await b.assessments.update(second.assessment.id, { notes: 'B: after the upgrade' });
+      await syncNow(b, deps);
+      await syncNow(a, deps);
+      expect(await notesOf(b, first.assessment.id)).toBe('A: after the upgrade');
+      expect(await notesOf(a, second.assessment.id)).toBe('B: after the upgrade');
+      // Before the fix: B listed A's edit (taken from the team) and the server listed B's edit.
+      expect((await readTeamLink(b))!.conflicts).toEqual([]);
+      expect((await readTeamLink(a))!.conflicts).toEqual([]);
+      expect((await db.query('SELECT 1 FROM conflicts')).length).toBe(0);
+    } finally {
+      await db.close();
     }
   });
 });
