@@ -38,6 +38,7 @@ export { amendAssessment, type AmendedObservation } from './amend-assessment';
 // by their own paths: only the patient page needs them, and the first screen's JavaScript stays within
 // its budget (see DEVELOPERS.md, first-load budget).
 export { readLocalState, writeLocalState } from './local-state';
+export { moveStampsAheadOfTeamTime, rowsChangedSince, type MovedStamp } from './stamps-ahead';
 export {
   PHONE_REANALYSIS_NOTICE,
   REANALYSIS_CHANGED_NOTE,

@@ -1,4 +1,4 @@
-import { MAX_CLOCK_SKEW_MS, TABLE_NAMES, type RecordBase, type TableName } from '../domain';
+import { MAX_CLOCK_SKEW_MS, TABLE_NAMES, type AuditEntry, type RecordBase, type TableName } from '../domain';
 import {
   BUNDLE_FORMAT,
   BUNDLE_FORMAT_VERSION,
@@ -8,6 +8,8 @@ import {
   bytesToBase64,
   createBundle,
   importBackup,
+  moveStampsAheadOfTeamTime,
+  rowsChangedSince,
   readLocalState,
   tableRows,
   writeLocalState,
@@ -199,15 +201,6 @@ export function isRevoked(error: unknown): boolean {
 }
 
 /**
- * The rows of `table` stamped after `mark` (updatedAt; for the append-only audit log, createdAt), read
- * through the store's layout of the table (store/table-rows.ts: an index where there is one).
- */
-export function rowsChangedSince(store: KinnoteStore, table: TableName, mark: string): { toArray(): Promise<unknown[]>; count(): Promise<number> } {
-  const rows = tableRows(store.db, table);
-  return { toArray: () => rows.changedSince(mark), count: () => rows.countChangedSince(mark) };
-}
-
-/**
  * The rows this device has to push, table by table, and the newest stamp scanned (the next mark).
  * The scan starts MAX_CLOCK_SKEW_MS before the mark: the mark is the newest stamp seen at the last
  * push, and pulled records may carry a teammate's clock up to that much ahead of ours, so a record
@@ -228,6 +221,41 @@ async function pendingRows(store: KinnoteStore, mark: string): Promise<{ rows: {
     }
   }
   return { rows: out, newest };
+}
+
+/**
+ * A device that synced before schema 14 has an empty bases table: without bases, its first sync after
+ * the upgrade would list every record a teammate changed since, and each of its own edits of pulled
+ * records, as conflicts once more. Runs once, on the first sync that finds the table empty after
+ * earlier syncs, and gives a base to each version the server held for certain:
+ * - a row not changed on this device since the last push: written by another device (it came from
+ *   the team, or from a file), or stamped at or before the last push mark (pushed or pulled then);
+ * - a row changed here since: the version its first change started from (the `before` of its audit
+ *   entry), under the same test.
+ * Anything else gets no base and is listed as before. (A record imported here from a backup file
+ * after the last sync, written by another device, would count as the server's and not be pushed: it
+ * was not pushed before either unless stamped after the mark; noted in DEVELOPERS.md.)
+ */
+async function seedBasesAfterUpgrade(store: KinnoteStore, link: TeamLink): Promise<void> {
+  const own = store.actor?.deviceId;
+  if (!own || link.cursor === 0 || (await store.db.table(TEAM_BASES_TABLE).count()) > 0) return;
+  const fromServer = (version: { deviceId?: unknown; updatedAt?: unknown }) =>
+    typeof version.updatedAt === 'string' && (version.deviceId !== own || version.updatedAt <= link.pushedThrough);
+  const audit = store.db.table('audit');
+  for (const table of TABLE_NAMES) {
+    const rows = await tableRows(store.db, table).all();
+    const bases: { key: string; updatedAt: string }[] = [];
+    for (const row of rows) {
+      let version: { deviceId?: unknown; updatedAt?: unknown } = row;
+      if (table !== 'audit' && !fromServer(row)) {
+        const changes = (await audit.where('[table+recordId]').equals([table, row.id]).toArray()) as AuditEntry[];
+        const first = changes.filter((e) => e.deviceId === own && e.createdAt > link.pushedThrough && e.before !== null).sort((x, y) => (x.createdAt < y.createdAt ? -1 : 1))[0];
+        if (first) version = first.before as { deviceId?: unknown; updatedAt?: unknown };
+      }
+      if (fromServer(version)) bases.push({ key: baseKey(table, row.id), updatedAt: version.updatedAt as string });
+    }
+    await writeBases(store, bases);
+  }
 }
 
 /** How many local records wait for the next push (the Team section's quiet status; audit entries not counted). */
@@ -251,12 +279,16 @@ export async function syncNow(store: KinnoteStore, deps: SyncDeps): Promise<Sync
   if (!link) throw new TeamSyncError('this device has not joined a team', null);
   const key = await teamKeyOf(store, link);
   // First the time: records pulled below are checked against the team's clock, and edits from here on
-  // are stamped by it. (Records already stamped by a fast clock wait until the server's clock reaches them.)
+  // are stamped by it. Records already stamped by a fast clock are moved onto it below (stamps-ahead.ts).
   const probe: ClockProbe = { device: store.clock.device, offset: null };
   await api(deps, link.serverUrl, link.token, 'GET', '/v1/me', undefined, probe);
   await followServerClock(store, probe);
+  await seedBasesAfterUpgrade(store, link);
   let pushed = 0;
   if (link.role !== 'auditor' && key) {
+    // Records stamped by a clock that ran fast before this device knew the team's time would be
+    // refused by the server on every push (stopping the sync): moved onto team time, audited.
+    await moveStampsAheadOfTeamTime(store);
     const pending = await pendingRows(store, link.pushedThrough);
     const changed = await Promise.all(
       pending.rows.map(async ({ table, row, base }) => ({ table, base, record: (await store.context.codecs[table].fromRow(row as never)) as RecordBase })),

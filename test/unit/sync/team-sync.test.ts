@@ -5,6 +5,7 @@ import { openTemplatePglite } from '../server/pglite-template';
 import { issueEnrolmentCode, joinTeam, readTeamLink, syncNow, parseEnrolmentCode, unwrapTeamKey, wrapTeamKey, newTeamKey, toWire, fromWire } from '../../../src/lib/sync';
 import { freshStore, seedPatient, steppingClock } from '../store/store-helpers';
 import { tableRows } from '../../../src/lib/store/table-rows';
+import { TEAM_BASES_TABLE } from '../../../src/lib/store';
 
 const rb = (n: number) => new Uint8Array(randomBytes(n));
 type Store = Awaited<ReturnType<typeof freshStore>>;
@@ -168,6 +169,42 @@ describe('ordinary edits through the team server are no conflicts (PGlite, in pr
   });
 });
 
+describe('a device upgraded to schema 14 while in a team (PGlite, in process)', () => {
+  it('lists no conflict for a teammate\'s later edit, nor for its own edit of a pulled record', { timeout: 300_000 }, async () => {
+    const db = await openTemplatePglite();
+    await migrate(db);
+    try {
+      const app = createApp(new TeamService(db), { enrolLimit: 100 });
+      const deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+      const team = await new TeamService(db).createTeam('Upgrade team');
+      const a = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9)) });
+      await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+      const b = await freshStore({ now: steppingClock(Date.UTC(2025, 2, 1, 9, 30)) });
+      await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B' }, deps);
+      const first = await seedPatient(a);
+      const second = await seedPatient(a, 'QW3E-7RTY');
+      await syncNow(a, deps);
+      await syncNow(b, deps);
+      // B as it is right after the upgrade to schema 14: in the team, synced, and no bases at all.
+      await b.db.table(TEAM_BASES_TABLE).clear();
+      // A edits one assessment; B edits the other (which it had pulled before the upgrade).
+      await a.assessments.update(first.assessment.id, { notes: 'A: after the upgrade' });
+      await syncNow(a, deps);
+      await b.assessments.update(second.assessment.id, { notes: 'B: after the upgrade' });
+      await syncNow(b, deps);
+      await syncNow(a, deps);
+      expect(await notesOf(b, first.assessment.id)).toBe('A: after the upgrade');
+      expect(await notesOf(a, second.assessment.id)).toBe('B: after the upgrade');
+      // Before the fix: B listed A's edit (taken from the team) and the server listed B's edit.
+      expect((await readTeamLink(b))!.conflicts).toEqual([]);
+      expect((await readTeamLink(a))!.conflicts).toEqual([]);
+      expect((await db.query('SELECT 1 FROM conflicts')).length).toBe(0);
+    } finally {
+      await db.close();
+    }
+  });
+});
+
 describe('a device whose clock is 25 minutes behind its team (PGlite, in process)', () => {
   it('takes its teammates\' records, stamps its own by the server\'s clock, and its edit wins as the later one', { timeout: 300_000 }, async () => {
     const db = await openTemplatePglite();
@@ -207,6 +244,64 @@ describe('a device whose clock is 25 minutes behind its team (PGlite, in process
       expect((await readTeamLink(b))!.conflicts).toEqual([]);
       // The offset is kept on the device: a reopened store stamps by it without the network.
       expect(await b.db.table('meta').get('local:clock-offset')).toMatchObject({ value: b.clock.offsetMs });
+    } finally {
+      await db.close();
+    }
+  });
+});
+
+describe('a device whose clock ran 2 hours fast before its first sync (PGlite, in process)', () => {
+  it('its earlier records reach the team on team time, content unchanged, and the move is audited', { timeout: 300_000 }, async () => {
+    const db = await openTemplatePglite();
+    await migrate(db);
+    try {
+      const service = new TeamService(db);
+      const app = createApp(service, { enrolLimit: 100 });
+      const deps = { randomBytes: rb, fetch: (async (url: string, init?: RequestInit) => app.request(String(url).replace('http://team.test', ''), init)) as typeof fetch };
+      // Tablet B was set up and used with its clock 2 hours fast (±300 ms jitter per reading): its
+      // device, clinician, patient, assessment and observation are all stamped 2 hours ahead.
+      const aheadMs = 2 * 3600_000;
+      const a = await freshStore({ now: () => Date.now() });
+      const b = await freshStore({ now: () => Date.now() + aheadMs + Math.round((Math.random() - 0.5) * 600) });
+      const madeAt = Date.now();
+      const { patient, assessment, observation } = await seedPatient(b);
+      const before = await b.observations.get(observation.id);
+      expect(Date.parse(before!.updatedAt) - madeAt).toBeGreaterThan(aheadMs - 60_000);
+
+      const team = await service.createTeam('Fast clock team');
+      await joinTeam(a, { serverUrl: 'http://team.test', code: team.code, label: 'tablet A' }, deps);
+      await joinTeam(b, { serverUrl: 'http://team.test', code: (await issueEnrolmentCode(a, 'clinician', 600_000, deps)).code, label: 'tablet B (fast clock)' }, deps);
+      // Before the fix this sync failed on every try: "… is later than the team server's clock allows".
+      const first = await syncNow(b, deps);
+      expect(first.pushed).toBeGreaterThanOrEqual(5); // device, clinician, patient, assessment, observation (and audit entries)
+      await syncNow(a, deps);
+
+      // A has B's records, stamped when they were made in real time, with their content as written.
+      const onA = await a.observations.get(observation.id);
+      expect(onA).toBeDefined();
+      expect(Math.abs(Date.parse(onA!.updatedAt) - madeAt)).toBeLessThan(60_000);
+      expect(onA!.value).toEqual(before!.value);
+      expect(onA!.takenAt).toBe(before!.takenAt); // the clinical time is not touched
+      expect(await notesOf(a, assessment.id)).toBe('Invented note: stiffer in the cold');
+      expect((await a.patients.get(patient.id))!.code).toBe('K7QM-3XHD');
+      // B holds the same version it pushed (nothing left waiting, nothing listed as a conflict).
+      expect((await b.observations.get(observation.id))!.updatedAt).toBe(onA!.updatedAt);
+      expect((await syncNow(b, deps)).pushed).toBe(0);
+      expect((await readTeamLink(a))!.conflicts).toEqual([]);
+      expect((await readTeamLink(b))!.conflicts).toEqual([]);
+
+      // The move is in B's audit log (and so in A's after the sync): old and new stamps, the offset.
+      for (const store of [b, a]) {
+        const entries = (await store.db.table('audit').toArray()) as { table: string; note: string | null; before: { stamps?: { id: string; updatedAt: string }[] } | null; after: { stamps?: { id: string; updatedAt: string }[]; offsetMs?: number } | null }[];
+        const moves = entries.filter((e) => e.table === '*' && e.after?.stamps !== undefined);
+        expect(moves.length).toBe(1);
+        const was = moves[0]!.before!.stamps!.find((m) => m.id === observation.id);
+        const now = moves[0]!.after!.stamps!.find((m) => m.id === observation.id);
+        expect(was!.updatedAt).toBe(before!.updatedAt);
+        expect(now!.updatedAt).toBe(onA!.updatedAt);
+        expect(Math.abs(moves[0]!.after!.offsetMs! + aheadMs)).toBeLessThan(5000);
+        expect(moves[0]!.note).toMatch(/120 min ahead/);
+      }
     } finally {
       await db.close();
     }
