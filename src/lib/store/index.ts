@@ -74,3 +74,6 @@ export {
   replaceProgrammePhotos,
   type ExercisePhotoRow,
 } from './exercise-photos';
+export { amendEvent } from './amend-event';
+export { type AmendedField, type Amendment, amendmentsOf } from './amendments';
+export { demoBundle } from './demo-caseload';

@@ -1,7 +1,6 @@
 import type { Observation } from '$lib/domain';
 import { latestVerdicts, mdcSourceLine, seriesKey, type ChangeVerdict, type LocalMdc } from '$lib/stats';
-import type { ObservationDraft } from '$lib/ui/assessment-draft';
-import { describeValue } from '$lib/ui/visit-protocol';
+import { type ObservationDraft, describeValue } from '$lib/ui';
 
 /** One test of the visit as the review before saving shows it: last time → today, and the verdict. */
 export interface ReviewRow {
