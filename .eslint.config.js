@@ -5,7 +5,9 @@ import svelte from 'eslint-plugin-svelte';
 import globals from 'globals';
 import svelteConfig from './svelte.config.js';
 import { kinnotePlugin } from './eslint/doors-rule.js';
+import { diagramLayers } from './eslint/layers.js';
 
+const layerArrows = Object.fromEntries([...diagramLayers().arrows].map(([part, targets]) => [part, [...targets]]));
 const core = ['domain', 'pendulum', 'stats', 'export', 'demo'];
 const browserGlobals = [
   'window', 'document', 'navigator', 'localStorage', 'sessionStorage', 'indexedDB', 'location',
@@ -37,6 +39,7 @@ export default ts.config(
       'kinnote/doors': [
         'error',
         {
+          arrows: layerArrows,
           onDemand: [
             'store/demo-caseload',
             'store/phone-reanalysis-run',

@@ -31,6 +31,8 @@ export const doorsRule = {
           // Modules that a dynamic import() may load by their own path (code loaded on demand, kept out of the
           // first screen's chunks), written 'folder/file' without extension.
           onDemand: { type: 'array', items: { type: 'string' } },
+          // The layer diagram's arrows (eslint/layers.js reads them from DEVELOPERS.md): part -> parts it may import.
+          arrows: { type: 'object', additionalProperties: { type: 'array', items: { type: 'string' } } },
         },
         additionalProperties: false,
       },
@@ -40,6 +42,8 @@ export const doorsRule = {
         "'{{spec}}' goes past the door of src/lib/{{folder}}: import from '{{door}}' (add the name to src/lib/{{folder}}/index.ts if it is not exported there).",
       pastDoorDynamic:
         "import('{{spec}}') goes past the door of src/lib/{{folder}}: load '{{door}}', or list '{{folder}}/{{inner}}' as on demand in .eslint.config.js (kinnote/doors) and DEVELOPERS.md.",
+      noArrow:
+        "src/{{fromPath}} may not import src/lib/{{folder}}: the layer diagram in DEVELOPERS.md has no arrow {{from}} -> {{folder}} (add it there only if it points down a layer).",
       ownDoor: "'{{spec}}' is in this file's own folder (src/lib/{{folder}}): import it by a relative path ('./…'), never through $lib.",
     },
   },
@@ -48,6 +52,8 @@ export const doorsRule = {
     const from = partOf(file);
     if (from === null) return {};
     const onDemand = new Set(context.options[0]?.onDemand ?? []);
+    /** @type {Record<string, string[]> | undefined} */
+    const arrows = context.options[0]?.arrows;
     const inLib = !path.relative(LIB, file).startsWith('..');
 
     /**
@@ -62,6 +68,11 @@ export const doorsRule = {
       const data = { spec, folder: land.folder, inner: stripExtension(land.inner), door: doorSpec(file, land.folder) };
       if (inLib && land.folder === from) {
         if (land.viaLib) context.report({ node: sourceNode, messageId: 'ownDoor', data });
+        return;
+      }
+      if (arrows !== undefined && from !== null && !(arrows[from] ?? []).includes(land.folder)) {
+        const fromPath = from === 'routes' || from === 'cli' || from === 'server' ? from : `lib/${from}`;
+        context.report({ node: sourceNode, messageId: 'noArrow', data: { ...data, from, fromPath } });
         return;
       }
       if (land.door) return;

@@ -12,6 +12,7 @@ const at = (file: string) => path.join(ROOT, file);
 
 tester.run('kinnote/doors', doorsRule, {
   valid: [
+    { filename: at('src/lib/stats/change.ts'), code: "import { a } from '../domain';", options: [{ arrows: { stats: ['domain'] } }] },
     { filename: at('src/routes/patients/+page.ts'), code: "import { openStore } from '$lib/store';" },
     { filename: at('src/routes/x.ts'), code: "import { a } from '$lib/store/index';" },
     { filename: at('src/lib/ui/session.svelte.ts'), code: "import { openStore } from '$lib/store'; import { x } from './local';" },
@@ -27,6 +28,12 @@ tester.run('kinnote/doors', doorsRule, {
     { filename: at('test/unit/store/drafts.test.ts'), code: "import { draftId } from '../../../src/lib/store/drafts';" },
   ],
   invalid: [
+    {
+      filename: at('src/lib/stats/change.ts'),
+      code: "import { openStore } from '$lib/store';",
+      options: [{ arrows: { stats: ['domain'] } }],
+      errors: [{ message: 'src/lib/stats may not import src/lib/store: the layer diagram in DEVELOPERS.md has no arrow stats -> store (add it there only if it points down a layer).' }],
+    },
     {
       filename: at('src/routes/patients/+page.ts'),
       code: "import { openStore } from '$lib/store/open-store';",
