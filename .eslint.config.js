@@ -4,7 +4,10 @@ import ts from 'typescript-eslint';
 import svelte from 'eslint-plugin-svelte';
 import globals from 'globals';
 import svelteConfig from './svelte.config.js';
+import { kinnotePlugin } from './eslint/doors-rule.js';
+import { diagramLayers } from './eslint/layers.js';
 
+const layerArrows = Object.fromEntries([...diagramLayers().arrows].map(([part, targets]) => [part, [...targets]]));
 const core = ['domain', 'pendulum', 'stats', 'export', 'demo'];
 const browserGlobals = [
   'window', 'document', 'navigator', 'localStorage', 'sessionStorage', 'indexedDB', 'location',
@@ -25,6 +28,31 @@ export default ts.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       // The app is served from the root with no base path, so plain hrefs are already resolved.
       'svelte/no-navigation-without-resolve': 'off',
+    },
+  },
+  {
+    // Doors (DEVELOPERS.md): another folder of src/lib is entered only through its index.ts. onDemand: the modules a
+    // dynamic import() loads by their own path, so that they stay out of the chunks of the pages that import the door.
+    files: ['src/**/*.ts', 'src/**/*.js', 'src/**/*.svelte'],
+    plugins: { kinnote: kinnotePlugin },
+    rules: {
+      'kinnote/doors': [
+        'error',
+        {
+          arrows: layerArrows,
+          onDemand: [
+            'store/demo-caseload',
+            'store/phone-reanalysis-run',
+            'export/referral-report-pdf',
+            'ui/team/team-sync.svelte',
+            'ui/UnlockPanel.svelte',
+            'ui/ReanalysisNotice.svelte',
+            'ui/SetupDevice.svelte',
+            'ui/programme/paint-drawing',
+            'workers/backup-stream-client',
+          ],
+        },
+      ],
     },
   },
   {

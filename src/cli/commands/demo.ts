@@ -1,7 +1,6 @@
 import { resolve } from 'node:path';
 import { DEMO_DEFAULT_END_DATE } from '../../lib/demo';
-import { serializeBundle } from '../../lib/store';
-import { demoBundle } from '../../lib/store/demo-caseload';
+import { serializeBundle, demoBundle } from '../../lib/store';
 import { optionDate, parseOptions, RefusedInput, type CliCommand } from '../command';
 import { writeOutputFile } from '../output-file';
 

@@ -1,7 +1,7 @@
 import { createServer } from 'node:http';
 import { readFile, stat } from 'node:fs/promises';
 import { extname, join, normalize, resolve, sep } from 'node:path';
-import { cspDirectives, cspHeaderValue, teamServerOrigin } from '../../lib/security/content-security-policy.js';
+import { cspDirectives, cspHeaderValue, teamServerOrigin } from '../../lib/security';
 import { optionWholeNumber, parseOptions, RefusedInput, type CliCommand } from '../command';
 
 const contentTypes: Readonly<Record<string, string>> = {

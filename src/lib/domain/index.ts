@@ -84,5 +84,4 @@ export {
   type PhotoEncodingAttempt,
   type PhotoType,
 } from './exercise-photo';
-// Visit templates (visit-templates.ts) are imported by their own path: only the visit form uses them,
-// and this door is on the first screen.
+export { VISIT_TEMPLATES, templateTests, type VisitTemplate } from './visit-templates';

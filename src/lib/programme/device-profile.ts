@@ -1,7 +1,5 @@
 import * as v from 'valibot';
-import { readLocalState, writeLocalState } from '../store/local-state';
-import type { KinnoteStore } from '../store/open-store';
-import { StoreError } from '../store/store-error';
+import { readLocalState, writeLocalState, type KinnoteStore, StoreError } from '../store';
 
 // What this device is for, read by the first screen: kept apart from receiving programmes
 // (patient-device.ts), which pulls in the store's import, so the first load stays small.

@@ -14,3 +14,4 @@ export {
 export { pendulumObservations } from '../pendulum';
 export { DERIVED_ANGLE_CHANNEL, PHONE_MOTION_CHANNELS, romObservation, motionTraceChannels } from './sensor-records';
 export { reanalyseSavedRecording, type AddedValue, type ReanalysedValue, type ReanalysisOutcome } from './reanalyse-saved-recording';
+export { fileStamp } from './ui/file-stamp';

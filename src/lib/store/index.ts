@@ -29,14 +29,11 @@ export { exportBackup, exportBackupText, type ExportOptions } from './export-bac
 export { importBackup, readBackup, type MergeConflict, type MergeReport, type ReadBackupOptions, type TableCounts } from './import-backup';
 export { checkReferences, type OutsideLookup } from './check-references';
 export { requestPersistentStorage, storageUsage, type StorageManagerLike } from './storage-estimate';
-// demo-caseload.ts is imported by its own path (not re-exported here), so the demo generator stays
+// demo-caseload.ts is loaded on demand by its own path (not re-exported here: lint's onDemand list), so the demo generator stays
 // out of the first screen's JavaScript: see DEVELOPERS.md, first-load budget.
 export { CASELOAD_SUMMARIES_TABLE, type CaseloadPatient, type CaseloadSummaryRow } from './caseload-summaries';
 export { saveAssessment, type AssessmentObservationInput, type AssessmentTraceInput } from './save-assessment';
 export { amendAssessment, type AmendedObservation } from './amend-assessment';
-// amend-event.ts and amendments.ts (amending events, the amended mark read from the audit) are imported
-// by their own paths: only the patient page needs them, and the first screen's JavaScript stays within
-// its budget (see DEVELOPERS.md, first-load budget).
 export { readLocalState, writeLocalState } from './local-state';
 export { moveStampsAheadOfTeamTime, rowsChangedSince, type MovedStamp } from './stamps-ahead';
 export {
@@ -76,3 +73,7 @@ export {
   replaceProgrammePhotos,
   type ExercisePhotoRow,
 } from './exercise-photos';
+export { amendEvent } from './amend-event';
+export { type AmendedField, type Amendment, amendmentsOf } from './amendments';
+export { demoBundle } from './demo-caseload';
+export { streamBackup, type BackupProgress } from './backup-stream';

@@ -1,13 +1,7 @@
 // Imported by their own paths, not through the folder doors: the first screen loads this module, and a
 // door would bring every module behind it into the first load (budget, DEVELOPERS.md).
-import { moveLegacyDrafts } from '$lib/store/drafts';
-import { openStore, type KinnoteStore } from '$lib/store/open-store';
-import { dismissPhoneReanalysisNotice, phoneReanalysisPending, readPhoneReanalysisNotice, type PhoneReanalysisNotice } from '$lib/store/phone-reanalysis';
-import { CHANGED_ELSEWHERE } from '$lib/store/repository';
-import type { Actor } from '$lib/store/store-context';
-import { StoreError } from '$lib/store/store-error';
-import type { VaultStatus } from '$lib/store/vault';
-import { readDeviceProfile } from '$lib/programme/device-profile';
+import { moveLegacyDrafts, openStore, type KinnoteStore, dismissPhoneReanalysisNotice, phoneReanalysisPending, readPhoneReanalysisNotice, type PhoneReanalysisNotice, CHANGED_ELSEWHERE, type Actor, StoreError, type VaultStatus } from '$lib/store';
+import { readDeviceProfile } from '$lib/programme';
 
 /** What went wrong, for a person: the store's own message, or a plain one. */
 export function describeError(error: unknown): string {

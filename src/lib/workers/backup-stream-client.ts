@@ -1,5 +1,4 @@
-import type { KinnoteStore } from '../store';
-import type { BackupProgress } from '../store/backup-stream';
+import type { BackupProgress, KinnoteStore } from '../store';
 import type { BackupJobReply } from './backup-stream-job';
 
 export interface StreamedBackupJob {

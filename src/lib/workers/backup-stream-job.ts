@@ -1,5 +1,4 @@
-import type { KinnoteStore } from '../store';
-import { streamBackup, type BackupProgress } from '../store/backup-stream';
+import { streamBackup, type BackupProgress, type KinnoteStore } from '../store';
 
 /** What a streamed backup job posts back from its worker. */
 export type BackupJobReply =

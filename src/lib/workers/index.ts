@@ -13,3 +13,4 @@ export {
   type CohortExportResult,
   type PlainGroupSummary,
 } from './cohort-export-protocol';
+export type { StreamedBackupJob } from './backup-stream-client';

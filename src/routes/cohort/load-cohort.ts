@@ -1,7 +1,6 @@
 import type { Assessment, ClinicalEvent, Clinician, Observation, Patient } from '$lib/domain';
 import type { CohortRecords, LocalMdc } from '$lib/export';
-import { localMdcList } from '$lib/ui/local-mdc';
-import { session } from '$lib/ui/session.svelte';
+import { localMdcList, session } from '$lib/ui';
 
 /**
  * The cohort page's loader: every patient, event, assessment, observation and clinician on the device,

@@ -1,6 +1,6 @@
 // The caseload's named loaders: rows (first screen from an index, then everyone) and first names.
 import type { KinnoteStore } from '$lib/store';
-import { caseloadRows, type CaseloadRow } from '$lib/ui/caseload-summary';
+import { caseloadRows, type CaseloadRow } from '$lib/ui';
 
 /** Rows of the first screen, read from an index before the whole caseload. */
 export const FIRST_SCREEN_ROWS = 40;

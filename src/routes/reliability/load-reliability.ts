@@ -1,5 +1,5 @@
 import type { Clinician, ReliabilityStudy } from '$lib/domain';
-import { session } from '$lib/ui/session.svelte';
+import { session } from '$lib/ui';
 
 /** The reliability page's loader: the studies on this device (free text left sealed) and the clinicians who may be raters. */
 export async function loadReliability(): Promise<{ studies: ReliabilityStudy[]; clinicians: Clinician[] }> {

@@ -1,7 +1,6 @@
 // By their own paths: the first screen loads these messages, and the folder's door would bring the
 // whole programme folder (and the store's import) into the first load.
-import { durationWords, type DosePart } from '$lib/programme/dose-parts';
-import { PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from '$lib/programme/patient-language';
+import { durationWords, type DosePart, PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from '$lib/programme';
 
 /**
  * Every word a patient reads on their own phone, in each language the phone speaks. English is the

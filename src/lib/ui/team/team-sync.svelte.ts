@@ -1,5 +1,5 @@
 import { liveQuery, type KinnoteStore } from '$lib/store';
-import { explainBlockedTeamServer, pagePolicy } from '$lib/security/team-server-reach';
+import { explainBlockedTeamServer, pagePolicy } from '$lib/security';
 import { countWaiting, isRevoked, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
 
 /** How soon after a save the changes go to the team (a burst of saves makes one sync). */

@@ -1,7 +1,6 @@
 // The event form's values: one shape for adding an intervention and for amending a saved one.
 import { EVENT_KIND_LABELS, type ClinicalEvent, type EventKind } from '$lib/domain';
-import type { Input } from '$lib/store';
-import type { AmendedField } from '$lib/store/amendments';
+import type { Input, AmendedField } from '$lib/store';
 
 export interface EventFormValues {
   kind: EventKind;

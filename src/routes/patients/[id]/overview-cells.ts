@@ -2,7 +2,7 @@
 import type { ProgressChartInput } from '$lib/charts';
 import { EVENT_KIND_LABELS, type ClinicalEvent } from '$lib/domain';
 import type { OutcomeSeries } from '$lib/stats';
-import type { OverviewGroup } from '$lib/ui/overview-groups';
+import type { OverviewGroup } from '$lib/ui';
 
 export interface OverviewCell {
   readonly text: string;

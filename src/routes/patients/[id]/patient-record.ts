@@ -2,7 +2,7 @@
 import type { Assessment, ClinicalEvent, Identity, Observation, Patient } from '$lib/domain';
 import type { KinnoteStore } from '$lib/store';
 import type { LocalMdc } from '$lib/stats';
-import { localMdcList } from '$lib/ui/local-mdc';
+import { localMdcList } from '$lib/ui';
 
 /** What both pages read of one patient: live records only, protected text left out (readable while locked). */
 export interface PatientRecord {

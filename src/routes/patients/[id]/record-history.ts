@@ -1,6 +1,5 @@
 // The patient page's second loader: what the lists of visits and events show beside each record.
-import type { KinnoteStore } from '$lib/store';
-import { amendmentsOf, type Amendment } from '$lib/store/amendments';
+import { type KinnoteStore, amendmentsOf, type Amendment } from '$lib/store';
 
 export interface RecordHistory {
   /** Saved pendulum recordings by the visit that holds them (ids only; the samples stay in the store). */

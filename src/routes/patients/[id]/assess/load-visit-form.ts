@@ -1,8 +1,6 @@
 import type { Assessment, Observation, Patient } from '$lib/domain';
-import { readLocalState, type KinnoteStore } from '$lib/store';
-import { amendmentsOf } from '$lib/store/amendments';
-import { emptyDraft, type AssessmentDraft } from '$lib/ui/assessment-draft';
-import { chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, protocolStateKey, type KeptProtocol } from '$lib/ui/visit-protocol';
+import { readLocalState, type KinnoteStore, amendmentsOf } from '$lib/store';
+import { emptyDraft, type AssessmentDraft, chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, protocolStateKey, type KeptProtocol } from '$lib/ui';
 
 export interface VisitFormStart {
   readonly lastBySeries: Map<string, Observation>;

@@ -1,7 +1,5 @@
 import { amendAssessment, saveAssessment, writeLocalState, type KinnoteStore } from '$lib/store';
-import { draftConditions, type AssessmentDraft, type ObservationDraft } from '$lib/ui/assessment-draft';
-import { protocolFromDraft, protocolStateKey, VISIT_FORM_MEASURES, type KeptProtocol } from '$lib/ui/visit-protocol';
-import { readingSaveInputs, type VisitReading } from '$lib/ui/visit-readings';
+import { draftConditions, type AssessmentDraft, type ObservationDraft, protocolFromDraft, protocolStateKey, VISIT_FORM_MEASURES, type KeptProtocol, readingSaveInputs, type VisitReading } from '$lib/ui';
 
 /**
  * Saves a new visit: the form's observations and the instrument readings taken in it, with their

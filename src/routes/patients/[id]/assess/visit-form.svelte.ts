@@ -1,9 +1,7 @@
 import { tick } from 'svelte';
 import { findMeasure, findSite, type Observation } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
-import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue } from '$lib/ui/assessment-draft';
-import { repeatedReadings, type UnreadableReading, type VisitReading } from '$lib/ui/visit-readings';
-import { missingReadings } from '$lib/ui/visit-protocol';
+import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue, repeatedReadings, type UnreadableReading, type VisitReading, missingReadings } from '$lib/ui';
 import { lastTimeText, localNow } from './visit-words';
 
 

@@ -1,4 +1,4 @@
-import type { DraftIssue } from '$lib/ui/assessment-draft';
+import type { DraftIssue } from '$lib/ui';
 import { siteName, type VisitForm } from './visit-form.svelte';
 
 // Every issue names its field and links to it: "rom.2.angleDeg" → the element with id "rom-2-angleDeg",

@@ -1,8 +1,6 @@
 import type { Observation } from '$lib/domain';
 import { latestVerdicts, mdcSourceLine, seriesKey, type ChangeVerdict, type LocalMdc } from '$lib/stats';
-import type { ObservationDraft } from '$lib/ui/assessment-draft';
-import { describeValue, PENDULUM_PRIMARY } from '$lib/ui/visit-protocol';
-import type { VisitReading } from '$lib/ui/visit-readings';
+import { type ObservationDraft, describeValue, PENDULUM_PRIMARY, type VisitReading } from '$lib/ui';
 
 /**
  * One value per instrument reading for the review (compared with last time like a form row): a

@@ -1,6 +1,5 @@
-import { findMeasure, findSite, type Observation } from '$lib/domain';
-import type { VisitTemplate } from '$lib/domain/visit-templates';
-import { describeValue } from '$lib/ui/visit-protocol';
+import { findMeasure, findSite, type Observation, type VisitTemplate } from '$lib/domain';
+import { describeValue } from '$lib/ui';
 
 /** Local date-time as the form's date and time fields hold it, e.g. "2026-12-01T09:30". */
 export function localNow(): string {

@@ -1,6 +1,6 @@
 import type { Trace } from '$lib/domain';
 import { analysePendulumTrace, pendulumInputFromTrace, type PendulumAnalysis } from '$lib/pendulum';
-import { describeError, session } from '$lib/ui/session.svelte';
+import { describeError, session } from '$lib/ui';
 
 /** Reads one saved pendulum trace of this patient and analyses its samples again; an error in words otherwise. */
 export async function loadSavedSwing(patientId: string, traceId: string, formatDate: (iso: string) => string): Promise<{ analysis: PendulumAnalysis; startedAt: string } | { error: string }> {

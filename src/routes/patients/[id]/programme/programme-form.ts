@@ -1,6 +1,6 @@
 import type { ExerciseDose } from '$lib/domain';
 import type { ExercisePlan } from '$lib/programme';
-import { THERAPIST_MESSAGES as m } from '$lib/ui/programme/therapist-messages';
+import { THERAPIST_MESSAGES as m } from '$lib/ui';
 
 /** One exercise as the form holds it: every field as typed. */
 export interface ExerciseForm {

@@ -2,8 +2,7 @@ import type { AdherenceEntry, Assessment, ClinicalEvent, Clinician, Observation,
 import { defaultReportEvent } from '$lib/export';
 import { adherenceByWeek, type RecordedWeek } from '$lib/programme';
 import type { LocalMdc } from '$lib/stats';
-import { localMdcList } from '$lib/ui/local-mdc';
-import { session } from '$lib/ui/session.svelte';
+import { localMdcList, session } from '$lib/ui';
 
 /** What the referral report is made from: one patient's records as this device holds them. */
 export interface ReportSources {

@@ -1,5 +1,5 @@
 import type { ReferralReport } from '$lib/export';
-import { shareOrDownloadFile, type ShareOutcome } from '$lib/ui/share-or-download';
+import { shareOrDownloadFile, type ShareOutcome } from '$lib/ui';
 
 export interface SharedReport {
   readonly outcome: ShareOutcome;
