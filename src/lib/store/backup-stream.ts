@@ -1,12 +1,12 @@
 import { sha256 } from '@noble/hashes/sha2.js';
 import { bytesToHex } from '@noble/hashes/utils.js';
 import { TABLE_NAMES, type TableName } from '../domain';
-import { BUNDLE_FORMAT, BUNDLE_FORMAT_VERSION, toPortable, type BundleHeader } from './backup-bundle';
+import { toPortable } from './backup-bundle';
 import { sortPhotos, toPortablePhoto } from './backup-photos';
 import { canonicalJson } from './canonical-json';
 import { EXERCISE_PHOTOS_TABLE, type ExercisePhotoRow } from './exercise-photos';
+import { backupHeader } from './export-backup';
 import type { KinnoteStore } from './open-store';
-import { LATEST_SCHEMA_VERSION } from './schema';
 import { StoreError, toStoreError } from './store-error';
 import { tableRows } from './table-rows';
 
@@ -64,16 +64,7 @@ export async function streamBackup(store: KinnoteStore, options: StreamBackupOpt
     if (options.signal?.aborted) throw new StoreError('Aborted', 'backup cancelled; the store was only read and is unchanged');
   };
   const { auditBefore, total, photos } = await startSnapshot(store);
-  const header: BundleHeader = {
-    format: BUNDLE_FORMAT,
-    formatVersion: BUNDLE_FORMAT_VERSION,
-    schemaVersion: LATEST_SCHEMA_VERSION,
-    exportedAt: new Date(store.context.now()).toISOString(),
-    exportedBy: store.actor,
-    source: options.source ?? 'export',
-    scope: { kind: 'all' },
-    protectedContent: include ? 'included' : 'omitted',
-  };
+  const header = backupHeader(store, options.source ?? 'export', { kind: 'all' }, include);
   // Keys sorted: every header member and "photos" come before "tables".
   const headText = canonicalJson({ ...header, photos });
   hash.update(encoder.encode('{'));

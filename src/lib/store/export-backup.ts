@@ -1,5 +1,5 @@
 import { TABLE_NAMES, type RandomBytes, type TableName } from '../domain';
-import { BUNDLE_FORMAT, BUNDLE_FORMAT_VERSION, createBundle, emptyTables, serializeBundle, type BackupBundle, type BundleScope, type BundleTables } from './backup-bundle';
+import { BUNDLE_FORMAT, BUNDLE_FORMAT_VERSION, createBundle, emptyTables, serializeBundle, type BackupBundle, type BundleHeader, type BundleScope, type BundleTables } from './backup-bundle';
 import { cryptoRandomBytes } from './crypto-box';
 import { EXERCISE_PHOTOS_TABLE, type ExercisePhotoRow } from './exercise-photos';
 import { encryptBundleText } from './encrypted-bundle';
@@ -69,16 +69,21 @@ export async function exportBackup(store: KinnoteStore, options: ExportOptions):
       }
     }
   }
-  return createBundle(tables as Partial<BundleTables>, {
+  return createBundle(tables as Partial<BundleTables>, backupHeader(store, options.source ?? 'export', scope, include), photos);
+}
+
+/** The header of a backup this device writes now (the whole-store exporter's and the streamed backup's). */
+export function backupHeader(store: KinnoteStore, source: BundleHeader['source'], scope: BundleScope, include: boolean): BundleHeader {
+  return {
     format: BUNDLE_FORMAT,
     formatVersion: BUNDLE_FORMAT_VERSION,
     schemaVersion: LATEST_SCHEMA_VERSION,
     exportedAt: new Date(store.context.now()).toISOString(),
     exportedBy: store.actor,
-    source: options.source ?? 'export',
+    source,
     scope,
     protectedContent: include ? 'included' : 'omitted',
-  }, photos);
+  };
 }
 
 /**
