@@ -94,7 +94,8 @@ export async function pixelsNear(page: Page, selector: string, rgb: [number, num
 
 /**
  * Every row of one IndexedDB table of the app's database, read in the page (e.g. "drafts"). Stored
- * values that pack several records (observations since schema 16: `items`) are unpacked.
+ * observations are packed several to a value since schema 16 (`items`): they are unpacked. Only that
+ * table: other records may have an `items` field of their own (a home programme's exercises).
  */
 export async function tableRows<T = Record<string, unknown>>(page: Page, table: string): Promise<T[]> {
   return page.evaluate(
@@ -113,7 +114,7 @@ export async function tableRows<T = Record<string, unknown>>(page: Page, table: 
           request.onsuccess = () => {
             db.close();
             const values = request.result as { items?: unknown }[];
-            resolve(values.flatMap((v) => (Array.isArray(v.items) ? v.items : [v])) as T[]);
+            resolve(values.flatMap((v) => (name === 'observations' && Array.isArray(v.items) ? v.items : [v])) as T[]);
           };
           request.onerror = () => reject(request.error);
         };
