@@ -8,16 +8,9 @@ import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
 import Papa from 'papaparse';
 import type { Assessment, Clinician, Observation, Patient } from '../../src/lib/domain';
-import {
-  buildCohortIndex,
-  countCohort,
-  longCsvChunks,
-  longCsvHeader,
-  prepareDisclosure,
-  selectCohort,
-  type CohortRecords,
-  type DisclosurePlan,
-} from '../../src/lib/export';
+import { buildCohortIndex, countCohort, selectCohort, type CohortRecords } from '../../src/lib/export';
+import { longCsvChunks, longCsvHeader } from '../../src/lib/export/long-csv';
+import { prepareDisclosure, type DisclosurePlan } from '../../src/lib/export/prepare-disclosure';
 
 const OBSERVATIONS = 1_000_000;
 const PATIENTS = 5_000;

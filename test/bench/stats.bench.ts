@@ -4,19 +4,13 @@
 // median (and simple-statistics' median) for the Theil–Sen median step, on the same series.
 import jStat from 'jstat';
 import { linearRegression, median as ssMedian } from 'simple-statistics';
-import {
-  changeVerdict,
-  mannKendallInto,
-  mannKendallScratchLength,
-  normalCdf,
-  olsTrendInto,
-  selectBaseline,
-  selectInPlace,
-  theilSenInto,
-  theilSenScratchLength,
-  type ChangeVerdictInput,
-  type MeasureScale,
-} from '../../src/lib/stats';
+import { changeVerdict, selectInPlace } from '../../src/lib/stats';
+import { mannKendallInto, mannKendallScratchLength } from '../../src/lib/stats/mann-kendall';
+import { normalCdf } from '../../src/lib/stats/normal-distribution';
+import { olsTrendInto } from '../../src/lib/stats/ols-trend';
+import { selectBaseline } from '../../src/lib/stats/select-baseline';
+import { theilSenInto, theilSenScratchLength } from '../../src/lib/stats/theil-sen';
+import { type ChangeVerdictInput, type MeasureScale } from '../../src/lib/stats/change-verdict';
 import { formatMs, medianOfSorted, timeRuns } from './timing';
 import { mulberry32 } from '../support/seeded-random';
 

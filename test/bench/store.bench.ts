@@ -4,7 +4,8 @@
 import { performance } from 'node:perf_hooks';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { ordinalValue, type RecordInput, type Observation } from '../../src/lib/domain';
-import { exportBackup, importBackup, openStore, readBackup, serializeBundle } from '../../src/lib/store';
+import { importBackup, openStore, readBackup, serializeBundle } from '../../src/lib/store';
+import { exportBackup } from '../../src/lib/store/export-backup';
 
 // STORE_BENCH_OBSERVATIONS: a smaller size on a loaded machine (the size is printed with each figure).
 const TOTAL = Number(process.env.STORE_BENCH_OBSERVATIONS ?? 100_000);

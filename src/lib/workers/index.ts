@@ -4,13 +4,7 @@ export type { PendulumResult } from './pendulum-protocol';
 export { startCohortExport } from './cohort-export-client';
 export {
   CohortExportFailure,
-  type CohortDisclosureRequest,
-  type CohortExportCallbacks,
   type CohortExportFileResult,
   type CohortExportJob,
-  type CohortExportPrepared,
-  type CohortExportRequest,
-  type CohortExportResult,
-  type PlainGroupSummary,
 } from './cohort-export-protocol';
 export type { StreamedBackupJob } from './backup-stream-client';

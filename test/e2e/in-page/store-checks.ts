@@ -2,7 +2,9 @@
 // test/e2e/bundle-for-page.ts and driven by test/e2e/store.e2e.ts and the Chromium bench.
 import Dexie from 'dexie';
 import { ordinalValue, validateRecord } from '../../../src/lib/domain';
-import { canonicalJson, declareSchema, exportBackupText, importBackup, openStore, sha256Hex, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { canonicalJson, exportBackupText, importBackup, openStore, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { declareSchema } from '../../../src/lib/store/schema';
+import { sha256Hex } from '../../../src/lib/store/crypto-box';
 import { auditSnapshot } from '../../../src/lib/store/rows';
 import { tableRows } from '../../../src/lib/store/table-rows';
 import { adoptedLocalMdc, caseloadSummary } from '../../../src/lib/stats';

@@ -12,8 +12,10 @@
 // - JSON format page: no null values, no empty objects, arrays or strings: MEMORY.
 // - UCUM (unitsofmeasure.org): "deg" is the code for the plane-angle degree, "1" for unity: MEMORY.
 import { describe, expect, it } from 'vitest';
-import { generateDemoScenario, SeededRandom } from '../../../src/lib/demo';
-import { buildCohortIndex, collectText, prepareCohortExport, type Disclosure } from '../../../src/lib/export';
+import { generateDemoScenario } from '../../../src/lib/demo';
+import { SeededRandom } from '../../../src/lib/demo/seeded-random';
+import { buildCohortIndex, prepareCohortExport, type Disclosure } from '../../../src/lib/export';
+import { collectText } from '../../../src/lib/export/text-chunk';
 
 const OBSERVATION_STATUS = ['registered', 'preliminary', 'final', 'amended', 'corrected', 'cancelled', 'entered-in-error', 'unknown'];
 const BUNDLE_TYPES = ['document', 'message', 'transaction', 'transaction-response', 'batch', 'batch-response', 'history', 'searchset', 'collection'];

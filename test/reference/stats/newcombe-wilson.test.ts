@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
-import { wilsonInterval } from '../../../src/lib/stats';
+import { wilsonInterval } from '../../../src/lib/stats/wilson-interval';
 import { relativeError } from '../../support/relative-error';
 
 describe('Wilson score interval', () => {

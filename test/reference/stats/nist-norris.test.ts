@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { olsTrendInto, olsSlots } from '../../../src/lib/stats';
+import { olsTrendInto, olsSlots } from '../../../src/lib/stats/ols-trend';
 
 // NIST/ITL StRD linear regression dataset "Norris" (file Norris.dat; data and certified values
 // VERIFIED in REFERENCES.md §2a). Columns y, x in file order.

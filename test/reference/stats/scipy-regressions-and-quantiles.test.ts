@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
-import { olsTrend, quantileSorted, segmentedRegression, standardisedResponseMean } from '../../../src/lib/stats';
+import { olsTrend } from '../../../src/lib/stats/ols-trend';
+import { quantileSorted } from '../../../src/lib/stats/quantile-sorted';
+import { segmentedRegression } from '../../../src/lib/stats/segmented-regression';
+import { standardisedResponseMean } from '../../../src/lib/stats/standardised-response-mean';
 import { relativeError } from '../../support/relative-error';
 
 describe(`OLS trend (RECOMPUTED: ${recomputed.ols.source})`, () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
-import { anovaMeanSquares, intraclassCorrelations, mcGrawWongNames } from '../../../src/lib/stats';
+import { anovaMeanSquares, intraclassCorrelations } from '../../../src/lib/stats';
+import { mcGrawWongNames } from '../../../src/lib/stats/intraclass-correlations';
 import { relativeError } from '../../support/relative-error';
 
 // Shrout PE, Fleiss JL (1979), Psychological Bulletin 86:420–428, Table 2: 6 targets × 4 judges.

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
-import { mannKendall, theilSen, theilSenInto, theilSenSlots } from '../../../src/lib/stats';
+import { mannKendall } from '../../../src/lib/stats/mann-kendall';
+import { theilSen, theilSenInto, theilSenSlots } from '../../../src/lib/stats/theil-sen';
 import { relativeError } from '../../support/relative-error';
 
 describe('Theil–Sen: example of Sen (1968)', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import recomputed from '../../fixtures/stats/scipy-recomputed.json';
-import { wilcoxonSignedRank } from '../../../src/lib/stats';
+import { wilcoxonSignedRank } from '../../../src/lib/stats/wilcoxon-signed-rank';
 import { relativeError } from '../../support/relative-error';
 
 // Darwin's maize height differences as in the scipy.stats.wilcoxon docstring (REFERENCES.md §5).

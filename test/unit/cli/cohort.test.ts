@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
 import { runCli } from '../../../src/cli/main';
-import { SeededRandom } from '../../../src/lib/demo';
+import { SeededRandom } from '../../../src/lib/demo/seeded-random';
 import { encryptBundleText, serializeBundle } from '../../../src/lib/store';
 import { demoBundle } from '../../../src/lib/store/demo-caseload';
 

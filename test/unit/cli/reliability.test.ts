@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from '../../../src/cli/main';
-import { parseCsvRecords as parseCsv } from '../../../src/lib/stats';
+import { parseCsvRecords as parseCsv } from '../../../src/lib/stats/reliability-csv';
 import { relativeError } from '../../support/relative-error';
 
 const fixtureDir = join(process.cwd(), 'test/fixtures/stats');

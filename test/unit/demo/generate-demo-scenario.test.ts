@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { TABLE_NAMES, validateRecord, type Observation } from '../../../src/lib/domain';
-import { DEMO_FICTION_NOTICE, SeededRandom, generateDemoScenario } from '../../../src/lib/demo';
+import { generateDemoScenario } from '../../../src/lib/demo';
+import { DEMO_FICTION_NOTICE } from '../../../src/lib/demo/demo-people';
+import { SeededRandom } from '../../../src/lib/demo/seeded-random';
 import { serializeBundle } from '../../../src/lib/store';
 import { demoBundle } from '../../../src/lib/store/demo-caseload';
 

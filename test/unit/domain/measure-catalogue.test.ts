@@ -1,13 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import {
-  HYPERMOBILITY_MARGIN_DEG,
-  MEASURE_CATALOGUE,
-  ROM_SITES,
-  SEM_TO_MDC95,
-  findMeasure,
-  findSite,
-  referenceMdc95,
-} from '../../../src/lib/domain';
+import { MEASURE_CATALOGUE, findMeasure, findSite, referenceMdc95 } from '../../../src/lib/domain';
+import { HYPERMOBILITY_MARGIN_DEG, ROM_SITES } from '../../../src/lib/domain/rom-motions';
+import { SEM_TO_MDC95 } from '../../../src/lib/domain/reference-mdc';
 
 const STATUS = /^(VERIFIED|RECOMPUTED|MEMORY|DERIVED|COMMON PRACTICE)/;
 

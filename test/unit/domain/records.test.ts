@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { DomainValidationError, TABLE_NAMES, parseRecord, validateRecord } from '../../../src/lib/domain';
+import { TABLE_NAMES, validateRecord } from '../../../src/lib/domain';
+import { DomainValidationError } from '../../../src/lib/domain/domain-error';
+import { parseRecord } from '../../../src/lib/domain/record-tables';
 
 const base = {
   id: '0190a0b0-0000-7000-8000-000000000001',

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { createUuidV7Generator, formatUuidV7, isUuidV7, uuidV7Time } from '../../../src/lib/domain';
+import { createUuidV7Generator, formatUuidV7 } from '../../../src/lib/domain';
+import { isUuidV7, uuidV7Time } from '../../../src/lib/domain/uuid-v7';
 
 const hexToBytes = (hex: string) => Uint8Array.from(hex.match(/../g)!.map((h) => parseInt(h, 16)));
 

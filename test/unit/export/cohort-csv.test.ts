@@ -2,18 +2,11 @@ import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { generateDemoScenario } from '../../../src/lib/demo';
 import type { Identity, Observation } from '../../../src/lib/domain';
-import {
-  buildCohortIndex,
-  CohortExportCancelled,
-  collectText,
-  longCsvHeader,
-  prepareCohortExport,
-  runCohortExport,
-  SUMMARY_CSV_HEADER,
-  wideCsvHeader,
-  type CohortExportProgress,
-  type CohortFilters,
-} from '../../../src/lib/export';
+import { buildCohortIndex, CohortExportCancelled, prepareCohortExport, runCohortExport, type CohortExportProgress, type CohortFilters } from '../../../src/lib/export';
+import { collectText } from '../../../src/lib/export/text-chunk';
+import { longCsvHeader } from '../../../src/lib/export/long-csv';
+import { SUMMARY_CSV_HEADER } from '../../../src/lib/export/summary-csv';
+import { wideCsvHeader } from '../../../src/lib/export/wide-csv';
 import { RecordsBuilder, mas, patient, TEST_KEY } from './cohort-fixture';
 
 const demo = generateDemoScenario({ seed: 5 }).tables;

@@ -3,8 +3,10 @@
 import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { generateDemoScenario } from '../../../src/lib/demo';
-import { buildCohortIndex, collectText, countCohort, prepareCohortExport } from '../../../src/lib/export';
-import { CohortExportFailure, startCohortExport, type CohortExportPrepared } from '../../../src/lib/workers';
+import { buildCohortIndex, countCohort, prepareCohortExport } from '../../../src/lib/export';
+import { collectText } from '../../../src/lib/export/text-chunk';
+import { CohortExportFailure, startCohortExport } from '../../../src/lib/workers';
+import { type CohortExportPrepared } from '../../../src/lib/workers/cohort-export-protocol';
 import { TEST_KEY } from './cohort-fixture';
 
 const demo = generateDemoScenario({ seed: 6 }).tables;

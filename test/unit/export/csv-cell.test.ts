@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
-import { csvCell, csvRow } from '../../../src/lib/export';
+import { csvRow } from '../../../src/lib/export';
+import { csvCell } from '../../../src/lib/export/csv-cell';
 
 describe('csvCell (RFC 4180 with formula neutralising)', () => {
   const cases: Array<{ input: Parameters<typeof csvCell>[0]; expected: string; source: string }> = [

@@ -1,17 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { createHmac } from 'node:crypto';
 import Papa from 'papaparse';
-import { generateDemoScenario, SeededRandom } from '../../../src/lib/demo';
-import {
-  birthYearBand,
-  buildCohortIndex,
-  CohortExportError,
-  collectText,
-  prepareCohortExport,
-  type CohortFilters,
-  type DeidentifiedDates,
-  type PreparedCohortExport,
-} from '../../../src/lib/export';
+import { generateDemoScenario } from '../../../src/lib/demo';
+import { SeededRandom } from '../../../src/lib/demo/seeded-random';
+import { buildCohortIndex, CohortExportError, prepareCohortExport, type CohortFilters } from '../../../src/lib/export';
+import { birthYearBand, type DeidentifiedDates } from '../../../src/lib/export/prepare-disclosure';
+import { collectText } from '../../../src/lib/export/text-chunk';
+import { type PreparedCohortExport } from '../../../src/lib/export/export-cohort';
 import { TEST_KEY } from './cohort-fixture';
 
 const demo = generateDemoScenario({ seed: 11 }).tables;

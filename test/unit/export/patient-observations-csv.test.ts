@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import type { ClinicalEvent, Observation } from '../../../src/lib/domain';
 import { anEvent, anObservation } from '../../support/records';
-import { eventContext, localDateTime, patientObservationsCsv, PATIENT_CSV_COLUMNS } from '../../../src/lib/export';
+import { localDateTime, patientObservationsCsv } from '../../../src/lib/export';
+import { eventContext, PATIENT_CSV_COLUMNS } from '../../../src/lib/export/patient-observations-csv';
 
 const obs = (id: string, takenAt: string, extra: Partial<Observation>): Observation => anObservation({ id, assessmentId: `a-${id}`, takenAt, ...extra });
 const injection: ClinicalEvent = anEvent({ summary: '=HYPERLINK("x")' });

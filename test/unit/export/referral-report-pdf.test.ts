@@ -10,7 +10,8 @@ import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pdfSafeText, SYMBOL_SPELLINGS } from '../../../src/lib/export/pdf-safe-text';
 import { referralReportPdf } from '../../../src/lib/export/referral-report-pdf';
-import { REPORT_CAUTIONS, type ReferralReport } from '../../../src/lib/export';
+import { type ReferralReport } from '../../../src/lib/export';
+import { REPORT_CAUTIONS } from '../../../src/lib/export/referral-report';
 import { demoReports } from './demo-reports';
 
 const POPPLER = ['/usr/bin/pdftotext', '/usr/bin/pdfinfo', '/usr/bin/iconv'];

@@ -2,7 +2,8 @@
 // patient (every expected figure below was computed on paper from the fixture, not by the code).
 import { describe, expect, it } from 'vitest';
 import type { Assessment, ClinicalEvent, Observation } from '../../../src/lib/domain';
-import { referralReport, reportChartGeometry, ReferralReportError, type ReferralReportInput } from '../../../src/lib/export';
+import { referralReport, reportChartGeometry } from '../../../src/lib/export';
+import { ReferralReportError, type ReferralReportInput } from '../../../src/lib/export/referral-report';
 import { outcomeSeries } from '../../../src/lib/stats';
 
 const stamp = { createdAt: '2026-01-01T00:00:00.000Z', updatedAt: '2026-01-01T00:00:00.000Z', deviceId: 'd1', deleted: false, patientId: 'p1' };

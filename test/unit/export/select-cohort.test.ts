@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { generateDemoScenario } from '../../../src/lib/demo';
 import { EVENT_KINDS, type Observation } from '../../../src/lib/domain';
 import { buildCohortIndex, CohortExportError, countCohort, selectCohort, type CohortFilters, type CohortRecords } from '../../../src/lib/export';
-import { selectBaseline } from '../../../src/lib/stats';
+import { selectBaseline } from '../../../src/lib/stats/select-baseline';
 import { angle, event, mas, patient, RecordsBuilder, tardieu } from './cohort-fixture';
 
 /** The hand-built scenario; expected pairs below are worked out by hand from these dates. */

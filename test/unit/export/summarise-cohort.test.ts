@@ -1,4 +1,4 @@
-import { ORDINAL_STEP_MDC } from '../../../src/lib/stats';
+import { ORDINAL_STEP_MDC } from '../../../src/lib/stats/choose-mdc';
 import { describe, expect, it } from 'vitest';
 import { quantile as ssQuantile, median as ssMedian } from 'simple-statistics';
 import { generateDemoScenario } from '../../../src/lib/demo';

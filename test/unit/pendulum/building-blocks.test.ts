@@ -1,18 +1,15 @@
 import fc from 'fast-check';
 import { median } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import {
-  centralDifference,
-  fitDampedCosine,
-  integrateGyro,
-  median5At,
-  medianInPlace,
-  prominentPeaks,
-  quickselect,
-  removeSpikes,
-  resampleLinear,
-  uniformSampleRate,
-} from '../../../src/lib/pendulum/index';
+import { medianInPlace } from '../../../src/lib/pendulum/index';
+import { centralDifference } from '../../../src/lib/pendulum/central-difference';
+import { fitDampedCosine } from '../../../src/lib/pendulum/fit-damped-cosine';
+import { integrateGyro } from '../../../src/lib/pendulum/integrate-gyro';
+import { median5At, removeSpikes } from '../../../src/lib/pendulum/remove-spikes';
+import { prominentPeaks } from '../../../src/lib/pendulum/prominent-peaks';
+import { quickselect } from '../../../src/lib/pendulum/quickselect';
+import { resampleLinear } from '../../../src/lib/pendulum/resample-linear';
+import { uniformSampleRate } from '../../../src/lib/pendulum/uniform-sample-rate';
 
 describe('quickselect / medianInPlace', () => {
   it('agrees with simple-statistics median (7.12.1) on random arrays', () => {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { butterworthLowPass, zeroPhaseFilter } from '../../../src/lib/pendulum/index';
+import { butterworthLowPass } from '../../../src/lib/pendulum/butterworth-low-pass';
+import { zeroPhaseFilter } from '../../../src/lib/pendulum/zero-phase-filter';
 
 /** Multiplies the sections into one transfer function b(z)/a(z). */
 function transferFunction(sos: Float64Array): { b: number[]; a: number[] } {

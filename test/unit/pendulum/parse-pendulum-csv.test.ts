@@ -1,6 +1,7 @@
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { parsePendulumCsv, PendulumInputError } from '../../../src/lib/pendulum/index';
+import { PendulumInputError } from '../../../src/lib/pendulum/index';
+import { parsePendulumCsv } from '../../../src/lib/pendulum/parse-pendulum-csv';
 
 function refusal(text: string): PendulumInputError {
   try {

@@ -1,14 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import {
-  activeDaysInWeek,
-  adherenceByWeek,
-  followedPlans,
-  plannedSessionsOfExercise,
-  weeklyAdherence,
-  type ExercisePlan,
-  type ExerciseTick,
-} from '../../../src/lib/programme';
+import { adherenceByWeek, weeklyAdherence, type ExercisePlan } from '../../../src/lib/programme';
+import { activeDaysInWeek, plannedSessionsOfExercise } from '../../../src/lib/programme/planned-sessions';
+import { followedPlans } from '../../../src/lib/programme/current-plans';
+import { type ExerciseTick } from '../../../src/lib/programme/home-log';
 import { EMPTY_DOSE } from '../../../src/lib/domain';
 
 const P = '0190f1a2-0000-7000-8000-0000000000aa';

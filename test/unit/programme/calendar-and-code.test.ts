@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { addDays, dayNumber, handoverCode, normaliseHandoverCode, weekStartOf } from '../../../src/lib/programme';
+import { addDays, dayNumber, handoverCode, weekStartOf } from '../../../src/lib/programme';
+import { normaliseHandoverCode } from '../../../src/lib/programme/handover-code';
 
 describe('calendar days', () => {
   // Fixtures: dates and their Monday, worked by hand from 2025-01-01 being a Wednesday (calendar),

@@ -3,8 +3,10 @@
 // nothing in this path decodes pixels (the page does, with canvas; see programme.e2e.ts).
 import { describe, expect, it } from 'vitest';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
-import { EMPTY_DOSE, MAX_PHOTO_BYTES, exercisePhotoProblem, fitWithin, photoEncodingAttempts, sniffPhotoType, type ExercisePhoto, type HomeProgramme, type Patient } from '../../../src/lib/domain';
-import { followExerciseOrder, openStore, photosOfProgramme, putExercisePhoto, replaceProgrammePhotos, type KinnoteStore } from '../../../src/lib/store';
+import { EMPTY_DOSE, MAX_PHOTO_BYTES, exercisePhotoProblem, photoEncodingAttempts, sniffPhotoType, type ExercisePhoto, type HomeProgramme, type Patient } from '../../../src/lib/domain';
+import { fitWithin } from '../../../src/lib/domain/exercise-photo';
+import { followExerciseOrder, openStore, photosOfProgramme, putExercisePhoto, type KinnoteStore } from '../../../src/lib/store';
+import { replaceProgrammePhotos } from '../../../src/lib/store/exercise-photos';
 import { acceptProgrammePackage, choosePatientMode, createProgrammePackage, openProgrammePackage, planToProgrammeInput, type ExercisePlan } from '../../../src/lib/programme';
 import { sealTransfer } from '../../../src/lib/programme/sealed-transfer';
 import { freshStore, steppingClock, TEST_ITERATIONS } from '../store/store-helpers';

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { ProgrammeTransferError, QrPartCollector, fnv1a32Hex, splitIntoQrParts } from '../../../src/lib/programme';
+import { ProgrammeTransferError, QrPartCollector, splitIntoQrParts } from '../../../src/lib/programme';
+import { fnv1a32Hex } from '../../../src/lib/programme/qr-chunks';
 
 describe('QR parts', () => {
   it('FNV-1a 32-bit matches the published test vectors', () => {

@@ -1,18 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import {
-  angleBetweenDeg,
-  axisAngleToVerticalDeg,
-  deviceAngularVelocity,
-  LiveSwingMonitor,
-  MotionBuffer,
-  motionTiming,
-  principalAxis,
-  rateAxisOrder,
-  reconstructKneeAngle,
-  steadyReading,
-  wrap180,
-} from '../../../src/lib/sensors';
+import { angleBetweenDeg, axisAngleToVerticalDeg, LiveSwingMonitor, steadyReading } from '../../../src/lib/sensors';
+import { deviceAngularVelocity, MotionBuffer, motionTiming, principalAxis, rateAxisOrder, reconstructKneeAngle, wrap180 } from '../../../src/lib/sensors/signal';
 import { axisAngle, staticDeviceMotion, NO_ERRORS } from '../../reference/sensors/device-motion-simulator';
 import { phonePendulumCases, seededUniform, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 

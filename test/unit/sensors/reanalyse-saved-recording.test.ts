@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { analyseMotionRecording, motionTraceChannels, pendulumObservations, reanalyseSavedRecording } from '../../../src/lib/sensors';
+import { analyseMotionRecording, motionTraceChannels, reanalyseSavedRecording } from '../../../src/lib/sensors';
+import { pendulumObservations } from '../../../src/lib/sensors/../pendulum';
 import { phonePendulumCases, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 
 describe('reanalyseSavedRecording (issue 13: saved phone recordings keep their raw samples)', () => {

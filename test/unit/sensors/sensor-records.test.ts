@@ -1,8 +1,9 @@
 // The record pieces built from phone readings. Saving them (atomic, audited, all or nothing) is
 // tested on the one path that saves readings: test/unit/ui/visit-readings.test.ts.
 import { describe, expect, it } from 'vitest';
-import { ObservationSchema } from '../../../src/lib/domain';
-import { analyseMotionRecording, motionTraceChannels, pendulumObservations, romObservation } from '../../../src/lib/sensors';
+import { ObservationSchema } from '../../../src/lib/domain/observation';
+import { analyseMotionRecording, motionTraceChannels, romObservation } from '../../../src/lib/sensors';
+import { pendulumObservations } from '../../../src/lib/sensors/../pendulum';
 import { phonePendulumCases, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 import * as v from 'valibot';
 

@@ -1,5 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { changeVerdict, reliableChangeIndex, selectBaseline, StatsInputError, type MeasureScale } from '../../../src/lib/stats';
+import { changeVerdict, StatsInputError } from '../../../src/lib/stats';
+import { reliableChangeIndex } from '../../../src/lib/stats/reliable-change-index';
+import { selectBaseline } from '../../../src/lib/stats/select-baseline';
+import { type MeasureScale } from '../../../src/lib/stats/change-verdict';
 
 const ashworth: MeasureScale = { kind: 'ordinal', grades: ['0', '1', '1+', '2', '3', '4'].map((label, rank) => ({ label, rank })) };
 const degrees: MeasureScale = { kind: 'continuous', unit: 'deg' };

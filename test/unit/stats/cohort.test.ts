@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { quantileSorted as ssQuantileSorted, sampleStandardDeviation, mean } from 'simple-statistics';
 import jStat from 'jstat';
-import { cohortChangeSummary, quantileSorted, standardisedResponseMean, wilcoxonSignedRank, StatsInputError } from '../../../src/lib/stats';
+import { cohortChangeSummary, StatsInputError } from '../../../src/lib/stats';
+import { quantileSorted } from '../../../src/lib/stats/quantile-sorted';
+import { standardisedResponseMean } from '../../../src/lib/stats/standardised-response-mean';
+import { wilcoxonSignedRank } from '../../../src/lib/stats/wilcoxon-signed-rank';
 import { relativeError } from '../../support/relative-error';
 import { gaussian, mulberry32 as seededRng } from '../../support/seeded-random';
 

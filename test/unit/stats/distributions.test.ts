@@ -2,18 +2,12 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import jStat from 'jstat';
 import scipyGrid from '../../fixtures/stats/distributions-scipy.json';
-import {
-  chiSquareCdf,
-  chiSquareQuantile,
-  fCdf,
-  fQuantile,
-  normalCdf,
-  normalQuantile,
-  StatsInputError,
-  studentTCdf,
-  studentTQuantile,
-  logGamma,
-} from '../../../src/lib/stats';
+import { StatsInputError } from '../../../src/lib/stats';
+import { chiSquareCdf, chiSquareQuantile } from '../../../src/lib/stats/chi-square-distribution';
+import { fCdf, fQuantile } from '../../../src/lib/stats/f-distribution';
+import { normalCdf, normalQuantile } from '../../../src/lib/stats/normal-distribution';
+import { studentTCdf, studentTQuantile } from '../../../src/lib/stats/student-t-distribution';
+import { logGamma } from '../../../src/lib/stats/log-gamma';
 import { relativeError } from '../../support/relative-error';
 
 type Fn = (...args: number[]) => number;

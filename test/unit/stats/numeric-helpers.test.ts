@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { compensatedSum, insertionSortRange, roundHalfEven, selectInPlace } from '../../../src/lib/stats';
+import { selectInPlace } from '../../../src/lib/stats';
+import { compensatedSum } from '../../../src/lib/stats/compensated-sum';
+import { insertionSortRange } from '../../../src/lib/stats/insertion-sort-range';
+import { roundHalfEven } from '../../../src/lib/stats/round-half-even';
 
 describe('selectInPlace', () => {
   it('returns the k-th smallest and partitions around it (property, with duplicates)', () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Observation, ObservationValue } from '../../../src/lib/domain';
-import { ORDINAL_STEP_MDC, latestVerdicts, mdcSourceLine, outcomeSeries } from '../../../src/lib/stats';
+import { latestVerdicts, mdcSourceLine, outcomeSeries } from '../../../src/lib/stats';
+import { ORDINAL_STEP_MDC } from '../../../src/lib/stats/choose-mdc';
 import { anObservation, masGrade } from '../../support/records';
 
 let counter = 0;

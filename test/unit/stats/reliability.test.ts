@@ -1,15 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import {
-  anovaMeanSquares,
-  completeSubjects,
-  intraclassCorrelations,
-  mdcFromSem,
-  MissingCellError,
-  semFromMeanSquareError,
-  semFromSdAndIcc,
-  StatsInputError,
-} from '../../../src/lib/stats';
+import { anovaMeanSquares, completeSubjects, intraclassCorrelations, mdcFromSem, MissingCellError, semFromMeanSquareError, StatsInputError } from '../../../src/lib/stats';
+import { semFromSdAndIcc } from '../../../src/lib/stats/measurement-error';
 import { relativeError } from '../../support/relative-error';
 
 const forms = ['1,1', '2,1', '3,1', '1,k', '2,k', '3,k'] as const;

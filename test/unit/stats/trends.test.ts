@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { linearRegression, rSquared } from 'simple-statistics';
-import { mannKendall, olsTrend, segmentedRegression, StatsInputError, theilSen, theilSenInto, theilSenScratchLength } from '../../../src/lib/stats';
+import { StatsInputError } from '../../../src/lib/stats';
+import { mannKendall } from '../../../src/lib/stats/mann-kendall';
+import { olsTrend } from '../../../src/lib/stats/ols-trend';
+import { segmentedRegression } from '../../../src/lib/stats/segmented-regression';
+import { theilSen, theilSenInto, theilSenScratchLength } from '../../../src/lib/stats/theil-sen';
 import { relativeError } from '../../support/relative-error';
 import { gaussian, mulberry32 as seededRng } from '../../support/seeded-random';
 

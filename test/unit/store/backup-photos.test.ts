@@ -6,7 +6,10 @@
 import { describe, expect, it } from 'vitest';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { EMPTY_DOSE, MAX_PHOTO_BYTES, type ExercisePhoto, type HomeProgramme, type Patient } from '../../../src/lib/domain';
-import { canonicalJson, exportBackup, importBackup, openStore, photosOfProgramme, putExercisePhoto, sha256Hex, StoreError, type BackupBundle, type KinnoteStore } from '../../../src/lib/store';
+import { canonicalJson, importBackup, openStore, photosOfProgramme, putExercisePhoto, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { exportBackup } from '../../../src/lib/store/export-backup';
+import { sha256Hex } from '../../../src/lib/store/crypto-box';
+import { type BackupBundle } from '../../../src/lib/store/backup-bundle';
 import { acceptProgrammePackage, choosePatientMode, createProgrammePackage, openProgrammePackage, planToProgrammeInput, type ExercisePlan } from '../../../src/lib/programme';
 import { dumpAll, freshStore, quotaFault, steppingClock, TEST_ITERATIONS } from './store-helpers';
 

@@ -1,16 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { TABLE_NAMES, ordinalValue } from '../../../src/lib/domain';
-import {
-  canonicalJson,
-  exportBackup,
-  exportBackupText,
-  importBackup,
-  readBackup,
-  serializeBundle,
-  sha256Hex,
-  StoreError,
-  type BackupBundle,
-} from '../../../src/lib/store';
+import { canonicalJson, exportBackupText, importBackup, readBackup, serializeBundle, StoreError } from '../../../src/lib/store';
+import { exportBackup } from '../../../src/lib/store/export-backup';
+import { sha256Hex } from '../../../src/lib/store/crypto-box';
+import { type BackupBundle } from '../../../src/lib/store/backup-bundle';
 import { dumpAll, freshStore, seedPatient, TEST_ITERATIONS } from './store-helpers';
 import { tableRows } from '../../../src/lib/store/table-rows';
 

@@ -7,17 +7,10 @@ import Dexie from 'dexie';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { ordinalValue, type Observation, type Patient } from '../../../src/lib/domain';
 import { adoptedLocalMdc, caseloadSummary, type AdoptableStudy, type SummaryAssessment } from '../../../src/lib/stats';
-import {
-  CASELOAD_SUMMARIES_TABLE,
-  LATEST_SCHEMA_VERSION,
-  declareSchema,
-  exportBackup,
-  importBackup,
-  openStore,
-  saveAssessment,
-  setAssessmentDeleted,
-  type KinnoteStore,
-} from '../../../src/lib/store';
+import { LATEST_SCHEMA_VERSION, importBackup, openStore, saveAssessment, setAssessmentDeleted, type KinnoteStore } from '../../../src/lib/store';
+import { CASELOAD_SUMMARIES_TABLE } from '../../../src/lib/store/caseload-summaries';
+import { declareSchema } from '../../../src/lib/store/schema';
+import { exportBackup } from '../../../src/lib/store/export-backup';
 import { caseloadRows, filterCaseload } from '../../../src/lib/ui/caseload-summary';
 import { freshStore, quotaFault, steppingClock } from './store-helpers';
 import { tableRows } from '../../../src/lib/store/table-rows';

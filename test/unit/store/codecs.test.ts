@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { createHash } from 'node:crypto';
-import { base64ToBytes, base64ToFloat64, bytesToBase64, canonicalJson, float64ToBase64, requestPersistentStorage, sha256Hex, storageUsage, toStoreError } from '../../../src/lib/store';
+import { base64ToBytes, base64ToFloat64, bytesToBase64, canonicalJson, float64ToBase64, requestPersistentStorage, storageUsage } from '../../../src/lib/store';
+import { sha256Hex } from '../../../src/lib/store/crypto-box';
+import { toStoreError } from '../../../src/lib/store/store-error';
 
 describe('canonicalJson', () => {
   it('sorts keys, drops undefined, keeps arrays in order', () => {

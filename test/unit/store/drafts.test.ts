@@ -3,21 +3,9 @@ import Dexie from 'dexie';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { EMPTY_DOSE, ordinalValue } from '../../../src/lib/domain';
 import { planToProgrammeInput } from '../../../src/lib/programme';
-import {
-  CHANGED_ELSEWHERE,
-  LATEST_SCHEMA_VERSION,
-  LEGACY_TAB_ID,
-  declareSchema,
-  draftId,
-  draftsFor,
-  moveLegacyDrafts,
-  openStore,
-  saveAssessment,
-  setAssessmentDeleted,
-  takeOverDraft,
-  writeDraft,
-  type StoreError,
-} from '../../../src/lib/store';
+import { CHANGED_ELSEWHERE, LATEST_SCHEMA_VERSION, draftsFor, moveLegacyDrafts, openStore, saveAssessment, setAssessmentDeleted, takeOverDraft, writeDraft, type StoreError } from '../../../src/lib/store';
+import { LEGACY_TAB_ID, draftId } from '../../../src/lib/store/drafts';
+import { declareSchema } from '../../../src/lib/store/schema';
 import { dumpAll, freshStore, quotaFault, steppingClock, TEST_ITERATIONS } from './store-helpers';
 
 async function withPatient(options: Parameters<typeof freshStore>[0] = {}) {

@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { canonicalJson, exportBackup, importBackup, serializeBundle, sha256Hex, StoreError, type BackupBundle } from '../../../src/lib/store';
+import { canonicalJson, importBackup, serializeBundle, StoreError } from '../../../src/lib/store';
+import { exportBackup } from '../../../src/lib/store/export-backup';
+import { sha256Hex } from '../../../src/lib/store/crypto-box';
+import { type BackupBundle } from '../../../src/lib/store/backup-bundle';
 import { dumpAll, freshStore, seedPatient } from './store-helpers';
 
 /**

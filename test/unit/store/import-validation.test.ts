@@ -1,17 +1,9 @@
 import { webcrypto } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import {
-  canonicalJson,
-  encryptBundleText,
-  exportBackup,
-  float64ToBase64,
-  importBackup,
-  readBackup,
-  serializeBundle,
-  sha256Hex,
-  StoreError,
-  type BackupBundle,
-} from '../../../src/lib/store';
+import { canonicalJson, encryptBundleText, float64ToBase64, importBackup, readBackup, serializeBundle, StoreError } from '../../../src/lib/store';
+import { exportBackup } from '../../../src/lib/store/export-backup';
+import { sha256Hex } from '../../../src/lib/store/crypto-box';
+import { type BackupBundle } from '../../../src/lib/store/backup-bundle';
 import { dumpAll, freshStore, seedPatient, TEST_ITERATIONS } from './store-helpers';
 
 type Tables = BackupBundle['tables'];

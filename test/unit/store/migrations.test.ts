@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import Dexie from 'dexie';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
-import { LATEST_SCHEMA_VERSION, SCHEMA_VERSIONS, declareSchema, openStore } from '../../../src/lib/store';
+import { LATEST_SCHEMA_VERSION, openStore } from '../../../src/lib/store';
+import { SCHEMA_VERSIONS, declareSchema } from '../../../src/lib/store/schema';
 import { tableRows } from '../../../src/lib/store/table-rows';
 
 const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;

@@ -6,7 +6,7 @@
 import Dexie from 'dexie';
 import type { ObservationValue } from '../../../src/lib/domain';
 import { motionTraceChannels, type MotionRecording } from '../../../src/lib/sensors';
-import { declareSchema } from '../../../src/lib/store';
+import { declareSchema } from '../../../src/lib/store/schema';
 import { phonePendulumCases, simulatePhonePendulum } from '../../reference/sensors/phone-pendulum-simulator';
 
 export const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;

@@ -6,14 +6,8 @@ import { describe, expect, it } from 'vitest';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { validateRecord, type ObservationValue } from '../../../src/lib/domain';
 import { motionTraceChannels, reanalyseSavedRecording } from '../../../src/lib/sensors';
-import {
-  LATEST_SCHEMA_VERSION,
-  REANALYSIS_CHANGED_NOTE,
-  REANALYSIS_FLAGGED_NOTE,
-  dismissPhoneReanalysisNotice,
-  openStore,
-  readPhoneReanalysisNotice,
-} from '../../../src/lib/store';
+import { LATEST_SCHEMA_VERSION, dismissPhoneReanalysisNotice, openStore, readPhoneReanalysisNotice } from '../../../src/lib/store';
+import { REANALYSIS_CHANGED_NOTE, REANALYSIS_FLAGGED_NOTE } from '../../../src/lib/store/phone-reanalysis';
 import { runPendingPhoneReanalysis } from '../../../src/lib/store/phone-reanalysis-run';
 import { OLD_VALUES, actor, buildV6, ids, stamps, type Name } from './phone-reanalysis-fixture';
 

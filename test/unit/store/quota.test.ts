@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { ordinalValue } from '../../../src/lib/domain';
-import { exportBackup, importBackup, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { importBackup, StoreError, type KinnoteStore } from '../../../src/lib/store';
+import { exportBackup } from '../../../src/lib/store/export-backup';
 
 import { dumpAll, freshStore, quotaFault, seedPatient } from './store-helpers';
 

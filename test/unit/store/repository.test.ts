@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { isUuidV7, ordinalValue } from '../../../src/lib/domain';
+import { ordinalValue } from '../../../src/lib/domain';
+import { isUuidV7 } from '../../../src/lib/domain/uuid-v7';
 import { StoreError } from '../../../src/lib/store';
 import { dumpAll, freshStore, seedPatient } from './store-helpers';
 

@@ -1,7 +1,8 @@
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import type { DBCore, DBCoreMutateRequest, Middleware } from 'dexie';
 import { ordinalValue } from '../../../src/lib/domain';
-import { openStore, type KinnoteStore, type OpenStoreOptions } from '../../../src/lib/store';
+import { openStore, type KinnoteStore } from '../../../src/lib/store';
+import { type OpenStoreOptions } from '../../../src/lib/store/open-store';
 
 /** A test clock: starts at 2025-03-01T09:00Z and moves 1 s per reading. */
 export function steppingClock(startMs = Date.UTC(2025, 2, 1, 9)): () => number {

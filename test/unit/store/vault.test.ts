@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { pbkdf2Sync, webcrypto } from 'node:crypto';
 import { IDBFactory } from 'fake-indexeddb';
-import { DEFAULT_KDF_ITERATIONS, StoreError, type Timers } from '../../../src/lib/store';
+import { StoreError } from '../../../src/lib/store';
+import { DEFAULT_KDF_ITERATIONS } from '../../../src/lib/store/crypto-box';
+import { type Timers } from '../../../src/lib/store/vault';
 import { deriveKey, openText, sealText } from '../../../src/lib/store/crypto-box';
 import { dumpAll, freshStore, seedPatient } from './store-helpers';
 
