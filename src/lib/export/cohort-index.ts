@@ -2,18 +2,14 @@ import { findMeasure, type Assessment, type ClinicalEvent, type Clinician, type 
 import { dayOfDate, dayOfInstant } from './calendar-day';
 import type { CohortRecords } from './cohort-types';
 import { measureQuantities } from './measure-quantities';
-import { seriesKey } from '../stats';
+import { seriesKey, type SeriesIdentity } from '../stats';
 
 /**
  * One patient's observations of one measure at one site, side and (for range of motion) mode, in
  * time order: the unit a change from baseline is computed on. Columns run parallel.
  */
-export interface CohortSeries {
+export interface CohortSeries extends SeriesIdentity {
   readonly patient: Patient;
-  readonly measure: Measure;
-  readonly siteCode: string;
-  readonly side: Observation['side'];
-  readonly mode: Observation['mode'];
   readonly observations: readonly Observation[];
   readonly assessments: readonly Assessment[];
   /** UTC day number of each observation. */

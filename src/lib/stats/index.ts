@@ -26,7 +26,7 @@ export { cohortChangeSummary, type CohortChangeSummary } from './cohort-change-s
 
 // Series of one patient, ready for the patient page and its charts
 export { chooseMdc, mdcSourceLine, type LocalMdc, type MdcChoice } from './choose-mdc';
-export { seriesKey } from './series-key';
+export { seriesKey, type SeriesIdentity } from './series-key';
 export { adoptedLocalMdc, type AdoptableStudy } from './adopted-local-mdc';
 export { caseloadSummary, caseloadSummaryBasis, type CaseloadSummary, type SummaryAssessment } from './caseload-summary';
 export { latestVerdicts, outcomeSeries, type OutcomeOptions, type OutcomeSeries } from './outcome-series';

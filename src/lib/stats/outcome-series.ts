@@ -6,6 +6,7 @@ import { selectBaseline, type Baseline, type BaselineRule } from './select-basel
 import { seriesJudge } from './series-judge';
 import { seriesGroups, seriesPoints } from './series-points';
 import { seriesTrend } from './series-trend';
+import type { SeriesIdentity } from './series-key';
 
 const dayMs = 86_400_000;
 
@@ -34,13 +35,9 @@ export interface OutcomeTrend {
 }
 
 /** Everything the patient page and its chart show for one measure at one site and side. */
-export interface OutcomeSeries {
+export interface OutcomeSeries extends SeriesIdentity {
   /** measure|site|side|mode, stable across sessions. */
   readonly key: string;
-  readonly measure: Measure;
-  readonly siteCode: string;
-  readonly side: Observation['side'];
-  readonly mode: Observation['mode'];
   /** e.g. "Left elbow flexors · Modified Ashworth Scale". */
   readonly title: string;
   /** What is charted, e.g. "Spasticity angle R2 − R1" for Tardieu. */

@@ -1,4 +1,4 @@
-import type { Observation } from '../domain';
+import type { Measure, Observation } from '../domain';
 
 /**
  * The one key of a patient's series: `measure|site|side|mode` (mode empty when the measure has
@@ -7,4 +7,15 @@ import type { Observation } from '../domain';
  */
 export function seriesKey(o: Pick<Observation, 'measureCode' | 'siteCode' | 'side' | 'mode'>): string {
   return `${o.measureCode}|${o.siteCode}|${o.side}|${o.mode ?? ''}`;
+}
+
+/**
+ * What names one series, with its measure resolved: the fields `seriesKey` reads. The patient page's
+ * OutcomeSeries and the cohort audit's CohortSeries both start with it.
+ */
+export interface SeriesIdentity {
+  readonly measure: Measure;
+  readonly siteCode: string;
+  readonly side: Observation['side'];
+  readonly mode: Observation['mode'];
 }
