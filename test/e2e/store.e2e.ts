@@ -1,27 +1,24 @@
 // The record store on Chromium's real IndexedDB and Web Crypto: migration, a real full disk, and
 // encrypted backups. The store code runs in the page from a bundle of test/e2e/in-page/store-checks.ts.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
-import { launchChromium, newAppContext, runScriptInPage, screenshot, seriousAxeViolations, phone, tablet } from './harness';
+import { newAppContext, runScriptInPage, screenshot, seriousAxeViolations, phone, tablet } from './harness';
 import type { storeChecks } from './in-page/store-checks';
 import { setUpDevice } from './app-helpers';
+import { sharedChromium } from '../support/shared-browser';
 import { LATEST_SCHEMA_VERSION } from '../../src/lib/store/schema';
 
 type Checks = typeof storeChecks;
-let browser: Browser;
+const chromium = sharedChromium();
 let bundle: string;
 beforeAll(async () => {
   bundle = await bundleForPage('test/e2e/in-page/store-checks.ts', 'kinnoteStoreChecks');
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 /** A page on the app's origin (worker blocked, so the app's own cache does not count in quotas). */
 async function checksPage(): Promise<Page> {
-  const context = await newAppContext(browser, { serviceWorkers: 'block' });
+  const context = await newAppContext(chromium.browser, { serviceWorkers: 'block' });
   const page = await context.newPage();
   await page.goto('/in-page-checks');
   await runScriptInPage(page, bundle);
@@ -83,7 +80,7 @@ describe('record store in Chromium', () => {
       ['phone', phone],
       ['tablet', tablet],
     ] as const) {
-      const context = await newAppContext(browser, { viewport });
+      const context = await newAppContext(chromium.browser, { viewport });
       const page = await context.newPage();
       await setUpDevice(page, { demo: false });
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click();
