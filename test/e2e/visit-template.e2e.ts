@@ -1,18 +1,13 @@
 // A first visit of a patient with no history, laid out from a template of the catalogue ("ankle
 // after an injection"), counted in taps from opening the app to saved, offline; and "Start empty".
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
+import { sharedChromium } from '../support/shared-browser';
 import { join } from 'node:path';
-import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { newAppContext, reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 /** A tap on a button, link or radio is 1; typing a number is 1 tap plus its digits, counted apart. */
 class Taps {
@@ -57,7 +52,7 @@ describe('a first visit laid out from a template', () => {
     ['tablet', tablet],
   ] as const) {
     it(`"Ankle after an injection" on the affected side, counted in taps at ${size} size, offline`, async () => {
-      const context = await newAppContext(browser, { viewport });
+      const context = await newAppContext(chromium.browser, { viewport });
       const page = await context.newPage();
       await setUpDevice(page, { demo: false });
       await waitForOfflineWorker(page);
@@ -139,7 +134,7 @@ describe('a first visit laid out from a template', () => {
   }
 
   it('the issue\'s home visit as a first visit from "Leg tone and spasms at home", counted in taps (by hand: 32 taps + 8 digits in visit.e2e.ts)', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await addPatient(page, 'Left');
@@ -168,7 +163,7 @@ describe('a first visit laid out from a template', () => {
   });
 
   it('"Start empty" leaves the form empty, as before templates', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await addPatient(page, 'Left');
