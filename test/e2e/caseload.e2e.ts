@@ -1,24 +1,20 @@
 // A caseload of 5,000 patients: the list stays virtual (a few dozen rows in the page), scrolls to the
 // last patient, and filters by search.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { bundleForPage } from './bundle-for-page';
 import { setUpDevice, unlockVault } from './app-helpers';
-import { launchChromium, newAppContext, phone, runScriptInPage, screenshot, setTextScale, smallPhone } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { newAppContext, phone, runScriptInPage, screenshot, setTextScale, smallPhone } from './harness';
 
-let browser: Browser;
+const chromium = sharedChromium();
 let bundle: string;
 beforeAll(async () => {
   bundle = await bundleForPage('test/e2e/in-page/store-checks.ts', 'kinnoteStoreChecks');
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 describe('caseload with 5,000 patients', () => {
   it('renders only the rows in view, scrolls to the end and searches', async () => {
-    const context = await newAppContext(browser, { viewport: phone });
+    const context = await newAppContext(chromium.browser, { viewport: phone });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await runScriptInPage(page, bundle);
@@ -50,7 +46,7 @@ describe('caseload with 5,000 patients', () => {
   });
 
   it('reads at 360 px with names shown, at 100 % and 200 % text: no row printed over the next', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const page = await context.newPage();
     await setUpDevice(page);
     await page.goto('/patients');
