@@ -1,24 +1,21 @@
 // Schema 7 in the app (issue 13): a device whose database the older app left at version 6 with phone
 // pendulum recordings opens the new version; the saved results are analysed again and the user is told
 // once, in a notice, which values changed and which were kept but flagged.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
-import { launchChromium, newAppContext, reflowProblems, runScriptInPage, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { newAppContext, reflowProblems, runScriptInPage, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet } from './harness';
 
-let browser: Browser;
+const chromium = sharedChromium();
 let bundle: string;
 beforeAll(async () => {
   bundle = await bundleForPage('test/e2e/in-page/phone-reanalysis-v6.ts', 'kinnotePhoneReanalysisV6');
-  browser = await launchChromium();
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-});
 
 /** A fresh profile whose 'kinnote' database is the older app's version 6, built before the app ever ran. */
 async function deviceWithOldRecordings(viewport: { width: number; height: number }): Promise<Page> {
-  const context = await newAppContext(browser, { viewport, serviceWorkers: 'block' });
+  const context = await newAppContext(chromium.browser, { viewport, serviceWorkers: 'block' });
   const page = await context.newPage();
   // A static file of the app's origin: no app code runs there, so the database is still absent.
   await page.goto('/icons/kinnote.svg');
