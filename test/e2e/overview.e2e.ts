@@ -2,19 +2,19 @@
 // demo patients (from the top of the page to the end of the table), prints the page heights for the
 // report, and opens a row into its chart, verdict and MDC line.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 import { setUpDevice } from './app-helpers';
 import { inkedCanvasShare } from './app-helpers';
-import { launchChromium, newAppContext, phone, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet, waitForSettledPage } from './harness';
+import { sharedChromium } from '../support/shared-browser';
+import { newAppContext, phone, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet, waitForSettledPage } from './harness';
 
-let browser: Browser;
+const chromium = sharedChromium();
 let context: BrowserContext;
 let page: Page;
 let patientPaths: string[] = [];
 
 beforeAll(async () => {
-  browser = await launchChromium();
-  context = await newAppContext(browser, { viewport: tablet });
+  context = await newAppContext(chromium.browser, { viewport: tablet });
   page = await context.newPage();
   await setUpDevice(page);
   await page.goto('/patients');
@@ -23,7 +23,6 @@ beforeAll(async () => {
 }, 120_000);
 afterAll(async () => {
   await context?.close();
-  await browser?.close();
 });
 
 describe('patient overview', () => {
