@@ -3,18 +3,18 @@
 // policy arrives both as the built page's meta tag and as `kinnote serve`'s header, and an inline
 // script that someone managed to put into the page is refused.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 import { openFirstPatient, setUpDevice } from './app-helpers';
-import { baseUrl, launchChromium, newAppContext, tablet, waitForSettledPage } from './harness';
+import { baseUrl, newAppContext, tablet, waitForSettledPage } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
-let browser: Browser;
+const chromium = sharedChromium();
 let context: BrowserContext;
 let page: Page;
 const violations: string[] = [];
 
 beforeAll(async () => {
-  browser = await launchChromium();
-  context = await newAppContext(browser, { viewport: tablet });
+  context = await newAppContext(chromium.browser, { viewport: tablet });
   // Registered before any page script runs, on every document of the context.
   await context.exposeBinding('__reportViolation', (_source, text: string) => violations.push(text));
   await context.addInitScript(() => {
@@ -26,7 +26,6 @@ beforeAll(async () => {
 }, 60_000);
 afterAll(async () => {
   await context?.close();
-  await browser?.close();
 });
 
 describe('Content-Security-Policy', () => {
