@@ -2,11 +2,12 @@
 // BroadcastChannel, separate sessionStorage): a stale programme form is refused and the other tab's
 // edit survives; two tabs writing the first programme give one; each tab keeps its own draft; text
 // typed while a save runs stays in the form and in the draft.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
 import { join } from 'node:path';
-import { launchChromium, newAppContext, screenshot, screenshotDir, seriousAxeViolations, smallPhone } from './harness';
+import { newAppContext, screenshot, screenshotDir, seriousAxeViolations, smallPhone } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
 interface ProgrammeRowLike {
   id: string;
@@ -23,7 +24,7 @@ interface DraftRowLike {
   content: { form: { title: string; exercises: { name: string }[] }; basedOn: string | null };
 }
 
-let browser: Browser;
+const chromium = sharedChromium();
 let context: BrowserContext;
 let tabA: Page;
 let tabB: Page;
@@ -83,8 +84,7 @@ async function holdTable(page: Page, table: string): Promise<void> {
 const release = (page: Page) => page.evaluate(() => void ((window as unknown as { releaseHeldTable?: boolean }).releaseHeldTable = true));
 
 beforeAll(async () => {
-  browser = await launchChromium();
-  context = await newAppContext(browser, { viewport: smallPhone });
+  context = await newAppContext(chromium.browser, { viewport: smallPhone });
   tabA = await context.newPage();
   await setUpDevice(tabA, { demo: false });
   await tabA.goto('/patients/new');
@@ -96,9 +96,6 @@ beforeAll(async () => {
   tabB = await context.newPage();
 });
 
-afterAll(async () => {
-  await browser?.close();
-});
 
 describe('two tabs on the same patient', () => {
   it('two tabs writing the first programme give one programme; the other tab keeps its typing', async () => {
