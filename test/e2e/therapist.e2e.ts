@@ -1,18 +1,13 @@
 // A home visit in the browser: set up, assess, import a pendulum trace, chart, export; offline.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { inkedCanvasShare, markCarriedTestsNotTested, openFirstPatient, openOverviewGroups, pixelsNear, setUpDevice, tableRows, unlockVault } from './app-helpers';
-import { launchChromium, newAppContext, phone, screenshot, tablet, waitForOfflineWorker } from './harness';
+import { newAppContext, phone, screenshot, tablet, waitForOfflineWorker } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 async function enterAssessment(page: Page): Promise<void> {
   // This test adds its own rows; the tests carried from the last visit are left out today.
@@ -60,7 +55,7 @@ describe('therapist on a home visit', () => {
     ['tablet', tablet],
   ] as const) {
     it(`enters a complete assessment at ${size} size, offline, and finds every value after reloads`, async () => {
-      const context = await newAppContext(browser, { viewport });
+      const context = await newAppContext(chromium.browser, { viewport });
       const page = await context.newPage();
       await setUpDevice(page);
       await waitForOfflineWorker(page);
@@ -108,7 +103,7 @@ describe('therapist on a home visit', () => {
   }
 
   it('imports a pendulum trace in a worker, shows the indices and chart, and saves them with the trace', async () => {
-    const context = await newAppContext(browser, { viewport: tablet });
+    const context = await newAppContext(chromium.browser, { viewport: tablet });
     const page = await context.newPage();
     await setUpDevice(page);
     const patientPath = await openFirstPatient(page);
@@ -131,7 +126,7 @@ describe('therapist on a home visit', () => {
   });
 
   it('refuses a broken trace file with the file, row and reason', async () => {
-    const context = await newAppContext(browser, { viewport: phone });
+    const context = await newAppContext(chromium.browser, { viewport: phone });
     const page = await context.newPage();
     await setUpDevice(page);
     const patientPath = await openFirstPatient(page);
@@ -144,7 +139,7 @@ describe('therapist on a home visit', () => {
   });
 
   it('draws a progress chart with its MDC band (canvas checked, not blank) and exports the patient CSV', async () => {
-    const context = await newAppContext(browser, { viewport: phone, acceptDownloads: true });
+    const context = await newAppContext(chromium.browser, { viewport: phone, acceptDownloads: true });
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
@@ -168,7 +163,7 @@ describe('therapist on a home visit', () => {
   });
 
   it('a tap on a progress chart at 360 px shows the date and value (touch tooltip)', async () => {
-    const context = await newAppContext(browser, { viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true });
+    const context = await newAppContext(chromium.browser, { viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true });
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
@@ -206,7 +201,7 @@ describe('therapist on a home visit', () => {
   });
 
   it('reads a reliability table from CSV (Shrout & Fleiss 1979 example: ICC(2,1) = .29), and an adopted local MDC drives the verdicts', async () => {
-    const context = await newAppContext(browser, { viewport: tablet });
+    const context = await newAppContext(chromium.browser, { viewport: tablet });
     const page = await context.newPage();
     await setUpDevice(page);
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Reliability' }).click();
@@ -234,7 +229,7 @@ describe('therapist on a home visit', () => {
   });
 
   it('deletes an assessment (a tombstone) and brings it back with Undo', async () => {
-    const context = await newAppContext(browser, { viewport: phone });
+    const context = await newAppContext(chromium.browser, { viewport: phone });
     const page = await context.newPage();
     await setUpDevice(page);
     await openFirstPatient(page);
