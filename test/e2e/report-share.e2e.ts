@@ -7,9 +7,10 @@ import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Download, Page } from 'playwright-core';
+import type { BrowserContext, Download, Page } from 'playwright-core';
 import { setUpDevice, unlockVault } from './app-helpers';
-import { launchChromium, newAppContext, screenshot, screenshotDir, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { newAppContext, screenshot, screenshotDir, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
 type ShareMode = 'absent' | 'accept' | 'abort' | 'refuse' | 'no-file';
 interface SharedFile {
@@ -21,7 +22,7 @@ interface SharedFile {
   base64: string;
 }
 
-let browser: Browser;
+const chromium = sharedChromium();
 let context: BrowserContext;
 let page: Page;
 let reportPaths: string[] = [];
@@ -32,8 +33,7 @@ beforeAll(async () => {
     if (!existsSync(tool)) throw new Error(`${tool} missing: the share test reads the PDF back with poppler-utils (apt-get install -y poppler-utils)`);
   }
   mkdirSync(outDir, { recursive: true });
-  browser = await launchChromium();
-  context = await newAppContext(browser, { viewport: tablet, acceptDownloads: true });
+  context = await newAppContext(chromium.browser, { viewport: tablet, acceptDownloads: true });
   // Each document reads the mode the test chose: no Web Share API at all, or a stub that takes the
   // file, is closed by the person (AbortError) or refuses (NotAllowedError, as after a lapsed tap).
   await context.addInitScript(() => {
@@ -78,7 +78,6 @@ beforeAll(async () => {
 }, 120_000);
 afterAll(async () => {
   await context?.close();
-  await browser?.close();
 });
 
 async function openReport(path: string, mode: ShareMode): Promise<void> {
