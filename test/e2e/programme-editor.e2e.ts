@@ -3,23 +3,17 @@
 // mistyped dose is refused in plain words naming the exercise and field (the field's name from the
 // catalogue; before, the therapist read valibot's "Invalid type: Expected number but received NaN"),
 // with the typing kept.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
-import type { Browser } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { newAppContext, reflowProblems, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const chromium = sharedChromium();
 
 describe('the programme page on a phone and a tablet', () => {
   it('reflows at 360 px with 200 % text, passes axe at both sizes, and refuses a mistyped dose naming the exercise and field', async () => {
-    const context = await newAppContext(browser, { viewport: tablet });
+    const context = await newAppContext(chromium.browser, { viewport: tablet });
     const t = await context.newPage();
     await t.goto('/');
     await waitForOfflineWorker(t);
