@@ -2,23 +2,20 @@
 // programme (one large, noisy PNG drawn here with a canvas, so the encoder must step down; bad
 // files refused by name), each is kept as WebP of at most 150,000 bytes and 1024 px, goes in the
 // hand-off file (the QR codes say they carry text only), and the patient's phone shows it large.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Download, Page } from 'playwright-core';
+import type { Download, Page } from 'playwright-core';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { newAppContext, reflowProblems, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
 const work = join('test-output', 'photos-e2e');
 /** The programme file (with photos) and its code, handed over by the first test, received in Spanish by the second. */
 let handedOver: { file: string; code: string } | null = null;
-let browser: Browser;
+const chromium = sharedChromium();
 beforeAll(async () => {
-  browser = await launchChromium();
   mkdirSync(work, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 /**
@@ -84,7 +81,7 @@ const firstBytes = (b: PhotoRow['bytes'], n: number) => Array.from({ length: n }
 
 describe('exercise photos, offline, from the therapist tablet to the patient phone', () => {
   it('shrinks picked pictures to WebP ≤ 150 KB, refuses bad files by name, hands them over in the file and shows them large on the phone', async () => {
-    const therapistContext = await newAppContext(browser, { viewport: tablet });
+    const therapistContext = await newAppContext(chromium.browser, { viewport: tablet });
     const t = await therapistContext.newPage();
     await t.goto('/');
     await waitForOfflineWorker(t);
@@ -188,7 +185,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
     await t.setViewportSize(tablet);
 
     // The patient's phone, 360 px wide, offline.
-    const phoneContext = await newAppContext(browser, { viewport: smallPhone });
+    const phoneContext = await newAppContext(chromium.browser, { viewport: smallPhone });
     const p = await phoneContext.newPage();
     await p.goto('/');
     await waitForOfflineWorker(p);
@@ -223,7 +220,7 @@ describe('exercise photos, offline, from the therapist tablet to the patient pho
 
   it('speaks Spanish on every patient screen, chosen on the phone or by the therapist at hand-over: lang="es", no English left, axe clean, reflows at 200 % text', async () => {
     expect(handedOver, 'the first test handed a programme over').not.toBeNull();
-    const context = await newAppContext(browser, { viewport: smallPhone });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone });
     const p = await context.newPage();
     await p.goto('/');
     await waitForOfflineWorker(p);
