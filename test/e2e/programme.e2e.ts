@@ -2,21 +2,18 @@
 // two separate browser contexts (separate IndexedDB), both offline after their first load. The
 // programme goes over as QR codes (photos of them) with a code, the report comes back as a file;
 // wrong, tampered, foreign and repeated files are refused or change nothing.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Download, Page } from 'playwright-core';
+import type { Download, Page } from 'playwright-core';
 import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { newAppContext, reflowProblems, rootFontPx, screenshot, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForOfflineWorker, waitForSettledPage } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
 const work = join('test-output', 'programme-e2e');
-let browser: Browser;
+const chromium = sharedChromium();
 beforeAll(async () => {
-  browser = await launchChromium();
   mkdirSync(work, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 async function savedDownload(page: Page, click: () => Promise<void>, name: string): Promise<string> {
@@ -98,7 +95,7 @@ async function writeProgramme(page: Page, patientPath: string, exercises: { name
 describe('home programme hand-off, offline, between two devices', () => {
   it('hands a programme to the patient phone and brings adherence back; refuses wrong, tampered, foreign and repeated files', async () => {
     // Therapist's tablet: first load online, then offline for good.
-    const therapistContext = await newAppContext(browser, { viewport: tablet });
+    const therapistContext = await newAppContext(chromium.browser, { viewport: tablet });
     const t = await therapistContext.newPage();
     await t.goto('/');
     await waitForOfflineWorker(t);
@@ -139,7 +136,7 @@ describe('home programme hand-off, offline, between two devices', () => {
     const foreignProgramme = await savedDownload(t, () => t.getByRole('button', { name: 'Share or save the file' }).click(), 'foreign-programme.json');
 
     // The patient's own phone, 360 × 740.
-    const phoneContext = await newAppContext(browser, { viewport: smallPhone });
+    const phoneContext = await newAppContext(chromium.browser, { viewport: smallPhone });
     const p = await phoneContext.newPage();
     await p.goto('/');
     await waitForOfflineWorker(p);
