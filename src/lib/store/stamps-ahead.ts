@@ -52,6 +52,9 @@ export async function moveStampsAheadOfTeamTime(store: KinnoteStore): Promise<Mo
   };
   const moved: MovedStamp[] = [];
   try {
+    // Almost every sync finds nothing ahead: a read-only look (an index range on the stamp) keeps it
+    // from taking a read-write lock over every record table; the write re-reads inside its own.
+    if (!(await anyStampBeyond(store, limit))) return moved;
     await store.db.transaction('rw', [...TABLE_NAMES], async (tx) => {
       for (const table of TABLE_NAMES) {
         const rows = (await rowsChangedSince(store, table, limit).toArray()) as RecordBase[];
@@ -85,4 +88,12 @@ export async function moveStampsAheadOfTeamTime(store: KinnoteStore): Promise<Mo
     throw toStoreError(error, 'moving stamps onto the team clock');
   }
   return moved;
+}
+
+/** Whether any record table holds a row stamped after `limit`, read in one read-only transaction. */
+async function anyStampBeyond(store: KinnoteStore, limit: string): Promise<boolean> {
+  return store.db.transaction('r', [...TABLE_NAMES], async () => {
+    for (const table of TABLE_NAMES) if ((await rowsChangedSince(store, table, limit).count()) > 0) return true;
+    return false;
+  });
 }

@@ -1,7 +1,7 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { MAX_CLOCK_SKEW_MS } from '../../../src/lib/domain';
 import { moveStampsAheadOfTeamTime } from '../../../src/lib/store';
-import { freshStore } from './store-helpers';
+import { freshStore, seedPatient } from './store-helpers';
 
 const HOUR = 3600_000;
 const T0 = Date.UTC(2025, 4, 12, 8); // team time when the device first syncs (invented)
@@ -50,5 +50,25 @@ describe('moveStampsAheadOfTeamTime', () => {
     // Nothing is left ahead: a second pass moves nothing and writes no entry.
     expect(await moveStampsAheadOfTeamTime(store)).toEqual([]);
     expect(((await store.db.table('audit').toArray()) as { after: { stamps?: unknown } | null }[]).filter((e) => e.after?.stamps !== undefined).length).toBe(1);
+  });
+
+  it('opens no read-write transaction when nothing is ahead of team time (the usual sync), and writes nothing', async () => {
+    const store = await freshStore();
+    await seedPatient(store);
+    // A clock that was right: offset 0, every stamp at or before team now.
+    await store.clock.setOffset(0);
+    const auditBefore = await store.db.table('audit').count();
+    const modes: string[] = [];
+    const original = store.db.transaction.bind(store.db) as (...args: unknown[]) => unknown;
+    const spy = vi.spyOn(store.db, 'transaction').mockImplementation(((...args: unknown[]) => {
+      modes.push(String(args[0]));
+      return original(...args);
+    }) as never);
+    expect(await moveStampsAheadOfTeamTime(store)).toEqual([]);
+    spy.mockRestore();
+    // It did look (so the test sees the mode it looked in), and no look took a write lock.
+    expect(modes.length).toBeGreaterThan(0);
+    expect(modes.filter((m) => m.includes('w'))).toEqual([]);
+    expect(await store.db.table('audit').count()).toBe(auditBefore);
   });
 });
