@@ -3,20 +3,17 @@
 // outside the app), at 360 px and 1024 px, axe clean.
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
 import { setUpDevice } from './app-helpers';
-import { launchChromium, newAppContext, runScriptInPage, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
+import { newAppContext, runScriptInPage, screenshot, seriousAxeViolations, smallPhone, tablet } from './harness';
+import { sharedChromium } from '../support/shared-browser';
 
-let browser: Browser;
+const chromium = sharedChromium();
 let bundle: string;
 beforeAll(async () => {
   bundle = await bundleForPage('test/e2e/in-page/store-checks.ts', 'kinnoteStoreChecks');
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 /** Every object store's count in the app's database, read with plain IndexedDB. */
@@ -46,7 +43,7 @@ function storeCounts(page: Page): Promise<Record<string, number>> {
 
 describe('streamed backup', () => {
   it('shows progress, cancels leaving the store as it was, then saves a file that checks out', async () => {
-    const context = await newAppContext(browser, { viewport: smallPhone, acceptDownloads: true });
+    const context = await newAppContext(chromium.browser, { viewport: smallPhone, acceptDownloads: true });
     const page = await context.newPage();
     await setUpDevice(page, { demo: false });
     await runScriptInPage(page, bundle);

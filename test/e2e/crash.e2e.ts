@@ -1,6 +1,8 @@
 // Browser faults: Chromium killed with SIGKILL a moment after typing or after Save, then restarted on
 // the same profile. Checks: no duplicate assessment, no typed value older than a second lost, the
 // audit log consistent with the records. Counts are printed for the report.
+// The one browser-test file that starts its own Chromium rather than sharedChromium's: killing the
+// whole browser and restarting it on the same profile directory is what it tests.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';

@@ -7,13 +7,14 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli, ServerProcess } from '../server-load/server-process';
 import { newPostgresDatabase, pgDump, secretsIn } from '../unit/server/pg-dump';
 import { newPgliteDataDir } from '../unit/server/pglite-template';
+import { sharedChromium } from '../support/shared-browser';
 import { setUpDevice, tableRows } from './app-helpers';
-import { launchChromium, newAppContext, screenshotDir, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker } from './harness';
+import { newAppContext, screenshotDir, seriousAxeViolations, smallPhone, tablet, waitForOfflineWorker } from './harness';
 
 // Invented people (names, birth dates and notes made up for this test).
 const PEOPLE = {
@@ -25,7 +26,7 @@ const SECRETS = Object.values(PEOPLE).flatMap((p) => [p.given, p.family, p.dob, 
 // PGlite by default; with KINNOTE_E2E_TEAM_DATABASE_URL (a PostgreSQL server, e.g. the throwaway
 // cluster's URL) the same test runs on a new database there and ends with a pg_dump scan.
 const POSTGRES = process.env.KINNOTE_E2E_TEAM_DATABASE_URL;
-let browser: Browser;
+const chromium = sharedChromium();
 let server: ServerProcess;
 let dataDir: string;
 let databaseUrl = '';
@@ -36,18 +37,11 @@ beforeAll(async () => {
   // A migrated PGlite folder from the template (initdb in WebAssembly would add 35–45 s here).
   else await newPgliteDataDir(dataDir);
   const env = { ...process.env, DATABASE_URL: databaseUrl };
-  // Chromium starts while the team is made and the server opens its folder.
-  const launching = launchChromium();
-  try {
-    initCode = (JSON.parse(await runCli(['team-server', 'init', '--name', 'Riverside test team', '--data', dataDir], env)) as { code: string }).code;
-    server = new ServerProcess(['--port', '0', '--host', '127.0.0.1', '--data', dataDir], env);
-    await server.start();
-  } finally {
-    browser = await launching;
-  }
+  initCode = (JSON.parse(await runCli(['team-server', 'init', '--name', 'Riverside test team', '--data', dataDir], env)) as { code: string }).code;
+  server = new ServerProcess(['--port', '0', '--host', '127.0.0.1', '--data', dataDir], env);
+  await server.start();
 });
 afterAll(async () => {
-  await browser?.close();
   await server?.stop();
   if (dataDir) rmSync(dataDir, { recursive: true, force: true });
 });
@@ -58,7 +52,7 @@ afterAll(async () => {
  * so its contexts bypass the policy (security-policy.e2e.ts tests the policy itself).
  */
 async function device(viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await newAppContext(browser, { viewport, bypassCSP: true });
+  const context = await newAppContext(chromium.browser, { viewport, bypassCSP: true });
   const page = await context.newPage();
   await setUpDevice(page, { demo: false });
   await waitForOfflineWorker(page);
