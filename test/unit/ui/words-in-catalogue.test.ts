@@ -12,10 +12,24 @@ import { describe, expect, it } from 'vitest';
 
 const ROOT = join(__dirname, '../../..');
 
-/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's programme editor and hand-over, and the drafts list the editor shows. */
-const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]/programme', 'src/lib/ui/OtherDrafts.svelte'];
-/** The catalogues themselves (where the words belong) and code with no words. */
-const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages)\.ts$/;
+/**
+ * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
+ * the therapist's programme editor and hand-over, the drafts list the editor shows, and the therapist's
+ * first screen, menu and caseload.
+ */
+const COVERED = [
+  'src/routes/home-programme',
+  'src/lib/ui/programme',
+  'src/routes/patients/[id]/programme',
+  'src/lib/ui/OtherDrafts.svelte',
+  'src/routes/+page.svelte',
+  'src/routes/+layout.svelte',
+  'src/routes/patients/+page.svelte',
+  'src/routes/patients/CaseloadRow.svelte',
+  'src/routes/patients/caseload-loader.ts',
+];
+/** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
+const CATALOGUES = /-messages(?:-es)?\.ts$/;
 
 interface Finding {
   readonly line: number;
