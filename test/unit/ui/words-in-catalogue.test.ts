@@ -15,7 +15,7 @@ const ROOT = join(__dirname, '../../..');
 /**
  * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
  * the therapist's programme editor and hand-over, the drafts list the editor shows, and the therapist's
- * first screen, menu and caseload.
+ * first screen, menu and caseload, and the shared components of lib/ui.
  */
 const COVERED = [
   'src/routes/home-programme',
@@ -27,6 +27,12 @@ const COVERED = [
   'src/routes/patients/+page.svelte',
   'src/routes/patients/CaseloadRow.svelte',
   'src/routes/patients/caseload-loader.ts',
+  'src/lib/ui/UnlockPanel.svelte',
+  'src/lib/ui/SetupDevice.svelte',
+  'src/lib/ui/UpdateBanner.svelte',
+  'src/lib/ui/ChoiceButtons.svelte',
+  'src/lib/ui/VirtualList.svelte',
+  'src/lib/ui/ReanalysisNotice.svelte',
 ];
 /** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
 const CATALOGUES = /-messages(?:-es)?\.ts$/;
@@ -84,7 +90,8 @@ export function wordsWrittenIn(source: string, kind: 'svelte' | 'ts'): Finding[]
   const found: Finding[] = [];
   const add = (offset: number, words: string) => found.push({ line: lineOf(text, offset), words: words.trim().replace(/\s+/g, ' ') });
   walk(ast.fragment, (n, parent) => {
-    if (n.type === 'Text' && hasWords(String(n.data)) && parent?.type !== 'Attribute') add(n.start ?? 0, String(n.data));
+    // A style directive's text is CSS (`style:height="{h}px"`), never read as words.
+    if (n.type === 'Text' && hasWords(String(n.data)) && parent?.type !== 'Attribute' && parent?.type !== 'StyleDirective') add(n.start ?? 0, String(n.data));
     if (n.type === 'Attribute' && Array.isArray(n.value)) {
       const owner = parent?.type;
       const read = READ_ATTRIBUTES.has(String(n.name)) || owner === 'Component';
@@ -150,6 +157,7 @@ describe('words in the message catalogue', () => {
     // Names a person never reads are not words: classes, keys, ids, paths, a code's shape.
     expect(words.join(' | ')).not.toMatch(/hint|kind=|\.\/x/);
     expect(wordsWrittenIn('<input class="big code" name="handover-language" placeholder="XXXXX-XXXXX" />', 'svelte')).toEqual([]);
+    expect(wordsWrittenIn('<li style:top="{top}px" style:height="{h}px">{label}</li>', 'svelte')).toEqual([]);
     // A module's prose is found too, with its line.
     expect(wordsWrittenIn("const a = { title: 'Title' };\nexport const b = `Exercise ${1}, hold`;\n", 'ts')).toEqual([
       { line: 1, words: 'Title' },
