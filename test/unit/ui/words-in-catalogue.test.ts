@@ -15,7 +15,7 @@ const ROOT = join(__dirname, '../../..');
 /**
  * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
  * the therapist's programme editor and hand-over, the drafts list the editor shows, and the therapist's
- * first screen, menu and caseload, and the shared components of lib/ui.
+ * first screen, menu, caseload, new-patient form and settings, and the shared components of lib/ui.
  */
 const COVERED = [
   'src/routes/home-programme',
@@ -27,6 +27,8 @@ const COVERED = [
   'src/routes/patients/+page.svelte',
   'src/routes/patients/CaseloadRow.svelte',
   'src/routes/patients/caseload-loader.ts',
+  'src/routes/patients/new',
+  'src/routes/settings',
   'src/lib/ui/UnlockPanel.svelte',
   'src/lib/ui/SetupDevice.svelte',
   'src/lib/ui/UpdateBanner.svelte',
@@ -101,8 +103,10 @@ export function wordsWrittenIn(source: string, kind: 'svelte' | 'ts'): Finding[]
   });
   const scripts = [ast.instance?.content, ast.module?.content, ast.fragment];
   for (const script of scripts) {
-    walk(script, (n) => {
-      if (n.type === 'Literal' && typeof n.value === 'string' && PROSE_STRING(n.value)) add(n.start ?? 0, n.value);
+    walk(script, (n, parent) => {
+      // A string compared with === or !== is a key (an error code such as 'Aborted'), never shown.
+      const compared = parent?.type === 'BinaryExpression' && (parent.operator === '===' || parent.operator === '!==');
+      if (n.type === 'Literal' && typeof n.value === 'string' && !compared && PROSE_STRING(n.value)) add(n.start ?? 0, n.value);
       if (n.type === 'TemplateElement') {
         const cooked = (n.value as { cooked?: string }).cooked ?? '';
         if (PROSE_STRING(cooked)) add(n.start ?? 0, cooked);
@@ -158,6 +162,8 @@ describe('words in the message catalogue', () => {
     expect(words.join(' | ')).not.toMatch(/hint|kind=|\.\/x/);
     expect(wordsWrittenIn('<input class="big code" name="handover-language" placeholder="XXXXX-XXXXX" />', 'svelte')).toEqual([]);
     expect(wordsWrittenIn('<li style:top="{top}px" style:height="{h}px">{label}</li>', 'svelte')).toEqual([]);
+    // A compared string is a key; the same string shown is found.
+    expect(wordsWrittenIn("const cancelled = e.code === 'Aborted';\nconst shown = 'Aborted';\n", 'ts')).toEqual([{ line: 2, words: 'Aborted' }]);
     // A module's prose is found too, with its line.
     expect(wordsWrittenIn("const a = { title: 'Title' };\nexport const b = `Exercise ${1}, hold`;\n", 'ts')).toEqual([
       { line: 1, words: 'Title' },
