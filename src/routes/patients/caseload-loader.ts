@@ -1,6 +1,7 @@
 // The caseload's named loaders: rows (first screen from an index, then everyone) and first names.
 import type { KinnoteStore } from '$lib/store';
 import { caseloadRows, type CaseloadRow } from '$lib/ui';
+import * as t from './caseload-messages';
 
 /** Rows of the first screen, read from an index before the whole caseload. */
 export const FIRST_SCREEN_ROWS = 40;
@@ -31,9 +32,9 @@ export async function loadFirstNames(store: KinnoteStore | null): Promise<Map<st
 
 /** "Due in 3 days", "Overdue by 2 days", "Due today", or why there is no date. */
 export function dueText(row: CaseloadRow, nowMs: number): string {
-  if (row.nextDueMs === null) return row.patient.status === 'active' ? 'No assessment yet' : row.patient.status;
+  if (row.nextDueMs === null) return row.patient.status === 'active' ? t.noAssessmentYet : row.patient.status;
   const days = Math.round((row.nextDueMs - nowMs) / 86_400_000);
-  if (days < 0) return `Overdue by ${-days} day${days === -1 ? '' : 's'}`;
-  if (days === 0) return 'Due today';
-  return `Due in ${days} day${days === 1 ? '' : 's'}`;
+  if (days < 0) return t.overdueBy(-days);
+  if (days === 0) return t.dueToday;
+  return t.dueIn(days);
 }

@@ -12,7 +12,12 @@ import { describe, expect, it } from 'vitest';
 
 const ROOT = join(__dirname, '../../..');
 
-/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's programme editor and hand-over, the drafts list the editor shows, and the patient page's home-log timeline. */
+/**
+ * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
+ * the therapist's programme editor and hand-over, the drafts list the editor shows, and the therapist's
+ * first screen, menu, caseload, new-patient form and settings, the shared components of lib/ui, and
+ * the patient page's home-log timeline.
+ */
 const COVERED = [
   'src/routes/home-programme',
   'src/lib/ui/programme',
@@ -21,9 +26,22 @@ const COVERED = [
   'src/routes/patients/[id]/HomeLogTimeline.svelte',
   'src/routes/patients/[id]/HomeLogTables.svelte',
   'src/routes/patients/[id]/home-log.ts',
+  'src/routes/+page.svelte',
+  'src/routes/+layout.svelte',
+  'src/routes/patients/+page.svelte',
+  'src/routes/patients/CaseloadRow.svelte',
+  'src/routes/patients/caseload-loader.ts',
+  'src/routes/patients/new',
+  'src/routes/settings',
+  'src/lib/ui/UnlockPanel.svelte',
+  'src/lib/ui/SetupDevice.svelte',
+  'src/lib/ui/UpdateBanner.svelte',
+  'src/lib/ui/ChoiceButtons.svelte',
+  'src/lib/ui/VirtualList.svelte',
+  'src/lib/ui/ReanalysisNotice.svelte',
 ];
-/** The catalogues themselves (where the words belong) and code with no words. */
-const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages|home-log-messages)\.ts$/;
+/** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
+const CATALOGUES = /-messages(?:-es)?\.ts$/;
 
 interface Finding {
   readonly line: number;
@@ -78,7 +96,8 @@ export function wordsWrittenIn(source: string, kind: 'svelte' | 'ts'): Finding[]
   const found: Finding[] = [];
   const add = (offset: number, words: string) => found.push({ line: lineOf(text, offset), words: words.trim().replace(/\s+/g, ' ') });
   walk(ast.fragment, (n, parent) => {
-    if (n.type === 'Text' && hasWords(String(n.data)) && parent?.type !== 'Attribute') add(n.start ?? 0, String(n.data));
+    // A style directive's text is CSS (`style:height="{h}px"`), never read as words.
+    if (n.type === 'Text' && hasWords(String(n.data)) && parent?.type !== 'Attribute' && parent?.type !== 'StyleDirective') add(n.start ?? 0, String(n.data));
     if (n.type === 'Attribute' && Array.isArray(n.value)) {
       const owner = parent?.type;
       const read = READ_ATTRIBUTES.has(String(n.name)) || owner === 'Component';
@@ -88,8 +107,10 @@ export function wordsWrittenIn(source: string, kind: 'svelte' | 'ts'): Finding[]
   });
   const scripts = [ast.instance?.content, ast.module?.content, ast.fragment];
   for (const script of scripts) {
-    walk(script, (n) => {
-      if (n.type === 'Literal' && typeof n.value === 'string' && PROSE_STRING(n.value)) add(n.start ?? 0, n.value);
+    walk(script, (n, parent) => {
+      // A string compared with === or !== is a key (an error code such as 'Aborted'), never shown.
+      const compared = parent?.type === 'BinaryExpression' && (parent.operator === '===' || parent.operator === '!==');
+      if (n.type === 'Literal' && typeof n.value === 'string' && !compared && PROSE_STRING(n.value)) add(n.start ?? 0, n.value);
       if (n.type === 'TemplateElement') {
         const cooked = (n.value as { cooked?: string }).cooked ?? '';
         if (PROSE_STRING(cooked)) add(n.start ?? 0, cooked);
@@ -144,6 +165,9 @@ describe('words in the message catalogue', () => {
     // Names a person never reads are not words: classes, keys, ids, paths, a code's shape.
     expect(words.join(' | ')).not.toMatch(/hint|kind=|\.\/x/);
     expect(wordsWrittenIn('<input class="big code" name="handover-language" placeholder="XXXXX-XXXXX" />', 'svelte')).toEqual([]);
+    expect(wordsWrittenIn('<li style:top="{top}px" style:height="{h}px">{label}</li>', 'svelte')).toEqual([]);
+    // A compared string is a key; the same string shown is found.
+    expect(wordsWrittenIn("const cancelled = e.code === 'Aborted';\nconst shown = 'Aborted';\n", 'ts')).toEqual([{ line: 2, words: 'Aborted' }]);
     // A module's prose is found too, with its line.
     expect(wordsWrittenIn("const a = { title: 'Title' };\nexport const b = `Exercise ${1}, hold`;\n", 'ts')).toEqual([
       { line: 1, words: 'Title' },
