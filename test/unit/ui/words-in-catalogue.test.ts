@@ -12,10 +12,12 @@ import { describe, expect, it } from 'vitest';
 
 const ROOT = join(__dirname, '../../..');
 
-/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's programme editor and hand-over, and the drafts list the editor shows. */
-const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]/programme', 'src/lib/ui/OtherDrafts.svelte'];
+/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's patient page with its programme editor and hand-over, and the drafts list the editor shows. */
+const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]', 'src/lib/ui/OtherDrafts.svelte'];
+/** Parts of a covered folder not moved to a catalogue yet (the visit form, the home-log timeline, the report, the saved swing). */
+const NOT_YET = ['src/routes/patients/[id]/assess', 'src/routes/patients/[id]/HomeLogTimeline.svelte', 'src/routes/patients/[id]/report', 'src/routes/patients/[id]/pendulum'];
 /** The catalogues themselves (where the words belong) and code with no words. */
-const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages)\.ts$/;
+const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages|patient-page-messages)\.ts$/;
 
 interface Finding {
   readonly line: number;
@@ -96,6 +98,7 @@ function filesUnder(folder: string): string[] {
   const out: string[] = [];
   for (const name of readdirSync(folder)) {
     const path = join(folder, name);
+    if (NOT_YET.some((part) => path === join(ROOT, part))) continue;
     if (statSync(path).isDirectory()) out.push(...filesUnder(path));
     else if (/\.(svelte|ts)$/.test(name) && !CATALOGUES.test(name)) out.push(path);
   }
