@@ -16,6 +16,7 @@ export { default as PendulumResult } from './instruments/PendulumResult.svelte';
 export { saveReadingAndReturn } from './instruments/save-reading-alone';
 export { localMdcList } from './local-mdc';
 export { PATIENT_PAGE_MESSAGES } from './messages/patient-page-messages';
+export { REPORT_MESSAGES } from './messages/report-messages';
 export { type OverviewGroup, overviewGroups } from './overview-groups';
 export { default as AdherenceSummary } from './programme/AdherenceSummary.svelte';
 export { default as DoseLine } from './programme/DoseLine.svelte';
