@@ -15,6 +15,7 @@ export { default as PendulumPhone } from './instruments/PendulumPhone.svelte';
 export { default as PendulumResult } from './instruments/PendulumResult.svelte';
 export { saveReadingAndReturn } from './instruments/save-reading-alone';
 export { localMdcList } from './local-mdc';
+export { INSTRUMENT_MESSAGES } from './messages/instrument-messages';
 export { PATIENT_PAGE_MESSAGES } from './messages/patient-page-messages';
 export { REPORT_MESSAGES } from './messages/report-messages';
 export { type OverviewGroup, overviewGroups } from './overview-groups';

@@ -12,12 +12,12 @@ import { describe, expect, it } from 'vitest';
 
 const ROOT = join(__dirname, '../../..');
 
-/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's patient page with its programme editor and hand-over, and the drafts list the editor shows. */
-const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]', 'src/lib/ui/OtherDrafts.svelte'];
-/** Parts of a covered folder not moved to a catalogue yet (the visit form, the home-log timeline, the saved swing). */
-const NOT_YET = ['src/routes/patients/[id]/assess', 'src/routes/patients/[id]/HomeLogTimeline.svelte', 'src/routes/patients/[id]/pendulum'];
+/** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's patient page (report, saved swing, programme editor and hand-over), the measuring instruments and their pages, and the drafts list the programme editor shows. */
+const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]', 'src/routes/measure', 'src/lib/ui/instruments', 'src/lib/ui/OtherDrafts.svelte'];
+/** Parts of a covered folder not moved to a catalogue yet (the visit form, the home-log timeline). */
+const NOT_YET = ['src/routes/patients/[id]/assess', 'src/routes/patients/[id]/HomeLogTimeline.svelte'];
 /** The catalogues themselves (where the words belong) and code with no words. */
-const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages|patient-page-messages|report-messages)\.ts$/;
+const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages|patient-page-messages|report-messages|instrument-messages)\.ts$/;
 
 interface Finding {
   readonly line: number;
@@ -146,7 +146,7 @@ describe('words in the message catalogue', () => {
     ]);
   });
 
-  it('has no words written in the patient screens, the programme components or the programme editor and hand-over', () => {
+  it('has no words written in the covered screens (patient mode, the programme, the patient page, report and instruments)', () => {
     const written: string[] = [];
     for (const folder of COVERED) {
       for (const file of filesUnder(join(ROOT, folder))) {
