@@ -3,6 +3,7 @@
 export { type ValidationIssue } from './domain-error';
 export { ANGLE_LIMITS_DEG, RecordingInputError } from './recording-input-error';
 export { formatFixed } from './format-fixed';
+export { dateWriter } from './date-writer';
 export { createUuidV7Generator, formatUuidV7, type RandomBytes } from './uuid-v7';
 export {
   IdSchema,

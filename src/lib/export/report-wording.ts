@@ -1,3 +1,4 @@
+import { dateWriter } from '../domain';
 import type { ReferralReport, ReportIntervention } from './referral-report';
 
 /**
@@ -30,16 +31,14 @@ export const REPORT_CHART_LEGEND = 'Chart: hollow dot = baseline; shaded band = 
 export const NO_INTERVENTIONS_TEXT = 'None recorded in this period.';
 export const NO_VISITS_TEXT = 'None.';
 
-/** Formats calendar days (YYYY-MM-DD) for the report, e.g. "3 Dec 2026" (the locale's order); UTC noon, so no zone shifts the day. */
+/** Formats calendar days (YYYY-MM-DD) for the report, e.g. "3 Dec 2026": the app's one day format (domain/date-writer.ts). */
 export function reportDayFormatter(locale?: string): (day: string) => string {
-  const format = new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
-  return (day) => format.format(Date.parse(`${day}T12:00:00Z`));
+  return dateWriter(locale === undefined ? {} : { locale }).day;
 }
 
-/** Formats the Monday of an adherence week without its year, e.g. "27 Apr". */
+/** Formats the Monday of an adherence week without its year, e.g. "27 Apr" (domain/date-writer.ts). */
 export function reportWeekFormatter(locale?: string): (weekStart: string) => string {
-  const format = new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', timeZone: 'UTC' });
-  return (weekStart) => format.format(Date.parse(`${weekStart}T12:00:00Z`));
+  return dateWriter(locale === undefined ? {} : { locale }).dayInYear;
 }
 
 /** "Patient K7QM-3XHD", and " · Name, born 3 Dec 1961" only when the report carries the identity. */

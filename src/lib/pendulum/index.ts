@@ -3,7 +3,7 @@
 export { analysePendulumTrace } from './analyse-pendulum-trace';
 export { analysePendulumCsv, parseAndAnalysePendulumCsv, type PendulumCsvResult } from './analyse-pendulum-csv';
 export { PendulumInputError } from './pendulum-input-error';
-export { pendulumInputFromTrace } from './pendulum-input-from-trace';
+export { PENDULUM_FILE_CHANNEL_NAMES, pendulumInputFromTrace } from './pendulum-input-from-trace';
 export { pendulumObservations } from './pendulum-observations';
 export type {
   PendulumAnalysis,

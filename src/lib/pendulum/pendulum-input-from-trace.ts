@@ -8,6 +8,12 @@ export interface StoredTraceColumns {
 }
 
 /**
+ * The channel names a pendulum test from a file is saved under (stored data, not words of the page):
+ * the knee's angular velocity must say "knee" for pendulumInputFromTrace to read it back.
+ */
+export const PENDULUM_FILE_CHANNEL_NAMES = { angleDeg: 'knee flexion angle', gyroDps: 'knee angular velocity', emgUv: 'EMG' } as const;
+
+/**
  * Reads a saved pendulum trace back into the engine's input, by the channels' units (names differ between
  * a file import, the phone recorder and the demo): time from a channel in "s" or "ms" (else sample i at
  * i / sampleRateHz); knee angle from the channel in "deg"; knee angular velocity from a "deg/s" channel

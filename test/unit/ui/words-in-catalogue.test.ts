@@ -14,18 +14,17 @@ const ROOT = join(__dirname, '../../..');
 
 /**
  * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
- * the therapist's programme editor and hand-over, the drafts list the editor shows, and the therapist's
- * first screen, menu, caseload, new-patient form and settings, the shared components of lib/ui, and
- * the patient page's home-log timeline.
+ * the therapist's patient page (home-log timeline, report, saved swing, programme editor and hand-over),
+ * the measuring instruments and their pages, the drafts list the programme editor shows, the therapist's
+ * first screen, menu, caseload, new-patient form and settings, and the shared components of lib/ui.
  */
 const COVERED = [
   'src/routes/home-programme',
   'src/lib/ui/programme',
-  'src/routes/patients/[id]/programme',
+  'src/routes/patients/[id]',
+  'src/routes/measure',
+  'src/lib/ui/instruments',
   'src/lib/ui/OtherDrafts.svelte',
-  'src/routes/patients/[id]/HomeLogTimeline.svelte',
-  'src/routes/patients/[id]/HomeLogTables.svelte',
-  'src/routes/patients/[id]/home-log.ts',
   'src/routes/+page.svelte',
   'src/routes/+layout.svelte',
   'src/routes/patients/+page.svelte',
@@ -40,6 +39,8 @@ const COVERED = [
   'src/lib/ui/VirtualList.svelte',
   'src/lib/ui/ReanalysisNotice.svelte',
 ];
+/** Parts of a covered folder not moved to a catalogue yet (the visit form). */
+const NOT_YET = ['src/routes/patients/[id]/assess'];
 /** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
 const CATALOGUES = /-messages(?:-es)?\.ts$/;
 
@@ -125,6 +126,7 @@ function filesUnder(folder: string): string[] {
   const out: string[] = [];
   for (const name of readdirSync(folder)) {
     const path = join(folder, name);
+    if (NOT_YET.some((part) => path === join(ROOT, part))) continue;
     if (statSync(path).isDirectory()) out.push(...filesUnder(path));
     else if (/\.(svelte|ts)$/.test(name) && !CATALOGUES.test(name)) out.push(path);
   }
@@ -175,7 +177,7 @@ describe('words in the message catalogue', () => {
     ]);
   });
 
-  it('has no words written in the patient screens, the programme components or the programme editor and hand-over', () => {
+  it('has no words written in the covered screens (patient mode, the programme, the patient page, report and instruments)', () => {
     const written: string[] = [];
     for (const folder of COVERED) {
       for (const file of filesUnder(join(ROOT, folder))) {

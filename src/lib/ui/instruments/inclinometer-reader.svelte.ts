@@ -1,4 +1,5 @@
 import { DeviceMotionSource, angleBetweenDeg, axisAngleToVerticalDeg, steadyReading, type MotionProblem, type SteadyReading } from '$lib/sensors';
+import { INSTRUMENT_MESSAGES as m } from '../messages/instrument-messages';
 import { startMotionInTap } from './motion-permission';
 
 /**
@@ -36,13 +37,13 @@ export class InclinometerReader {
 
   setZero(): void {
     if (!this.reading?.steady) {
-      this.message = 'Hold the phone still against the segment until it says "steady", then try again.';
+      this.message = m.notSteadyAtZero;
       return;
     }
     this.zero = this.reading;
     this.end = null;
     this.jointDeg = null;
-    this.message = 'Zero set. Now move the joint to the end position, hold the phone still there and tap "Measure end position".';
+    this.message = m.zeroSet;
   }
 
   setEnd(): void {
@@ -50,12 +51,12 @@ export class InclinometerReader {
     if (!zero) return;
     const r = this.reading;
     if (!r?.steady) {
-      this.message = 'Hold the phone still in the end position until it says "steady", then try again.';
+      this.message = m.notSteadyAtEnd;
       return;
     }
     this.end = r;
     this.jointDeg = angleBetweenDeg(zero.meanX, zero.meanY, zero.meanZ, r.meanX, r.meanY, r.meanZ);
-    this.message = 'Joint angle measured (average of the last second in each position).';
+    this.message = m.angleMeasured;
   }
 
   dispose(): void {

@@ -1,12 +1,13 @@
 import { formatFixed, type Side } from '$lib/domain';
-import { pendulumObservations, type PendulumIndices } from '$lib/pendulum';
+import { PENDULUM_FILE_CHANNEL_NAMES as CHANNEL, pendulumObservations, type PendulumIndices } from '$lib/pendulum';
 import { motionTraceChannels, romObservation, type KneeAngleReconstruction, type MotionRecording, type SteadyReading } from '$lib/sensors';
 import type { PendulumResult } from '$lib/workers';
+import { INSTRUMENT_MESSAGES as m } from '../messages/instrument-messages';
 import { plainChannels, type VisitReading } from '../visit-readings';
 
 /** One line naming a pendulum result: side and the relaxation index. */
 function pendulumTitle(label: string, side: Side, indices: PendulumIndices): string {
-  return `${label}, ${side} knee: R2 ${formatFixed(indices.relaxationIndex, 2)}, resting angle ${formatFixed(indices.restAngleDeg, 1)}°`;
+  return m.pendulumTitle(label, side, formatFixed(indices.relaxationIndex, 2), formatFixed(indices.restAngleDeg, 1));
 }
 
 function pendulumParts(indices: PendulumIndices, side: Side) {
@@ -18,14 +19,14 @@ function pendulumParts(indices: PendulumIndices, side: Side) {
 export function pendulumFileReading(result: PendulumResult, side: Side, key: string, startedAt: string): VisitReading {
   const raw = result.raw;
   const channels = [{ name: 'time', unit: 's', samples: raw.timeS }];
-  if (raw.angleDeg) channels.push({ name: 'knee flexion angle', unit: 'deg', samples: raw.angleDeg });
-  if (raw.gyroDps) channels.push({ name: 'knee angular velocity', unit: 'deg/s', samples: raw.gyroDps });
-  if (raw.emgUv) channels.push({ name: 'EMG', unit: 'uV', samples: raw.emgUv });
+  if (raw.angleDeg) channels.push({ name: CHANNEL.angleDeg, unit: 'deg', samples: raw.angleDeg });
+  if (raw.gyroDps) channels.push({ name: CHANNEL.gyroDps, unit: 'deg/s', samples: raw.gyroDps });
+  if (raw.emgUv) channels.push({ name: CHANNEL.emgUv, unit: 'uV', samples: raw.emgUv });
   const indices = result.analysis.indices;
   return {
     key,
     instrument: 'pendulum-file',
-    title: pendulumTitle('Pendulum from a file', side, indices),
+    title: pendulumTitle(m.pendulumFromFile, side, indices),
     ...pendulumParts(indices, side),
     trace: { kind: 'pendulum-knee-angle', startedAt, sampleRateHz: indices.sampleRateHz, channels: plainChannels(channels) },
   };
@@ -36,7 +37,7 @@ export function pendulumPhoneReading(indices: PendulumIndices, recording: Motion
   return {
     key,
     instrument: 'pendulum-phone',
-    title: pendulumTitle('Pendulum with the phone', side, indices),
+    title: pendulumTitle(m.pendulumWithPhone, side, indices),
     ...pendulumParts(indices, side),
     trace: { kind: 'pendulum-knee-angle', startedAt, sampleRateHz: reconstruction.timing.rateHz, channels: plainChannels(motionTraceChannels(recording, reconstruction.angleDeg)) },
   };
@@ -59,7 +60,7 @@ export function inclinometerReading(
   return {
     key,
     instrument: 'inclinometer',
-    title: `Inclinometer, ${choice.side} ${choice.siteLabel.toLowerCase()} (${choice.mode}): ${formatFixed(angle, 1)}°`,
+    title: m.inclinometerTitle(choice.side, choice.siteLabel, choice.mode, formatFixed(angle, 1)),
     skipped: [],
     observations: [observation],
     trace: {

@@ -8,6 +8,7 @@ import {
   type MotionProblem,
   type MotionRecording,
 } from '$lib/sensors';
+import { INSTRUMENT_MESSAGES as m } from '../messages/instrument-messages';
 import { startMotionInTap } from './motion-permission';
 
 const COUNTDOWN_S = 3;
@@ -132,7 +133,7 @@ export class PhoneSwingRecorder {
     if (!this.recording) return;
     try {
       // A few thousand samples: the engine runs in well under 100 ms on the page.
-      const result = analyseMotionRecording(this.recording, { fileName: 'this recording' });
+      const result = analyseMotionRecording(this.recording, { fileName: m.thisRecording });
       this.analysis = result.analysis;
       this.reconstruction = result.reconstruction;
     } catch (error) {

@@ -1,5 +1,6 @@
 import { goto } from '$app/navigation';
 import type { Assessment } from '$lib/domain';
+import { INSTRUMENT_MESSAGES as m } from '../messages/instrument-messages';
 import { session } from '../session.svelte';
 import { saveReadingAlone, type VisitReading } from '../visit-readings';
 
@@ -16,7 +17,7 @@ export async function saveReadingAndReturn(
   const store = await session.open();
   await saveReadingAlone(store, patientId, reading, context);
   session.changed();
-  if (reading.skipped.length > 0) return `Saved with the trace, except (outside what the record accepts): ${reading.skipped.join('; ')}.`;
+  if (reading.skipped.length > 0) return m.savedExcept(reading.skipped.join('; '));
   await goto(`/patients/${patientId}?saved=1`);
   return null;
 }

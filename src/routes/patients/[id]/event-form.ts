@@ -1,6 +1,7 @@
 // The event form's values: one shape for adding an intervention and for amending a saved one.
 import { EVENT_KIND_LABELS, type ClinicalEvent, type EventKind } from '$lib/domain';
 import type { Input, AmendedField } from '$lib/store';
+import { PATIENT_PAGE_MESSAGES as m } from '$lib/ui';
 
 export interface EventFormValues {
   kind: EventKind;
@@ -26,12 +27,10 @@ export function eventFields(v: EventFormValues): Pick<Input<'events'>, 'kind' | 
   return { kind: v.kind, occurredOn: v.occurredOn, side: v.side === '' ? null : v.side, summary: v.summary.trim(), muscles: orNull(v.muscles), dose: orNull(v.dose) };
 }
 
-const FIELD_WORDS: Record<string, string> = { kind: 'what', occurredOn: 'date', endsOn: 'ends', side: 'side', summary: 'summary', muscles: 'muscles', dose: 'dose', notesSealed: 'notes', deleted: 'deleted' };
-
 /** One audited change in words, e.g. "date 2025-02-03 → 2025-03-02"; notes are never shown (protected). */
 export function changeInWords(c: AmendedField): string {
-  const name = FIELD_WORDS[c.field] ?? c.field;
-  if (c.field.endsWith('Sealed')) return `${name} changed (protected: not kept in the audit)`;
-  const word = (v: unknown) => (v === null || v === '' ? 'none' : c.field === 'kind' ? (EVENT_KIND_LABELS[v as EventKind] ?? String(v)) : typeof v === 'string' ? v : JSON.stringify(v));
-  return `${name} ${word(c.before)} → ${word(c.after)}`;
+  const name = m.eventFields[c.field] ?? c.field;
+  if (/Sealed$/.test(c.field)) return m.protectedChanged(name);
+  const word = (v: unknown) => (v === null || v === '' ? m.noValue : c.field === 'kind' ? (EVENT_KIND_LABELS[v as EventKind] ?? String(v)) : typeof v === 'string' ? v : JSON.stringify(v));
+  return m.fieldChanged(name, word(c.before), word(c.after));
 }

@@ -2,7 +2,7 @@
 import type { ProgressChartInput } from '$lib/charts';
 import { EVENT_KIND_LABELS, type ClinicalEvent } from '$lib/domain';
 import type { OutcomeSeries } from '$lib/stats';
-import type { OverviewGroup } from '$lib/ui';
+import { type OverviewGroup, PATIENT_PAGE_MESSAGES as m } from '$lib/ui';
 
 export interface OverviewCell {
   readonly text: string;
@@ -42,7 +42,7 @@ export function overviewVisits(series: readonly OutcomeSeries[]): Array<{ id: st
 
 export function chartInput(s: OutcomeSeries, events: readonly ClinicalEvent[]): ProgressChartInput {
   return {
-    title: `${s.title}${s.measure.kind === 'tardieu' ? ' · spasticity angle R2 − R1' : ''}`,
+    title: `${s.title}${s.measure.kind === 'tardieu' ? m.tardieuChartTitle : ''}`,
     unitLabel: s.unitLabel,
     timesMs: Float64Array.from(s.points, (p) => p.timeMs),
     values: Float64Array.from(s.points, (p) => p.value),
@@ -61,10 +61,10 @@ export function baselineText(s: OutcomeSeries): string {
 }
 
 export function trendText(s: OutcomeSeries): string {
-  if (!s.trend) return 'Trend: needs three assessments';
-  if (s.trend.slopePer30Days === 0 && s.trend.method === 'theil-sen') return 'Trend: no steady drift across visits (most pairs of visits have the same grade, so the median slope is 0).';
-  const per = s.ordinalLabels ? ' grade steps' : s.unitLabel;
-  const method = s.trend.method === 'theil-sen' ? 'Theil–Sen' : 'least squares';
+  if (!s.trend) return m.trendNeedsThree;
+  if (s.trend.slopePer30Days === 0 && s.trend.method === 'theil-sen') return m.trendFlatGrades;
+  const per = s.ordinalLabels ? m.gradeSteps : s.unitLabel;
+  const method = s.trend.method === 'theil-sen' ? m.theilSen : m.leastSquares;
   const sign = s.trend.slopePer30Days > 0 ? '+' : '';
-  return `Trend (${method}): ${sign}${s.trend.slopePer30Days.toFixed(2)}${per} per month`;
+  return m.trend(method, `${sign}${s.trend.slopePer30Days.toFixed(2)}`, per);
 }

@@ -1,4 +1,4 @@
-import type { ReferralReport } from '$lib/export';
+import { REPORT_TITLE, type ReferralReport } from '$lib/export';
 import { shareOrDownloadFile, type ShareOutcome } from '$lib/ui';
 
 export interface SharedReport {
@@ -20,6 +20,6 @@ export async function shareReportPdf(report: ReferralReport): Promise<SharedRepo
   // locale undefined: the browser's, as the page's own dates.
   const pdf = await referralReportPdf(report, { createdAtMs: Date.now() });
   const file = new File([pdf.bytes as Uint8Array<ArrayBuffer>], pdf.fileName, { type: 'application/pdf' });
-  const outcome = await shareOrDownloadFile(file, `Outcome report ${report.patientCode}`);
+  const outcome = await shareOrDownloadFile(file, `${REPORT_TITLE} ${report.patientCode}`);
   return { outcome, fileName: pdf.fileName, pageCount: pdf.pageCount, sizeBytes: pdf.bytes.length, simplified: pdf.simplified };
 }
