@@ -6,7 +6,8 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { setUpDevice } from './app-helpers';
 import { inkedCanvasShare } from './app-helpers';
 import { sharedChromium } from '../support/shared-browser';
-import { newAppContext, phone, reflowProblems, screenshot, seriousAxeViolations, smallPhone, tablet, waitForSettledPage } from './harness';
+import { join } from 'node:path';
+import { newAppContext, phone, reflowProblems, rootFontPx, screenshot, screenshotDir, seriousAxeViolations, setTextScale, smallPhone, tablet, waitForSettledPage } from './harness';
 
 const chromium = sharedChromium();
 let context: BrowserContext;
@@ -122,4 +123,81 @@ describe('patient overview', () => {
     expect(await reflowProblems(page)).toEqual([]);
     await screenshot(page, 'patient-overview-grouped-360');
   }, 180_000);
+
+  it('the home-log timeline: each visit\'s marks beyond the MDC on the axis of adherence and ratings, the same as the overview\'s; tables; axe; 360 px at 200 % text', async () => {
+    await page.setViewportSize(tablet);
+    // A demo patient with a home log and at least one visit beyond the MDC either way; one with spasm
+    // ratings drawn too when there is one.
+    let found = '';
+    for (const path of patientPaths) {
+      await page.goto(path);
+      await page.locator('table.overview').waitFor();
+      await waitForSettledPage(page, `patient page ${path}`);
+      if ((await page.getByTestId('home-log-outcomes').count()) === 0) continue;
+      if ((await page.getByTestId('home-log-outcomes').locator('text').count()) === 0) continue;
+      if (!found) found = path;
+      if ((await page.getByTestId('home-log-timeline').locator('circle').count()) > 0) {
+        found = path;
+        break;
+      }
+    }
+    expect(found, 'a demo patient with a home log and a visit beyond the MDC').not.toBe('');
+    await page.goto(found);
+    await page.getByTestId('home-log-outcomes').waitFor();
+    await waitForSettledPage(page, `patient page ${found}`);
+    const section = page.locator('section', { has: page.getByRole('heading', { name: 'Home log beside the measured outcomes' }) });
+    const marks = await page.getByTestId('home-log-outcomes').locator('text').allTextContents();
+    const drawn = (glyph: string) => marks.filter((t) => t.startsWith(glyph)).reduce((sum, t) => sum + Number(t.slice(1)), 0);
+
+    // The tables say the same: one row per visit, one tick per visit, the same totals as the marks.
+    await section.getByText('The same as tables').click();
+    const visitsTable = section.locator('table', { has: page.locator('caption', { hasText: 'Visits:' }) });
+    const rows = await visitsTable.locator('tbody tr').evaluateAll((trs) => trs.map((tr) => [...tr.querySelectorAll('th, td')].map((c) => c.textContent?.trim() ?? '')));
+    expect(rows.length).toBeGreaterThan(1);
+    expect(await page.getByTestId('home-log-outcomes').locator('line.visit').count()).toBe(rows.length);
+    const column = (i: number) => rows.reduce((sum, r) => sum + Number(r[i]), 0);
+    expect(drawn('▲')).toBe(column(2));
+    expect(drawn('▼')).toBe(column(3));
+    // Every measure of a visit falls in exactly one column.
+    for (const r of rows) expect(Number(r[1])).toBe(Number(r[2]) + Number(r[3]) + Number(r[4]) + Number(r[5]) + Number(r[6]));
+    // The overview (its own cells, every group unfolded) marks as many cells better and worse.
+    for (let folded = page.locator('tr.group button[aria-expanded="false"]'); (await folded.count()) > 0; ) await folded.first().click();
+    const overviewMarks = await page.locator('table.overview span.mark').allTextContents();
+    expect(overviewMarks.filter((t) => t.includes('▲')).length).toBe(column(2));
+    expect(overviewMarks.filter((t) => t.includes('▼')).length).toBe(column(3));
+    // The drawing's text alternative counts the same visits.
+    expect(await page.getByTestId('home-log-timeline').getAttribute('aria-label')).toContain(`${rows.length} visits with measured outcomes`);
+    expect(await seriousAxeViolations(page)).toEqual([]);
+    // Viewport captures only: a full-page or element capture resizes the page, which drops the text size.
+    const visitsWrap = section.locator('.table-wrap').first();
+    const shots = async (name: string) => {
+      await section.getByRole('heading', { name: 'Home log beside the measured outcomes' }).evaluate((e) => e.scrollIntoView({ block: 'start' }));
+      await page.screenshot({ path: join(screenshotDir, `home-log-timeline-${name}.png`) });
+      await visitsWrap.evaluate((e) => e.scrollIntoView({ block: 'start' }));
+      await page.screenshot({ path: join(screenshotDir, `home-log-visits-table-${name}.png`) });
+    };
+    await shots('tablet');
+
+    await page.setViewportSize(smallPhone);
+    await waitForSettledPage(page, 'home log at 360 px');
+    expect(await reflowProblems(page)).toEqual([]);
+    await shots('360');
+    try {
+      // Taller than a phone so that one capture holds the drawing; the width is the phone's.
+      await page.setViewportSize({ width: smallPhone.width, height: 1300 });
+      await setTextScale(page, 2);
+      await expect.poll(() => rootFontPx(page)).toBe(32);
+      await waitForSettledPage(page, 'home log at 360 px, 200 % text');
+      expect(await reflowProblems(page)).toEqual([]);
+      await shots('360-text200');
+      await setTextScale(page, 1);
+      await page.setViewportSize({ width: tablet.width, height: 1000 });
+      await setTextScale(page, 2);
+      await expect.poll(() => rootFontPx(page)).toBe(32);
+      await waitForSettledPage(page, 'home log at 1024 px, 200 % text');
+      await shots('tablet-text200');
+    } finally {
+      await setTextScale(page, 1);
+    }
+  }, 240_000);
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { OutcomeSeries } from '../../../src/lib/stats';
 import { anAssessment } from '../../support/records';
-import { axisPercent, timelineRange, visitOutcomes } from '../../../src/routes/patients/[id]/home-log';
+import { axisPercent, markRows, timelineRange, visitOutcomes } from '../../../src/routes/patients/[id]/home-log';
 
 // Hand-written series (not produced by the code under test): points by assessment, each with the
 // verdict the patient page's rule would have given it (null = baseline, not judged).
@@ -54,5 +54,16 @@ describe('the home-log timeline: each visit with its measured outcomes', () => {
     const lone = timelineRange([], { weeks: log.weeks, ratings: [] })!;
     expect(lone.to - lone.from).toBe(7);
     expect(timelineRange([], { weeks: [], ratings: [] })).toBeNull();
+  });
+});
+
+describe('markRows: marks that would overlap go on another row', () => {
+  it('keeps apart marks closer than their widths and reuses the first row that is clear', () => {
+    // Widths 2, gap 0.5: a mark needs its centre 2.5 from the previous one on its row (worked by hand).
+    const marks = [0, 1, 2, 2.6, 6, 6.4, 6.8].map((at) => ({ at, width: 2 }));
+    expect(markRows(marks, 0.5)).toEqual([0, 1, 2, 0, 0, 1, 2]);
+    // Far apart: one row.
+    expect(markRows([0, 10, 20].map((at) => ({ at, width: 2 })), 0.5)).toEqual([0, 0, 0]);
+    expect(markRows([], 0.5)).toEqual([]);
   });
 });

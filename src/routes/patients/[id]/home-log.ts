@@ -83,3 +83,19 @@ export function timelineRange(visitDays: readonly string[], log: HomeLog): { rea
 export function axisPercent(range: { readonly from: number; readonly to: number }, day: string): number {
   return 2 + (96 * (dayNumber(day) - range.from)) / (range.to - range.from);
 }
+
+/**
+ * Rows for marks along one axis so that none overlaps another: each mark (its centre `at` and width,
+ * in the same unit, in axis order) goes on the first row where it clears the previous mark by `gap`.
+ * Row 0 is next to the axis. A phone at 200 % text needs a second or third row where visits are close.
+ */
+export function markRows(marks: readonly { readonly at: number; readonly width: number }[], gap: number): number[] {
+  const rightEdges: number[] = [];
+  return marks.map(({ at, width }) => {
+    const left = at - width / 2;
+    let row = rightEdges.findIndex((right) => left >= right + gap);
+    if (row === -1) row = rightEdges.push(0) - 1;
+    rightEdges[row] = at + width / 2;
+    return row;
+  });
+}
