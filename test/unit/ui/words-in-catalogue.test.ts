@@ -15,7 +15,7 @@ const ROOT = join(__dirname, '../../..');
 /**
  * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
  * the therapist's programme editor and hand-over, the drafts list the editor shows, and the therapist's
- * first screen, menu, caseload, new-patient form, settings, reliability studies, and the shared components of lib/ui.
+ * first screen, menu, caseload, new-patient form, settings, reliability studies, cohort audit, and the shared components of lib/ui.
  */
 const COVERED = [
   'src/routes/home-programme',
@@ -30,6 +30,7 @@ const COVERED = [
   'src/routes/patients/new',
   'src/routes/settings',
   'src/routes/reliability',
+  'src/routes/cohort',
   'src/lib/ui/UnlockPanel.svelte',
   'src/lib/ui/SetupDevice.svelte',
   'src/lib/ui/UpdateBanner.svelte',
