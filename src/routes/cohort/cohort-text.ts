@@ -1,6 +1,7 @@
 import { findMeasure } from '$lib/domain';
 import type { CohortGroupSummary } from '$lib/export';
 import { mdcSourceLine } from '$lib/stats';
+import * as t from './cohort-messages';
 
 // How the cohort page writes its figures (the summary table, the charts' captions, the export list).
 
@@ -11,16 +12,15 @@ export function groupTitle(g: { measureLabel: string; measureCode: string; siteC
   return `${g.measureLabel} · ${site}${g.mode ? ` (${g.mode})` : ''}${part}`;
 }
 export const fmt = (v: number, d = 2) => (Number.isFinite(v) ? v.toFixed(d) : '–');
-export const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
 /** "grade step" or "grade steps" after a number; degrees as °. */
 export const changeUnit = (unit: string, v: number) =>
-  unit === 'deg' ? '°' : unit === 'grade steps' ? (Math.abs(v) === 1 ? ' grade step' : ' grade steps') : unit === '1' ? '' : ` ${unit.replace(/^\{(.*)\}$/, '$1')}`;
+  unit === 'deg' ? '°' : unit === 'grade steps' ? (Math.abs(v) === 1 ? t.gradeStep : t.gradeSteps) : unit === '1' ? '' : ` ${unit.replace(/^\{(.*)\}$/, '$1')}`;
 /** Too few patients for a test statistic to mean much (common practice; no fixed rule). */
 export const SMALL_SAMPLE = 6;
 /** The note under the table for a group's MDC: its source, or why there is none. */
 export const noteText = (g: CohortGroupSummary): string => {
-  if (!g.mdc) return g.mdcNote ?? 'none';
-  if (g.mdc.source === 'reference') return `Published figure: ${g.mdc.citation}`;
+  if (!g.mdc) return g.mdcNote ?? t.none;
+  if (g.mdc.source === 'reference') return t.publishedFigure(g.mdc.citation);
   return mdcSourceLine(g.mdc, '', false).replace(/^MDC [^:]*: /, '').replace(/^./, (c) => c.toUpperCase());
 };
 export const pct = (v: number) => `${(100 * v).toFixed(0)} %`;

@@ -16,7 +16,8 @@ const ROOT = join(__dirname, '../../..');
  * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
  * the therapist's patient page (home-log timeline, report, saved swing, programme editor and hand-over),
  * the measuring instruments and their pages, the drafts list the programme editor shows, the therapist's
- * first screen, menu, caseload, new-patient form and settings, and the shared components of lib/ui.
+ * first screen, menu, caseload, new-patient form, settings, reliability studies, cohort audit, and the
+ * shared components of lib/ui.
  */
 const COVERED = [
   'src/routes/home-programme',
@@ -32,6 +33,8 @@ const COVERED = [
   'src/routes/patients/caseload-loader.ts',
   'src/routes/patients/new',
   'src/routes/settings',
+  'src/routes/reliability',
+  'src/routes/cohort',
   'src/lib/ui/UnlockPanel.svelte',
   'src/lib/ui/SetupDevice.svelte',
   'src/lib/ui/UpdateBanner.svelte',

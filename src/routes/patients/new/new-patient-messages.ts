@@ -1,6 +1,7 @@
 /**
  * The words of the new-patient form (+page.svelte), English only for now (see ../../home-messages.ts).
- * The status names and the caseload's own words come from ../caseload-messages.ts.
+ * The status names repeat the caseload's (../caseload-messages.ts) on purpose: a catalogue imported by
+ * this page too would become a chunk of its own, every caseload word in it, in the first screen's load.
  */
 export const pageTitle = 'Add a patient · Kinnote';
 export const breadcrumb = 'Breadcrumb';
@@ -12,6 +13,11 @@ export const birthYear = 'Birth year';
 export const condition = 'Condition';
 /** A condition's name as shown: its key with spaces for hyphens ("cerebral palsy"). */
 export const conditionName = (key: string) => key.replace(/-/g, ' ');
+export const caseload = 'Caseload';
+export const status = 'Status';
+export const statusActive = 'Active';
+export const statusPaused = 'Paused';
+export const statusDischarged = 'Discharged';
 export const affectedSide = 'Affected side';
 export const left = 'Left';
 export const right = 'Right';
