@@ -1,5 +1,5 @@
 import * as v from 'valibot';
-import { ExerciseDoseSchema, IsoDateSchema, MAX_TIMES_PER_DAY, type ExerciseDose } from '../domain';
+import { ExerciseDoseSchema, IsoDateSchema, MAX_TIMES_PER_DAY, doseIssueOf, type DoseIssue, type ExerciseDose } from '../domain';
 
 /** HomeProgramme.sessionsPerWeek allows at most 50 (domain schema), so a full week may plan no more. */
 export const MAX_SESSIONS_PER_WEEK = 50;
@@ -84,15 +84,33 @@ export function sessionsInFullWeek(exercises: readonly Pick<Exercise, 'dose'>[])
   return total;
 }
 
-/** A plan problem for the form: dot path and message. */
+/** A plan problem for the form: dot path and message (English); a dose problem also as its code, for a screen to word. */
 export interface PlanIssue {
   readonly path: string;
   readonly message: string;
+  readonly dose: ExerciseDoseIssue | null;
+}
+
+/** A dose problem with the exercise it is in (1 = the first), for a screen to word. */
+export interface ExerciseDoseIssue extends DoseIssue {
+  readonly exercise: number;
+}
+
+/**
+ * The dose problem behind an issue of a plan (`exercises.N.dose…`) or a programme (`items.N.dose…`),
+ * with its exercise's number; null when the issue is not a dose's.
+ */
+export function exerciseDoseIssue(issue: v.BaseIssue<unknown>): ExerciseDoseIssue | null {
+  const dose = doseIssueOf(issue);
+  if (!dose) return null;
+  const keys = (issue.path ?? []).map((p) => p.key);
+  const index = keys[keys.lastIndexOf('dose') - 1];
+  return typeof index === 'number' ? { ...dose, exercise: index + 1 } : null;
 }
 
 /** Validates a plan; returns the cleaned plan (trimmed text) or the issues. Never throws. */
 export function checkExercisePlan(candidate: unknown): { ok: true; plan: ExercisePlan } | { ok: false; issues: PlanIssue[] } {
   const result = v.safeParse(ExercisePlanSchema, candidate);
   if (result.success) return { ok: true, plan: result.output };
-  return { ok: false, issues: result.issues.map((i) => ({ path: v.getDotPath(i) ?? '', message: i.message })) };
+  return { ok: false, issues: result.issues.map((i) => ({ path: v.getDotPath(i) ?? '', message: i.message, dose: exerciseDoseIssue(i) })) };
 }

@@ -2,7 +2,7 @@ import * as v from 'valibot';
 import { HomeProgrammeSchema, IdSchema, IsoDateTimeSchema, MAX_PHOTO_BYTES, PHOTO_TYPES, exercisePhotoProblem, type ExercisePhoto, type HomeProgramme } from '../domain';
 import { base64ToBytes, bytesToBase64, canonicalJson } from '../store';
 import type { ExercisePlan } from './exercise-plan';
-import { checkExercisePlan } from './exercise-plan';
+import { checkExercisePlan, exerciseDoseIssue } from './exercise-plan';
 import { programmeToPlan } from './programme-record';
 import { ProgrammeTransferError } from './programme-transfer-error';
 import { PATIENT_LANGUAGES, type PatientLanguage } from './patient-language';
@@ -120,14 +120,17 @@ function checkPackage(parsed: unknown): OpenedProgrammePackage {
   const result = v.safeParse(PackageSchema, parsed);
   if (!result.success) {
     const issue = result.issues[0];
-    throw new ProgrammeTransferError('Invalid', `This programme file breaks its format at ${v.getDotPath(issue) ?? 'the top'}: ${issue.message}. Nothing was saved.`);
+    throw new ProgrammeTransferError('Invalid', `This programme file breaks its format at ${v.getDotPath(issue) ?? 'the top'}: ${issue.message}. Nothing was saved.`, { dose: exerciseDoseIssue(issue) });
   }
   const pkg = result.output as ProgrammePackage;
   if (pkg.programme.patientId !== pkg.patient.id) {
     throw new ProgrammeTransferError('ForeignPatient', 'This programme file mixes two people (its programme is not for the patient it names). It was refused; nothing was saved.');
   }
   const checked = checkExercisePlan(programmeToPlan(pkg.programme));
-  if (!checked.ok) throw new ProgrammeTransferError('Invalid', `The programme breaks a rule at ${checked.issues[0]!.path}: ${checked.issues[0]!.message}.`);
+  if (!checked.ok) {
+    const first = checked.issues[0]!;
+    throw new ProgrammeTransferError('Invalid', `The programme breaks a rule at ${first.path}: ${first.message}.`, { dose: first.dose });
+  }
   const photos = (pkg.photos ?? []).map((p, i) => readPhoto(p, i, pkg.programme));
   const places = new Set(photos.map((p) => `${p.exercise}:${p.position}`));
   if (places.size !== photos.length) throw new ProgrammeTransferError('Invalid', 'This programme file has two photos in one place (same exercise and position). Nothing was saved.');

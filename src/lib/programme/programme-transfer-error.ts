@@ -1,3 +1,5 @@
+import type { DoseField, DoseProblem } from '../domain';
+
 /**
  * Why a programme package or a home report was refused. Each keeps its cause.
  * - WrongCode: the code typed does not open the file (nothing read, nothing written).
@@ -10,14 +12,23 @@
  */
 export type ProgrammeTransferErrorCode = 'WrongCode' | 'Tampered' | 'NotThisKind' | 'Unsupported' | 'Invalid' | 'ForeignPatient' | 'Incomplete';
 
-/** The one error type of the home-programme hand-off. */
+/** An exercise's dose problem that made a file Invalid (exercise 1 = the first), for the patient's screen to word in its language. */
+export interface RefusedDose {
+  readonly exercise: number;
+  readonly field: DoseField | null;
+  readonly problem: DoseProblem;
+}
+
+/** The one error type of the home-programme hand-off. `message` is English; `dose` says which dose problem refused the file. */
 export class ProgrammeTransferError extends Error {
   override readonly name = 'ProgrammeTransferError';
+  readonly dose: RefusedDose | null;
   constructor(
     readonly code: ProgrammeTransferErrorCode,
     message: string,
-    options: { cause?: unknown } = {},
+    options: { cause?: unknown; dose?: RefusedDose | null } = {},
   ) {
     super(message, options.cause === undefined ? undefined : { cause: options.cause });
+    this.dose = options.dose ?? null;
   }
 }

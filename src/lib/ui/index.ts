@@ -30,6 +30,7 @@ export { default as TickChoice } from './programme/TickChoice.svelte';
 export { type PatientHome, loadPatientHome, localToday, plansOn, removeEverythingFromThisPhone } from './programme/patient-home';
 export { patientLanguage } from './programme/patient-language.svelte';
 export { QR_MESSAGES } from './programme/qr-messages';
+export { refusedProgrammeText } from './programme/refused-programme';
 export { type ReminderSettings, loadReminders, notificationSupport, saveReminders, scheduleReminders, showReminder } from './programme/reminders';
 export { shareOrDownload } from './programme/share-file';
 export { PATIENT_LANGUAGE_SELF_NAMES, THERAPIST_MESSAGES } from './programme/therapist-messages';

@@ -1,3 +1,4 @@
+import type { DoseField, DoseProblem } from '$lib/domain';
 import { durationWords, type DosePart } from '$lib/programme';
 import { plural, type PatientMessages } from './patient-messages';
 
@@ -135,6 +136,44 @@ export const SPANISH_MESSAGES: PatientMessages = {
   leaveRemoving: 'Borrando…',
   leaveReading: 'Leyendo lo que hay en este teléfono…',
   leaveKeep: 'Conservar mi programa y volver',
+  receiveDoseRefused: (exercise: number, field: string | null, problem: string) =>
+    `No se puede usar este programa: ejercicio ${exercise}${field ? `, ${field}` : ''}: ${problem}. No se ha guardado nada. Pide a tu terapeuta un programa corregido.`,
+  doseField: (field: DoseField): string => {
+    switch (field) {
+      case 'repetitions':
+        return 'repeticiones';
+      case 'sets':
+        return 'series';
+      case 'holdSeconds':
+        return 'mantener';
+      case 'durationMinutes':
+        return 'minutos cada vez';
+      case 'overnight':
+        return 'durante la noche';
+      case 'timesPerDay':
+        return 'veces al día';
+      case 'daysPerWeek':
+        return 'días a la semana';
+      case 'note':
+        return 'nota';
+    }
+  },
+  doseProblem: (p: DoseProblem): string => {
+    switch (p.code) {
+      case 'wholeNumber':
+        return 'debe ser un número entero';
+      case 'atLeast':
+        return `debe ser como mínimo ${p.min}`;
+      case 'atMost':
+        return `debe ser como máximo ${p.max}`;
+      case 'noteTooLong':
+        return `debe tener como máximo ${p.max} caracteres`;
+      case 'overnightOnceADay':
+        return '«durante la noche» es una vez al día: «veces al día» debe quedar vacío o en 1';
+      case 'nothingPrescribed':
+        return 'la dosis no indica nada (ningún valor ni nota)';
+    }
+  },
   dosePart: (part: DosePart): string => {
     switch (part.kind) {
       case 'hold':

@@ -1,5 +1,6 @@
 // By their own paths: the first screen loads these messages, and the folder's door would bring the
 // whole programme folder (and the store's import) into the first load.
+import type { DoseField, DoseProblem } from '$lib/domain';
 import { durationWords, type DosePart, PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from '$lib/programme';
 
 /**
@@ -156,6 +157,45 @@ const en = {
   leaveRemoving: 'Removing…',
   leaveReading: 'Reading what is on this phone…',
   leaveKeep: 'Keep my programme and go back',
+  // A programme file refused for a dose the therapist must correct (domain/exercise-dose.ts)
+  receiveDoseRefused: (exercise: number, field: string | null, problem: string) =>
+    `This programme cannot be used: exercise ${exercise}${field ? `, ${field}` : ''}: ${problem}. Nothing was saved. Ask your therapist for a corrected programme.`,
+  doseField: (field: DoseField): string => {
+    switch (field) {
+      case 'repetitions':
+        return 'repetitions';
+      case 'sets':
+        return 'sets';
+      case 'holdSeconds':
+        return 'hold';
+      case 'durationMinutes':
+        return 'minutes each time';
+      case 'overnight':
+        return 'overnight';
+      case 'timesPerDay':
+        return 'times a day';
+      case 'daysPerWeek':
+        return 'days a week';
+      case 'note':
+        return 'note';
+    }
+  },
+  doseProblem: (p: DoseProblem): string => {
+    switch (p.code) {
+      case 'wholeNumber':
+        return 'must be a whole number';
+      case 'atLeast':
+        return `must be at least ${p.min}`;
+      case 'atMost':
+        return `must be at most ${p.max}`;
+      case 'noteTooLong':
+        return `must be at most ${p.max} characters`;
+      case 'overnightOnceADay':
+        return 'overnight is once a day: times a day must be empty or 1';
+      case 'nothingPrescribed':
+        return 'the dosage says nothing (no value and no note)';
+    }
+  },
   // Dose words
   dosePart: (part: DosePart): string => {
     switch (part.kind) {
