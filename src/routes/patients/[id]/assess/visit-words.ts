@@ -17,7 +17,7 @@ export function templateSummary(t: VisitTemplate): string {
   const groups = new Map<string, string[]>();
   for (const test of t.tests) {
     const m = findMeasure(test.measureCode);
-    const name = m?.code === 'mas' ? 'Modified Ashworth' : m?.code === 'tardieu' ? 'Tardieu' : m?.code === 'rom' ? 'Range of motion' : 'Ratings';
+    const name = m?.form && m.form.shape !== 'rating' ? m.form.name : 'Ratings';
     const site = m && m.lateral ? (findSite(m, test.siteCode)?.label ?? test.siteCode).toLowerCase() + (test.mode ? ` (${test.mode})` : '') : (m?.label ?? test.measureCode);
     groups.set(name, [...(groups.get(name) ?? []), site]);
   }
