@@ -36,6 +36,7 @@ export { type ShareOutcome, canShareFiles, shareOrDownloadFile } from './share-o
 export { default as TeamSection } from './team/TeamSection.svelte';
 export { visitContents } from './visit-contents';
 export { type KeptVisit, visitDraftKeeper, visitDraftSize } from './visit-draft';
+export { VISIT_MESSAGES } from './visit-messages';
 export {
   type AngleMeasure,
   type AngleRow,

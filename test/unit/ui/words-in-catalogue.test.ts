@@ -13,9 +13,9 @@ import { describe, expect, it } from 'vitest';
 const ROOT = join(__dirname, '../../..');
 
 /** The screens whose words must all be in a catalogue: patient mode, the shared programme components, the therapist's programme editor and hand-over, and the drafts list the editor shows. */
-const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]/programme', 'src/lib/ui/OtherDrafts.svelte'];
+const COVERED = ['src/routes/home-programme', 'src/lib/ui/programme', 'src/routes/patients/[id]/programme', 'src/lib/ui/OtherDrafts.svelte', 'src/routes/patients/[id]/assess'];
 /** The catalogues themselves (where the words belong) and code with no words. */
-const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages)\.ts$/;
+const CATALOGUES = /(?:patient-messages(?:-es)?|qr-messages|therapist-messages|draft-messages|visit-messages)\.ts$/;
 
 interface Finding {
   readonly line: number;

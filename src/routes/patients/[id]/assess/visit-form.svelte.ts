@@ -1,7 +1,7 @@
 import { tick } from 'svelte';
-import { findMeasure, findSite, INSTRUMENTS, type Observation } from '$lib/domain';
+import { findMeasure, findSite, type Observation } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
-import { draftObservations, newRow, rowMeasure, type FormRow, type RowMeasure, emptyDraft, type AssessmentDraft, type DraftIssue, repeatedReadings, type UnreadableReading, type VisitReading, missingReadings } from '$lib/ui';
+import { VISIT_MESSAGES as M, draftObservations, newRow, rowMeasure, type FormRow, type RowMeasure, emptyDraft, type AssessmentDraft, type DraftIssue, repeatedReadings, type UnreadableReading, type VisitReading, missingReadings } from '$lib/ui';
 import { lastTimeText, localNow } from './visit-words';
 
 
@@ -36,7 +36,7 @@ export class VisitForm {
     const issues: DraftIssue[] = [...form.issues];
     for (const r of repeatedReadings(this.readings, form.observations)) issues.push({ field: `reading-${r.key}`, message: r.message });
     if (!this.amendId) issues.push(...missingReadings(this.draft, this.readings));
-    if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: 'say why the visit is amended (kept in the audit)' });
+    if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: M.amendReasonNeeded });
     return { observations: form.observations, issues };
   });
 
@@ -77,17 +77,10 @@ export class VisitForm {
   }
 }
 
-const INSTRUMENT_LABELS: Record<(typeof INSTRUMENTS)[number], string> = {
-  'universal-goniometer': 'Universal goniometer',
-  inclinometer: 'Inclinometer',
-  'phone-sensor': 'Phone sensor',
-};
-export const instrumentLabel = (instrument: (typeof INSTRUMENTS)[number]): string => INSTRUMENT_LABELS[instrument];
-
 /** A carried row's name: "Left ankle plantarflexors"; with its mode and instrument when it has them ("…, passive, inclinometer"). */
 export function rowTitle(measure: RowMeasure, row: FormRow): string {
-  const base = `${row.side === 'left' ? 'Left' : 'Right'} ${siteName(measure.code, row.siteCode).toLowerCase()}`;
-  const extra = 'angleDeg' in row ? [row.mode, row.instrument === null ? null : instrumentLabel(row.instrument).toLowerCase()].filter((x) => x !== null) : [];
+  const base = `${M.sideWord(row.side)} ${siteName(measure.code, row.siteCode).toLowerCase()}`;
+  const extra = 'angleDeg' in row ? [row.mode, row.instrument === null ? null : M.instruments[row.instrument].toLowerCase()].filter((x) => x !== null) : [];
   return [base, ...extra].join(', ');
 }
 
