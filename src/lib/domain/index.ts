@@ -20,7 +20,6 @@ export { DeviceSchema, type Device } from './device';
 export { EVENT_KIND_LABELS, EVENT_KINDS, type ClinicalEvent, type EventKind } from './event';
 export { ASSESSMENT_SETTINGS, POSITIONS, type Assessment } from './assessment';
 export {
-  INSTRUMENTS,
   OBSERVATION_SIDES,
   type Instrument,
   type Observation,

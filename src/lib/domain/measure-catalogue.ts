@@ -83,7 +83,8 @@ const PENDULUM_DEFINITION =
 
 /**
  * The measure catalogue: the one table that drives forms, validation, charts, verdicts and
- * exports. Adding a measure means adding one entry here.
+ * exports. Adding a measure means adding one entry here; its `form` says how the visit form lays it
+ * out (a shape the form has: see FormLayout in measure-types.ts).
  */
 export const MEASURE_CATALOGUE: readonly Measure[] = [
   {
@@ -96,6 +97,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
     sites: MUSCLE_GROUPS,
     lateral: true,
     grades: MAS_GRADES,
+    form: { shape: 'grade', heading: 'Modified Ashworth', name: 'Modified Ashworth', siteNoun: 'Muscle group', addLabel: 'Add a muscle group' },
     reference: {
       kind: 'none',
       reason:
@@ -118,6 +120,14 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
     lateral: true,
     angleLimits: { min: 0, max: 180 },
     qualityGrades: TARDIEU_QUALITY,
+    form: {
+      shape: 'tardieu',
+      heading: 'Modified Tardieu',
+      name: 'Tardieu',
+      siteNoun: 'Muscle group',
+      addLabel: 'Add a Tardieu test',
+      hint: 'R1: angle of catch at the fast stretch. R2: passive range at the slow stretch. Spasticity angle = R2 − R1.',
+    },
     reference: {
       kind: 'none',
       reason: `${ESTABLISH_LOCALLY}. No MDC in degrees was verified for R1, R2 or R2 − R1; Ben-Shabat et al. 2013 (Arch Phys Med Rehabil 94:2494–2501; VERIFIED abstract) report ICC ≈ .79 for R1/R2 with limits of agreement mostly too wide.`,
@@ -233,6 +243,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
     integer: false,
     modes: ROM_MODES,
     instruments: INSTRUMENTS,
+    form: { shape: 'angle', heading: 'Range of motion', name: 'Range of motion', siteNoun: 'Joint motion', addLabel: 'Add a joint motion', defaultMode: 'passive', defaultInstrument: 'universal-goniometer' },
     reference: { kind: 'none', reason: ESTABLISH_LOCALLY },
     definitionSource: 'Neutral-zero method (COMMON PRACTICE); normal ranges REFERENCES.md §10a',
     caution: 'Published error figures hold for their own instrument, raters and population; a local study is better.',
@@ -256,6 +267,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
     },
     definitionSource: 'Penn RD et al. (1989). N Engl J Med 320:1517–1521 (citation from MEMORY); grades VERIFIED (NINDS CDE page)',
     caution: 'Ordinal frequency bands; report medians.',
+    form: { shape: 'rating', section: 'Spasms', name: 'Penn spasm frequency' },
   },
   {
     code: 'spasm-severity',
@@ -273,6 +285,7 @@ export const MEASURE_CATALOGUE: readonly Measure[] = [
     reference: { kind: 'none', reason: ESTABLISH_LOCALLY },
     definitionSource: '0–10 numeric rating scale (COMMON PRACTICE); not the 1–3 severity part of the Penn scale',
     caution: null,
+    form: { shape: 'rating', section: 'Spasms', name: 'Spasm severity' },
   },
 ];
 

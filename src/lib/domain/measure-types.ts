@@ -71,6 +71,44 @@ interface MeasureCommon {
   readonly panel?: { readonly label: string; readonly shortLabel: string };
 }
 
+/**
+ * How the visit form lays out a measure whose values are typed or tapped (absent: the measure is not
+ * a row of the form; the pendulum indices come from their instrument's own flow). The form has one
+ * row component per shape, so a new measure of an existing shape needs only its catalogue entry:
+ * - 'grade': an ordinal grade per site and side, one button per grade with its definition;
+ * - 'tardieu': R1 and R2 angles with the site's reference line and limits, and a quality grade;
+ * - 'angle': one angle per site and side with the site's reference line and limits (with the
+ *   measure's modes and instruments to choose, when it has them);
+ * - 'rating': one whole-person rating, a button per whole number of its limits; ratings with the
+ *   same `section` share one card.
+ */
+interface FormRowWords {
+  /** The card's heading, e.g. "Modified Ashworth". */
+  readonly heading: string;
+  /** The measure in a field's name, e.g. "Tardieu" in "Tardieu, left ankle soleus". */
+  readonly name: string;
+  /** What a row's site is, above its choice: "Muscle group", "Joint motion". */
+  readonly siteNoun: string;
+  /** The button that adds a row: "Add a muscle group". */
+  readonly addLabel: string;
+}
+export type GradeForm = FormRowWords & { readonly shape: 'grade' };
+export type TardieuForm = FormRowWords & { readonly shape: 'tardieu'; /** Under the heading: what R1 and R2 are. */ readonly hint: string };
+export type AngleForm = FormRowWords & {
+  readonly shape: 'angle';
+  /** A new row's mode and instrument (the measure's `modes` and `instruments` list what may be chosen). */
+  readonly defaultMode?: RomMode;
+  readonly defaultInstrument?: Instrument;
+};
+export interface RatingForm {
+  readonly shape: 'rating';
+  /** The card the rating sits in ("Spasms"); ratings with the same section share it. */
+  readonly section: string;
+  /** The rating in a field's name: "Penn spasm frequency". */
+  readonly name: string;
+}
+export type FormLayout = GradeForm | TardieuForm | AngleForm | RatingForm;
+
 export interface OrdinalGrade {
   readonly label: string;
   readonly rank: number;
@@ -81,6 +119,7 @@ export interface OrdinalMeasure extends MeasureCommon {
   readonly kind: 'ordinal';
   /** Grades in rank order; rank = index. */
   readonly grades: readonly OrdinalGrade[];
+  readonly form?: GradeForm;
 }
 
 export interface TardieuMeasure extends MeasureCommon {
@@ -95,6 +134,7 @@ export interface TardieuMeasure extends MeasureCommon {
     readonly quality: ImprovementDirection;
     readonly spasticityAngleDeg: ImprovementDirection;
   };
+  readonly form?: TardieuForm;
 }
 
 export interface NumericMeasure extends MeasureCommon {
@@ -104,6 +144,7 @@ export interface NumericMeasure extends MeasureCommon {
   /** ROM: the observation must say active or passive and which instrument. */
   readonly modes: readonly RomMode[] | null;
   readonly instruments: readonly Instrument[] | null;
+  readonly form?: AngleForm | RatingForm;
 }
 
 export type Measure = OrdinalMeasure | TardieuMeasure | NumericMeasure;

@@ -17,7 +17,12 @@ interface MotionRow {
   /** Motion in the opposite direction in the same plane, whose range bounds this one below 0°. */
   readonly opposite: string | null;
   readonly reference?: ErrorReference;
+  /** Where 0° is, where the motion's neutral needs saying (shown beside the angle field). */
+  readonly zero?: string;
 }
+
+/** The ankle's neutral, for both its motions (Tardieu's ankle sites use the same, see the catalogue). */
+const ANKLE_ZERO = '0° = foot at 90° to the leg';
 
 const AAOS = 'AAOS 1965 via Norkin & White (MEMORY, not verified in a copy)';
 const MERCK = 'Merck Manual table (VERIFIED copy)';
@@ -74,8 +79,8 @@ const MOTIONS: readonly MotionRow[] = [
   { code: 'hip-external-rotation', label: 'Hip external rotation', widestNormalDeg: 45, normalBasis: `45 ${AAOS}`, opposite: 'hip-internal-rotation' },
   { code: 'knee-flexion', label: 'Knee flexion', widestNormalDeg: 140, normalBasis: `135 ${AAOS}; 130 ${MERCK}; 140 ${VA}`, opposite: 'knee-extension', reference: KNEE },
   { code: 'knee-extension', label: 'Knee extension (0 = full extension, negative = extension deficit)', widestNormalDeg: 0, normalBasis: '0 = full extension (COMMON PRACTICE)', opposite: 'knee-flexion', reference: KNEE_EXTENSION },
-  { code: 'ankle-dorsiflexion', label: 'Ankle dorsiflexion', widestNormalDeg: 20, normalBasis: `20 ${AAOS}; 20 ${MERCK}; 20 ${VA}`, opposite: 'ankle-plantarflexion' },
-  { code: 'ankle-plantarflexion', label: 'Ankle plantarflexion', widestNormalDeg: 50, normalBasis: `50 ${AAOS}; 50 ${MERCK}; 45 ${VA}`, opposite: 'ankle-dorsiflexion' },
+  { code: 'ankle-dorsiflexion', label: 'Ankle dorsiflexion', widestNormalDeg: 20, normalBasis: `20 ${AAOS}; 20 ${MERCK}; 20 ${VA}`, opposite: 'ankle-plantarflexion', zero: ANKLE_ZERO },
+  { code: 'ankle-plantarflexion', label: 'Ankle plantarflexion', widestNormalDeg: 50, normalBasis: `50 ${AAOS}; 50 ${MERCK}; 45 ${VA}`, opposite: 'ankle-dorsiflexion', zero: ANKLE_ZERO },
   { code: 'shoulder-flexion', label: 'Shoulder flexion', widestNormalDeg: 180, normalBasis: `180 ${AAOS}; 180 ${VA} (the Merck "to 90°" item is a different test)`, opposite: 'shoulder-extension', reference: SHOULDER },
   { code: 'shoulder-extension', label: 'Shoulder extension', widestNormalDeg: 60, normalBasis: `60 ${AAOS}`, opposite: 'shoulder-flexion', reference: SHOULDER },
   { code: 'shoulder-abduction', label: 'Shoulder abduction', widestNormalDeg: 180, normalBasis: `180 ${AAOS}`, opposite: null, reference: SHOULDER },
@@ -114,6 +119,7 @@ export const ROM_SITES: readonly MeasureSite[] = MOTIONS.map((row) => {
       basis: `widest normal ${row.widestNormalDeg}° (${row.normalBasis}) + ${HYPERMOBILITY_MARGIN_DEG}° hypermobility margin; below 0° down to the opposite motion's limit`,
     },
     ...(row.reference ? { reference: row.reference } : {}),
+    ...(row.zero ? { angleReference: row.zero } : {}),
   };
   return site;
 });

@@ -1,15 +1,5 @@
-import {
-  checkObservation,
-  findMeasure,
-  MEASURE_CATALOGUE,
-  ordinalValue,
-  tardieuValue,
-  type Assessment,
-  type Instrument,
-  type Observation,
-  type ObservationValue,
-  type RomMode,
-} from '$lib/domain';
+import { checkObservation, findMeasure, ordinalValue, tardieuValue, type Assessment, type Observation, type ObservationValue, type RomMode } from '$lib/domain';
+import { FORM_MEASURES, RATING_MEASURES, ROW_MEASURES, type FormRow } from './visit-form-layout';
 
 /**
  * What the assessment form holds while the therapist types: plain strings for number fields so that
@@ -25,7 +15,8 @@ export interface InstrumentRow {
 }
 
 export interface AssessmentDraft {
-  readonly version: 1;
+  /** 2: rows and ratings per measure code (1 held mas, tardieu, rom, pennFrequency, spasmSeverity: see upgradeDraft). */
+  readonly version: 2;
   patientId: string;
   /** Local date-time as in <input type="datetime-local">, e.g. "2026-12-01T09:30". */
   performedAtLocal: string;
@@ -33,20 +24,13 @@ export interface AssessmentDraft {
   position: NonNullable<Assessment['conditions']['position']> | '';
   minutesSinceMedication: string;
   painNrs: string;
-  /** Rows; `carried` rows come from the visit protocol (site and side fixed so the series continue). */
-  mas: Array<{ key: string; siteCode: string; side: 'left' | 'right'; grade: string | null; carried?: boolean }>;
-  tardieu: Array<{ key: string; siteCode: string; side: 'left' | 'right'; r1Deg: string; r2Deg: string; quality: number | null; carried?: boolean }>;
-  rom: Array<{
-    key: string;
-    carried?: boolean;
-    siteCode: string;
-    side: 'left' | 'right';
-    mode: RomMode;
-    instrument: Instrument;
-    angleDeg: string;
-  }>;
-  pennFrequency: number | null;
-  spasmSeverity: number | null;
+  /**
+   * The rows of each measure the form lays out as rows (visit-form-layout.ts), by measure code, in
+   * the shape of its catalogue entry; `carried` rows come from the visit protocol.
+   */
+  rows: Record<string, FormRow[]>;
+  /** Whole-person ratings by measure code: null until recorded. */
+  ratings: Record<string, number | null>;
   notes: string;
   /** Keys of rows marked "Not tested today": saved nowhere, and never an issue. */
   notTested?: string[];
@@ -57,22 +41,51 @@ export interface AssessmentDraft {
   instruments?: InstrumentRow[];
 }
 
+/** Every form measure's list of rows and rating, empty (rows and ratings already held are kept). */
+function withEveryMeasure(rows: Record<string, FormRow[]>, ratings: Record<string, number | null>): Pick<AssessmentDraft, 'rows' | 'ratings'> {
+  return {
+    rows: Object.fromEntries(ROW_MEASURES.map((m) => [m.code, rows[m.code] ?? []])),
+    ratings: Object.fromEntries(RATING_MEASURES.map((m) => [m.code, ratings[m.code] ?? null])),
+  };
+}
+
 export function emptyDraft(patientId: string, performedAtLocal: string): AssessmentDraft {
   return {
-    version: 1,
+    version: 2,
     patientId,
     performedAtLocal,
     setting: 'home',
     position: '',
     minutesSinceMedication: '',
     painNrs: '',
-    mas: [],
-    tardieu: [],
-    rom: [],
-    pennFrequency: null,
-    spasmSeverity: null,
+    ...withEveryMeasure({}, {}),
     notes: '',
     notTested: [],
+  };
+}
+
+/** Every row of the form, in form order. */
+export function allRows(draft: AssessmentDraft): FormRow[] {
+  return ROW_MEASURES.flatMap((m) => draft.rows[m.code] ?? []);
+}
+
+/**
+ * A draft as kept on this device, in today's shape, or null when it is not a visit draft: version 1
+ * (the form's measures as fields of their own) becomes version 2; a measure the catalogue has gained
+ * since gets its empty rows or rating.
+ */
+export function upgradeDraft(stored: unknown): Omit<AssessmentDraft, 'notes'> | null {
+  if (typeof stored !== 'object' || stored === null) return null;
+  const d = stored as Record<string, unknown> & Partial<AssessmentDraft>;
+  if (d.version === 2) return { ...d, ...withEveryMeasure(d.rows ?? {}, d.ratings ?? {}) } as AssessmentDraft;
+  if (d.version !== 1) return null;
+  const { mas, tardieu, rom, pennFrequency, spasmSeverity, ...rest } = d as Record<string, unknown>;
+  const list = (x: unknown) => (Array.isArray(x) ? (x as FormRow[]) : []);
+  const rating = (x: unknown) => (typeof x === 'number' ? x : null);
+  return {
+    ...(rest as Omit<AssessmentDraft, 'notes' | 'rows' | 'ratings' | 'version'>),
+    version: 2,
+    ...withEveryMeasure({ mas: list(mas), tardieu: list(tardieu), rom: list(rom) }, { 'penn-spasm-frequency': rating(pennFrequency), 'spasm-severity': rating(spasmSeverity) }),
   };
 }
 
@@ -134,79 +147,22 @@ export function draftObservations(draft: AssessmentDraft): { observations: Obser
 
   const skipped = new Set(draft.notTested ?? []);
   const blank = (field: string) => issues.push({ field, message: 'no value yet: record one, or tap "Not tested today"' });
-  draft.mas.forEach((row, i) => {
-    if (skipped.has(row.key)) return;
-    if (row.grade === null) {
-      blank(`mas.${i}.grade`);
-      return;
+  for (const measure of FORM_MEASURES) {
+    const code = measure.code;
+    if (measure.form.shape === 'rating') {
+      const value = draft.ratings[code] ?? null;
+      const siteCode = measure.sites[0]?.code ?? '';
+      if (value !== null) add(code, { measureCode: code, siteCode, side: 'none', mode: null, instrument: null, value: { kind: 'rating', value } });
+      continue;
     }
-    let value: ObservationValue;
-    try {
-      value = ordinalValue('mas', row.grade);
-    } catch (error) {
-      // A grade off the scale can only come from a draft read back from storage: named, never thrown.
-      issues.push({ field: `mas.${i}.grade`, message: error instanceof RangeError ? error.message : String(error) });
-      return;
-    }
-    add(`mas.${i}`, { measureCode: 'mas', siteCode: row.siteCode, side: row.side, mode: null, instrument: null, value });
-  });
-
-  draft.tardieu.forEach((row, i) => {
-    if (skipped.has(row.key)) return;
-    const r1 = parseNumber(row.r1Deg);
-    const r2 = parseNumber(row.r2Deg);
-    if (r1 === null && r2 === null && row.quality === null) {
-      blank(`tardieu.${i}.r1Deg`);
-      return;
-    }
-    const missing: string[] = [];
-    if (r1 === null) missing.push('r1Deg');
-    if (r2 === null) missing.push('r2Deg');
-    if (row.quality === null) missing.push('quality');
-    for (const f of missing) issues.push({ field: `tardieu.${i}.${f}`, message: 'needed for a Tardieu entry' });
-    if (missing.length > 0) return;
-    if (Number.isNaN(r1) || Number.isNaN(r2)) {
-      issues.push({ field: `tardieu.${i}.${Number.isNaN(r1) ? 'r1Deg' : 'r2Deg'}`, message: 'not a number' });
-      return;
-    }
-    add(`tardieu.${i}`, {
-      measureCode: 'tardieu',
-      siteCode: row.siteCode,
-      side: row.side,
-      mode: null,
-      instrument: null,
-      value: tardieuValue(r1 as number, r2 as number, row.quality as number),
+    (draft.rows[code] ?? []).forEach((row, i) => {
+      if (skipped.has(row.key)) return;
+      const value = rowValue(code, `${code}.${i}`, row, blank, (field, message) => issues.push({ field, message }));
+      if (!value) return;
+      const { mode, instrument } = 'angleDeg' in row ? row : { mode: null, instrument: null };
+      add(`${code}.${i}`, { measureCode: code, siteCode: row.siteCode, side: row.side, mode, instrument, value });
     });
-  });
-
-  draft.rom.forEach((row, i) => {
-    if (skipped.has(row.key)) return;
-    const angle = parseNumber(row.angleDeg);
-    if (angle === null) {
-      blank(`rom.${i}.angleDeg`);
-      return;
-    }
-    if (Number.isNaN(angle)) {
-      issues.push({ field: `rom.${i}.angleDeg`, message: 'not a number' });
-      return;
-    }
-    add(`rom.${i}`, {
-      measureCode: 'rom',
-      siteCode: row.siteCode,
-      side: row.side,
-      mode: row.mode,
-      instrument: row.instrument,
-      value: { kind: 'angle', angleDeg: angle },
-    });
-  });
-
-  const whole = (code: string, field: string, value: number | null) => {
-    if (value === null) return;
-    const v: ObservationValue = { kind: 'rating', value };
-    add(field, { measureCode: code, siteCode: 'whole-body', side: 'none', mode: null, instrument: null, value: v });
-  };
-  whole('penn-spasm-frequency', 'pennFrequency', draft.pennFrequency);
-  whole('spasm-severity', 'spasmSeverity', draft.spasmSeverity);
+  }
 
   const pain = parseNumber(draft.painNrs);
   if (pain !== null && !(Number.isInteger(pain) && pain >= 0 && pain <= 10)) {
@@ -231,7 +187,52 @@ export function draftConditions(draft: AssessmentDraft): Assessment['conditions'
   };
 }
 
-/** Sites offered per section, straight from the catalogue. */
-export function catalogueSites(measureCode: string): ReadonlyArray<{ code: string; label: string }> {
-  return MEASURE_CATALOGUE.find((m) => m.code === measureCode)?.sites ?? [];
+/**
+ * A row's value by its shape, or null with the issue named: blank (no value yet), half filled (each
+ * missing part), not a number, a grade off the scale. The catalogue's limits are checked after (add).
+ */
+function rowValue(code: string, field: string, row: FormRow, blank: (field: string) => void, issue: (field: string, message: string) => void): ObservationValue | null {
+  if ('grade' in row) {
+    if (row.grade === null) {
+      blank(`${field}.grade`);
+      return null;
+    }
+    try {
+      return ordinalValue(code, row.grade);
+    } catch (error) {
+      // A grade off the scale can only come from a draft read back from storage: named, never thrown.
+      issue(`${field}.grade`, error instanceof RangeError ? error.message : String(error));
+      return null;
+    }
+  }
+  if ('r1Deg' in row) {
+    const r1 = parseNumber(row.r1Deg);
+    const r2 = parseNumber(row.r2Deg);
+    if (r1 === null && r2 === null && row.quality === null) {
+      blank(`${field}.r1Deg`);
+      return null;
+    }
+    const missing: string[] = [];
+    if (r1 === null) missing.push('r1Deg');
+    if (r2 === null) missing.push('r2Deg');
+    if (row.quality === null) missing.push('quality');
+    for (const f of missing) issue(`${field}.${f}`, 'needed for a Tardieu entry');
+    if (missing.length > 0) return null;
+    if (Number.isNaN(r1) || Number.isNaN(r2)) {
+      issue(`${field}.${Number.isNaN(r1) ? 'r1Deg' : 'r2Deg'}`, 'not a number');
+      return null;
+    }
+    return tardieuValue(r1 as number, r2 as number, row.quality as number);
+  }
+  const angle = parseNumber(row.angleDeg);
+  if (angle === null) {
+    blank(`${field}.angleDeg`);
+    return null;
+  }
+  if (Number.isNaN(angle)) {
+    issue(`${field}.angleDeg`, 'not a number');
+    return null;
+  }
+  return { kind: 'angle', angleDeg: angle };
 }
+

@@ -4,7 +4,7 @@ export { updateWatch } from './update-watch.svelte';
 export { default as ChoiceButtons } from './ChoiceButtons.svelte';
 export { default as OtherDrafts } from './OtherDrafts.svelte';
 export { default as VirtualList } from './VirtualList.svelte';
-export { type AssessmentDraft, type DraftIssue, type InstrumentRow, type ObservationDraft, catalogueSites, draftConditions, draftObservations, emptyDraft } from './assessment-draft';
+export { type AssessmentDraft, type DraftIssue, type InstrumentRow, type ObservationDraft, draftConditions, draftObservations, emptyDraft } from './assessment-draft';
 export { type CaseloadFilter, type CaseloadRow, caseloadRows, filterCaseload } from './caseload-summary';
 export { downloadBlob, downloadText } from './download';
 export { type DraftChoice, DraftKeeper, keepDraftWhenLeaving } from './draft-keeper';
@@ -40,6 +40,26 @@ export { type ShareOutcome, canShareFiles, shareOrDownloadFile } from './share-o
 export { default as TeamSection } from './team/TeamSection.svelte';
 export { visitContents } from './visit-contents';
 export { type KeptVisit, visitDraftKeeper, visitDraftSize } from './visit-draft';
+export { VISIT_MESSAGES } from './visit-messages';
+export {
+  type AngleMeasure,
+  type AngleRow,
+  type FormRow,
+  type GradeMeasure,
+  type GradeRow,
+  type RatingMeasure,
+  type RowMeasure,
+  type TardieuFormMeasure,
+  type TardieuRow,
+  angleNote,
+  formMeasure,
+  formSections,
+  gradeOptions,
+  newRow,
+  qualityOptions,
+  ratingOptions,
+  rowMeasure,
+} from './visit-form-layout';
 export {
   type KeptProtocol,
   PENDULUM_PRIMARY,
@@ -53,5 +73,6 @@ export {
   protocolFromDraft,
   protocolStateKey,
   readingForRow,
+  rowCount,
 } from './visit-protocol';
 export { type UnreadableReading, type VisitReading, readingSaveInputs, repeatedReadings } from './visit-readings';

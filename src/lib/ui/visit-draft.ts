@@ -1,5 +1,6 @@
 import type { KinnoteStore } from '$lib/store';
-import type { AssessmentDraft } from './assessment-draft';
+import { allRows, upgradeDraft, type AssessmentDraft } from './assessment-draft';
+import { rowFilled } from './visit-form-layout';
 import { DraftKeeper, type DraftEnvironment } from './draft-keeper';
 import { readingsFromDraft, type UnreadableReading, type VisitReading } from './visit-readings';
 
@@ -43,8 +44,9 @@ export function visitDraftKeeper(options: {
       return { draft: rest, sealedNotes: kept, readings: [...readings, ...unreadable.map((u) => u.stored)] };
     },
     decode: async (content) => {
-      const c = content as { draft?: Omit<AssessmentDraft, 'notes'>; sealedNotes?: unknown; readings?: unknown } | null;
-      if (c?.draft?.version !== 1 || c.draft.patientId !== patientId) return null;
+      const c = content as { draft?: unknown; sealedNotes?: unknown; readings?: unknown } | null;
+      const draft = upgradeDraft(c?.draft);
+      if (!c || !draft || draft.patientId !== patientId) return null;
       let notes = '';
       const vault = options.vault();
       if (c.sealedNotes && vault?.status === 'unlocked') {
@@ -55,7 +57,7 @@ export function visitDraftKeeper(options: {
         }
       }
       const { readings, unreadable } = readingsFromDraft(c.readings);
-      return { form: { ...c.draft, notes } as AssessmentDraft, sealed: c.sealedNotes ?? null, readings, unreadable };
+      return { form: { ...draft, notes }, sealed: c.sealedNotes ?? null, readings, unreadable };
     },
     onError: options.onError,
     ...(options.environment ? { environment: options.environment } : {}),
@@ -65,12 +67,6 @@ export function visitDraftKeeper(options: {
 /** What a visit draft holds, in a few words, for the list of other drafts (OtherDrafts.svelte). */
 export function visitDraftSize(value: KeptVisit): string {
   const f = value.form;
-  const filled =
-    f.mas.filter((r) => r.grade !== null).length +
-    f.tardieu.length +
-    f.rom.filter((r) => r.angleDeg !== '').length +
-    (f.pennFrequency === null ? 0 : 1) +
-    (f.spasmSeverity === null ? 0 : 1) +
-    value.readings.length;
+  const filled = allRows(f).filter(rowFilled).length + Object.values(f.ratings).filter((v) => v !== null).length + value.readings.length;
   return `${filled} value${filled === 1 ? '' : 's'}`;
 }

@@ -1,6 +1,7 @@
 import { findMeasure, type Assessment, type Instrument, type Observation, type ObservationValue, type RomMode } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
-import type { AssessmentDraft, InstrumentRow } from './assessment-draft';
+import { allRows, type AssessmentDraft, type InstrumentRow } from './assessment-draft';
+import { FORM_MEASURES as LAID_OUT, RATING_MEASURES, ROW_MEASURES, newRow, rowMeasure } from './visit-form-layout';
 import type { VisitReading } from './visit-readings';
 
 /**
@@ -35,8 +36,8 @@ function readingKind(o: Pick<Observation, 'measureCode' | 'traceId'>): Instrumen
   return null;
 }
 
-/** Measures the visit form lays out as rows; instrument readings (pendulum) come from their own flows. */
-const FORM_MEASURES = ['mas', 'tardieu', 'rom', 'penn-spasm-frequency', 'spasm-severity'] as const;
+/** Measures the visit form lays out (catalogue entries with a `form`); instrument readings (pendulum) come from their own flows. */
+const FORM_MEASURES: readonly string[] = LAID_OUT.map((m) => m.code);
 
 /** Calendar day of an assessment in the device's time zone (visits are days as the therapist sees them). */
 function localDay(iso: string): string {
@@ -51,7 +52,7 @@ function localDay(iso: string): string {
  * left before right. Empty when the patient has no history.
  */
 export function visitProtocol(assessments: readonly Assessment[], observations: readonly Observation[]): ProtocolTest[] {
-  const live = observations.filter((o) => !o.deleted && ((FORM_MEASURES as readonly string[]).includes(o.measureCode) || isPendulum(o.measureCode)));
+  const live = observations.filter((o) => !o.deleted && (FORM_MEASURES.includes(o.measureCode) || isPendulum(o.measureCode)));
   const withForm = new Set(live.map((o) => o.assessmentId));
   const candidates = assessments.filter((a) => !a.deleted && withForm.has(a.id));
   if (candidates.length === 0) return [];
@@ -71,7 +72,7 @@ export function visitProtocol(assessments: readonly Assessment[], observations: 
     if (!tests.has(key)) tests.set(key, { measureCode: o.measureCode, siteCode: o.siteCode, side: o.side, mode: o.mode, instrument: o.instrument, ...(reading ? { reading } : {}) });
   }
   const order = (t: ProtocolTest) => {
-    const measureIndex = t.reading === 'pendulum' ? FORM_MEASURES.length : (FORM_MEASURES as readonly string[]).indexOf(t.measureCode);
+    const measureIndex = t.reading === 'pendulum' ? FORM_MEASURES.length : FORM_MEASURES.indexOf(t.measureCode);
     const siteIndex = findMeasure(t.measureCode)?.sites.findIndex((s) => s.code === t.siteCode) ?? 0;
     const sideIndex = t.side === 'left' ? 0 : t.side === 'right' ? 1 : 2;
     return [measureIndex, siteIndex, sideIndex, t.mode === 'active' ? 1 : 0];
@@ -119,16 +120,13 @@ export function describeValue(value: ObservationValue): string {
  * instrument fixed, so the series continue) and no values: the therapist records today's.
  */
 export function draftFromProtocol(patientId: string, performedAtLocal: string, protocol: readonly ProtocolTest[], empty: AssessmentDraft): AssessmentDraft {
-  const draft: AssessmentDraft = { ...empty, patientId, performedAtLocal, mas: [], tardieu: [], rom: [], notTested: [], instruments: [] };
+  const draft: AssessmentDraft = { ...empty, patientId, performedAtLocal, rows: Object.fromEntries(ROW_MEASURES.map((m) => [m.code, []])), ratings: { ...empty.ratings }, notTested: [], instruments: [] };
   protocol.forEach((t, i) => {
     const key = `carried-${i}`;
     const side = t.side === 'right' ? 'right' : 'left';
+    const measure = rowMeasure(t.measureCode);
     if (t.reading) draft.instruments?.push({ key, kind: t.reading, siteCode: t.siteCode, side, mode: t.mode });
-    else if (t.measureCode === 'mas') draft.mas.push({ key, siteCode: t.siteCode, side, grade: null, carried: true });
-    else if (t.measureCode === 'tardieu') draft.tardieu.push({ key, siteCode: t.siteCode, side, r1Deg: '', r2Deg: '', quality: null, carried: true });
-    else if (t.measureCode === 'rom') {
-      draft.rom.push({ key, siteCode: t.siteCode, side, mode: t.mode ?? 'passive', instrument: t.instrument ?? 'universal-goniometer', angleDeg: '', carried: true });
-    }
+    else if (measure) draft.rows[measure.code]?.push(newRow(measure, { key, siteCode: t.siteCode, side, carried: true }, { mode: t.mode, instrument: t.instrument }));
   });
   return draft;
 }
@@ -145,13 +143,12 @@ export interface KeptProtocol {
  * ratings when recorded.
  */
 export function protocolFromDraft(draft: AssessmentDraft, readings: readonly VisitReading[] = []): ProtocolTest[] {
-  const tests: ProtocolTest[] = [
-    ...draft.mas.map((r) => ({ measureCode: 'mas', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
-    ...draft.tardieu.map((r) => ({ measureCode: 'tardieu', siteCode: r.siteCode, side: r.side, mode: null, instrument: null })),
-    ...draft.rom.map((r) => ({ measureCode: 'rom', siteCode: r.siteCode, side: r.side, mode: r.mode, instrument: r.instrument })),
-  ];
-  if (draft.pennFrequency !== null) tests.push({ measureCode: 'penn-spasm-frequency', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
-  if (draft.spasmSeverity !== null) tests.push({ measureCode: 'spasm-severity', siteCode: 'whole-body', side: 'none', mode: null, instrument: null });
+  const tests: ProtocolTest[] = ROW_MEASURES.flatMap((m) =>
+    (draft.rows[m.code] ?? []).map((r) => ({ measureCode: m.code, siteCode: r.siteCode, side: r.side, mode: 'mode' in r ? r.mode : null, instrument: 'instrument' in r ? r.instrument : null })),
+  );
+  for (const m of RATING_MEASURES) {
+    if ((draft.ratings[m.code] ?? null) !== null) tests.push({ measureCode: m.code, siteCode: m.sites[0]?.code ?? '', side: 'none', mode: null, instrument: null });
+  }
   // Instrument readings: the rows carried (taken today or not) and any reading taken today.
   for (const r of draft.instruments ?? []) tests.push(instrumentTest(r));
   for (const reading of readings) {
@@ -200,7 +197,7 @@ export function missingReadings(draft: AssessmentDraft, readings: readonly Visit
 export function chooseProtocol(kept: KeptProtocol | undefined, assessments: readonly Assessment[], observations: readonly Observation[]): ProtocolTest[] {
   const live = assessments.filter((a) => !a.deleted);
   const keptVisit = kept ? live.find((a) => a.id === kept.afterAssessmentId) : undefined;
-  if (kept && keptVisit && live.every((a) => Date.parse(a.performedAt) <= Date.parse(keptVisit.performedAt) || !observations.some((o) => o.assessmentId === a.id && !o.deleted && (FORM_MEASURES as readonly string[]).includes(o.measureCode)))) {
+  if (kept && keptVisit && live.every((a) => Date.parse(a.performedAt) <= Date.parse(keptVisit.performedAt) || !observations.some((o) => o.assessmentId === a.id && !o.deleted && FORM_MEASURES.includes(o.measureCode)))) {
     return [...kept.tests];
   }
   return visitProtocol(assessments, observations);
@@ -230,26 +227,23 @@ export function draftFromVisit(visit: Assessment, observations: readonly Observa
   });
   const valueOf = (measureCode: string, siteCode: string, side: string, mode: string | null = null) =>
     own.find((o) => seriesKey(o) === seriesKey({ measureCode, siteCode, side: side as Observation['side'], mode: mode as Observation['mode'] }))?.value;
-  for (const row of draft.mas) {
-    const v = valueOf('mas', row.siteCode, row.side);
-    if (v?.kind === 'ordinal') row.grade = v.grade;
+  for (const m of ROW_MEASURES) {
+    for (const row of draft.rows[m.code] ?? []) {
+      const v = valueOf(m.code, row.siteCode, row.side, 'mode' in row ? row.mode : null);
+      if ('grade' in row && v?.kind === 'ordinal') row.grade = v.grade;
+      else if ('r1Deg' in row && v?.kind === 'tardieu') Object.assign(row, { r1Deg: String(v.r1Deg), r2Deg: String(v.r2Deg), quality: v.quality });
+      else if ('angleDeg' in row && v?.kind === 'angle') row.angleDeg = String(v.angleDeg);
+    }
   }
-  for (const row of draft.tardieu) {
-    const v = valueOf('tardieu', row.siteCode, row.side);
-    if (v?.kind === 'tardieu') Object.assign(row, { r1Deg: String(v.r1Deg), r2Deg: String(v.r2Deg), quality: v.quality });
+  for (const m of RATING_MEASURES) {
+    const v = valueOf(m.code, m.sites[0]?.code ?? '', 'none');
+    draft.ratings[m.code] = v?.kind === 'rating' ? v.value : null;
   }
-  for (const row of draft.rom) {
-    const v = valueOf('rom', row.siteCode, row.side, row.mode);
-    if (v?.kind === 'angle') row.angleDeg = String(v.angleDeg);
-  }
-  const rating = (code: string) => {
-    const v = valueOf(code, 'whole-body', 'none');
-    return v?.kind === 'rating' ? v.value : null;
-  };
-  draft.pennFrequency = rating('penn-spasm-frequency');
-  draft.spasmSeverity = rating('spasm-severity');
   return draft;
 }
 
 /** The measures the visit form holds (an amendment never touches other observations of the visit). */
 export const VISIT_FORM_MEASURES: readonly string[] = FORM_MEASURES;
+
+/** How many test rows the form holds (none: a first visit may start from a template). */
+export const rowCount = (draft: AssessmentDraft): number => allRows(draft).length;

@@ -129,4 +129,24 @@ describe('referenceMdc95', () => {
   it('does not use a figure for another instrument', () => {
     expect(referenceMdc95('rom', 'elbow-flexion', { instrument: 'phone-sensor', raters: 'same-rater' })).toBeNull();
   });
+
+  it("lays out in the visit form only measures whose shape fits their kind, the pendulum indices not at all", () => {
+    // The form's shapes (DEVELOPERS.md, measure catalogue): grade = an ordinal per site and side;
+    // tardieu = the Tardieu value per site and side; angle = one angle per site and side;
+    // rating = one whole number of a whole-person measure.
+    const fits: Record<string, (m: (typeof MEASURE_CATALOGUE)[number]) => boolean> = {
+      grade: (m) => m.kind === 'ordinal' && m.lateral,
+      tardieu: (m) => m.kind === 'tardieu' && m.lateral,
+      angle: (m) => m.kind === 'angle' && m.lateral,
+      rating: (m) => m.kind === 'rating' && !m.lateral && m.integer && m.sites.length === 1,
+    };
+    for (const m of MEASURE_CATALOGUE) if (m.form) expect(fits[m.form.shape]?.(m), `${m.code} as ${m.form.shape}`).toBe(true);
+    expect(MEASURE_CATALOGUE.filter((m) => m.form).map((m) => `${m.code}:${m.form?.shape}`)).toEqual([
+      'mas:grade',
+      'tardieu:tardieu',
+      'rom:angle',
+      'penn-spasm-frequency:rating',
+      'spasm-severity:rating',
+    ]);
+  });
 });

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { MEASURE_CATALOGUE } from '../../../src/lib/domain';
 import { VISIT_TEMPLATES, checkVisitTemplate, findVisitTemplate, templateTests, type VisitTemplate } from '../../../src/lib/domain/visit-templates';
 import { emptyDraft } from '../../../src/lib/ui/assessment-draft';
+import type { AngleRow } from '../../../src/lib/ui/visit-form-layout';
 import { draftFromProtocol, protocolFromDraft } from '../../../src/lib/ui/visit-protocol';
 
 // The templates are checked against the catalogue itself (not a copy of it): a renamed site or a
@@ -59,10 +60,10 @@ describe('visit templates', () => {
     for (const template of VISIT_TEMPLATES) {
       const tests = templateTests(template, ['right']);
       const draft = draftFromProtocol('p', '2026-12-01T09:30', tests, emptyDraft('p', ''));
-      const rows = [...draft.mas, ...draft.tardieu, ...draft.rom];
+      const rows = [...draft.rows.mas!, ...draft.rows.tardieu!, ...draft.rows.rom!];
       expect(rows.length, template.code).toBe(tests.filter((t) => t.side !== 'none').length);
       expect(rows.every((r) => r.carried === true && r.side === 'right'), template.code).toBe(true);
-      for (const r of draft.rom) {
+      for (const r of draft.rows.rom as AngleRow[]) {
         const t = template.tests.find((x) => x.measureCode === 'rom' && x.siteCode === r.siteCode);
         expect([r.mode, r.instrument]).toEqual([t?.mode, t?.instrument]);
       }

@@ -18,10 +18,8 @@ describe('draftObservations: the values typed on the visit form', () => {
   it('turns a complete form into observations: a grade with its rank, Tardieu R2 − R1, a decimal comma, the whole-body ratings', () => {
     const { observations, issues } = draftObservations(
       draft({
-        mas: [masRow('m1', 'elbow-flexors', '1+')],
-        tardieu: [tardieuRow('t1', '-10', '5', 2)],
-        rom: [romRow('r1', ' 112,5 ')],
-        pennFrequency: 2,
+        rows: { mas: [masRow('m1', 'elbow-flexors', '1+')], tardieu: [tardieuRow('t1', '-10', '5', 2)], rom: [romRow('r1', ' 112,5 ')] },
+        ratings: { 'penn-spasm-frequency': 2 },
         painNrs: '3',
       }),
     );
@@ -38,30 +36,30 @@ describe('draftObservations: the values typed on the visit form', () => {
   });
 
   it('names the field of a blank row, and leaves out a row marked "Not tested today"', () => {
-    const d = draft({ mas: [masRow('m1', 'elbow-flexors', null), masRow('m2', 'wrist-flexors', null)], rom: [romRow('r1', '  ')], notTested: ['m2'] });
+    const d = draft({ rows: { mas: [masRow('m1', 'elbow-flexors', null), masRow('m2', 'wrist-flexors', null)], rom: [romRow('r1', '  ')] }, notTested: ['m2'] });
     expect(fields(d)).toEqual(['mas.0.grade', 'rom.0.angleDeg']);
     expect(draftObservations(d).observations).toEqual([]);
   });
 
   it('names each missing part of a half-filled Tardieu row, and a value that is not a number', () => {
-    expect(fields(draft({ tardieu: [tardieuRow('t1', '20', '', null)] }))).toEqual(['tardieu.0.r2Deg', 'tardieu.0.quality']);
-    expect(fields(draft({ tardieu: [tardieuRow('t1', '20', 'ten', 1)] }))).toEqual(['tardieu.0.r2Deg']);
-    expect(fields(draft({ rom: [romRow('r1', '90°')] }))).toEqual(['rom.0.angleDeg']);
+    expect(fields(draft({ rows: { tardieu: [tardieuRow('t1', '20', '', null)] } }))).toEqual(['tardieu.0.r2Deg', 'tardieu.0.quality']);
+    expect(fields(draft({ rows: { tardieu: [tardieuRow('t1', '20', 'ten', 1)] } }))).toEqual(['tardieu.0.r2Deg']);
+    expect(fields(draft({ rows: { rom: [romRow('r1', '90°')] } }))).toEqual(['rom.0.angleDeg']);
   });
 
   it("names the value's field when the catalogue refuses it: outside the joint's limits, R1 past R2", () => {
     // 200° knee flexion is beyond any published normal plus the 15° margin (DEVELOPERS.md, measure catalogue).
-    expect(fields(draft({ rom: [romRow('r1', '200')] }))).toEqual(['rom.0.angleDeg']);
+    expect(fields(draft({ rows: { rom: [romRow('r1', '200')] } }))).toEqual(['rom.0.angleDeg']);
     // R1 (fast catch) cannot exceed R2 (slow passive range): the Tardieu definition (REFERENCES.md).
-    expect(fields(draft({ tardieu: [tardieuRow('t1', '10', '0', 1)] }))).toEqual(['tardieu.0.r1Deg']);
+    expect(fields(draft({ rows: { tardieu: [tardieuRow('t1', '10', '0', 1)] } }))).toEqual(['tardieu.0.r1Deg']);
   });
 
   it('names a grade that is not on the scale (a draft read back from storage) instead of throwing', () => {
-    expect(fields(draft({ mas: [masRow('m1', 'elbow-flexors', '5')] }))).toEqual(['mas.0.grade']);
+    expect(fields(draft({ rows: { mas: [masRow('m1', 'elbow-flexors', '5')] } }))).toEqual(['mas.0.grade']);
   });
 
   it('names the second of two rows for the same muscle and side', () => {
-    const issues = draftObservations(draft({ mas: [masRow('m1', 'elbow-flexors', '1'), masRow('m2', 'elbow-flexors', '2')] })).issues;
+    const issues = draftObservations(draft({ rows: { mas: [masRow('m1', 'elbow-flexors', '1'), masRow('m2', 'elbow-flexors', '2')] } })).issues;
     expect(issues.map((i) => i.field)).toEqual(['mas.1']);
     expect(issues[0]!.message).toContain('entered twice');
   });

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Assessment, Observation, ObservationValue } from '../../../src/lib/domain';
 import { seriesKey } from '../../../src/lib/stats';
-import { draftObservations, emptyDraft } from '../../../src/lib/ui/assessment-draft';
+import { draftObservations, emptyDraft, type AssessmentDraft } from '../../../src/lib/ui/assessment-draft';
+import type { AngleRow, GradeRow, TardieuRow } from '../../../src/lib/ui/visit-form-layout';
 import { anAssessment, anObservation, masGrade } from '../../support/records';
 import { chooseProtocol, describeValue, draftFromProtocol, draftFromVisit, lastObservations, missingReadings, protocolFromDraft, readingForRow, visitProtocol } from '../../../src/lib/ui/visit-protocol';
 import type { ReadingObservation, VisitReading } from '../../../src/lib/ui/visit-readings';
@@ -23,6 +24,10 @@ let n = 0;
 const obs = (assessmentId: string, takenAt: string, measureCode: string, siteCode: string, side: Observation['side'], value: ObservationValue, extra: Partial<Observation> = {}): Observation =>
   anObservation({ ...stamp, id: `o${n++}`, assessmentId, takenAt, measureCode, siteCode, side, value, ...extra });
 const grade = masGrade;
+// The form's rows of each shape (the draft holds them by measure code).
+const mas = (d: AssessmentDraft) => d.rows.mas as GradeRow[];
+const tardieu = (d: AssessmentDraft) => d.rows.tardieu as TardieuRow[];
+const rom = (d: AssessmentDraft) => d.rows.rom as AngleRow[];
 
 const T1 = '2026-10-01T09:00:00.000Z';
 const T2 = '2026-11-05T09:00:00.000Z';
@@ -74,7 +79,7 @@ describe('visitProtocol', () => {
     ];
     const protocol = visitProtocol([v], recorded);
     const draft = draftFromProtocol('p', '2026-12-08T10:00', protocol, emptyDraft('p', ''));
-    expect(draft.rom.map((r) => `${r.side} ${r.siteCode} ${r.instrument}`)).toEqual(['left knee-flexion universal-goniometer']);
+    expect(rom(draft).map((r) => `${r.side} ${r.siteCode} ${r.instrument}`)).toEqual(['left knee-flexion universal-goniometer']);
     expect(draft.instruments?.map(({ kind, siteCode, side, mode }) => `${kind} ${side} ${siteCode} ${mode ?? ''}`.trim())).toEqual(['inclinometer right knee-flexion passive', 'pendulum right knee']);
     // Not taken and not marked: named, like a blank form row; "Not tested today" clears it.
     const rows = draft.instruments ?? [];
@@ -124,13 +129,13 @@ describe('a visit laid out from the protocol', () => {
 
   it('continues the same series: every saved observation has the series key of a protocol test', () => {
     const draft = laidOut();
-    draft.mas[0]!.grade = '1';
-    draft.mas[1]!.grade = '1+';
-    draft.tardieu[0]!.r1Deg = '5';
-    draft.tardieu[0]!.r2Deg = '20';
-    draft.tardieu[0]!.quality = 2;
-    draft.notTested = [draft.rom[0]!.key];
-    draft.pennFrequency = 1;
+    mas(draft)[0]!.grade = '1';
+    mas(draft)[1]!.grade = '1+';
+    tardieu(draft)[0]!.r1Deg = '5';
+    tardieu(draft)[0]!.r2Deg = '20';
+    tardieu(draft)[0]!.quality = 2;
+    draft.notTested = [rom(draft)[0]!.key];
+    draft.ratings['penn-spasm-frequency'] = 1;
     const { observations: out, issues } = draftObservations(draft);
     expect(issues).toEqual([]);
     const protocolKeys = new Set(protocol.map((t) => seriesKey(t)));
@@ -144,9 +149,9 @@ describe('a visit laid out from the protocol', () => {
 describe('the protocol kept after a save', () => {
   const protocol = visitProtocol(assessments, observations);
   const draft = draftFromProtocol('p', '2026-12-01T10:00', protocol, emptyDraft('p', '2026-12-01T10:00'));
-  draft.notTested = [draft.rom[0]!.key];
-  draft.mas.splice(1, 1); // removed: leaves the protocol
-  draft.pennFrequency = 1;
+  draft.notTested = [rom(draft)[0]!.key];
+  mas(draft).splice(1, 1); // removed: leaves the protocol
+  draft.ratings['penn-spasm-frequency'] = 1;
   const kept = { afterAssessmentId: 'a3', tests: protocolFromDraft(draft) };
   const a3 = visit('a3', '2026-12-01T10:00:00.000Z');
   const a3obs = obs('a3', '2026-12-01T10:00:00.000Z', 'mas', 'elbow-flexors', 'right', grade('1', 1));

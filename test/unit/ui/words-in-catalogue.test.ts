@@ -14,7 +14,8 @@ const ROOT = join(__dirname, '../../..');
 
 /**
  * The screens whose words must all be in a catalogue: patient mode, the shared programme components,
- * the therapist's patient page (home-log timeline, report, saved swing, programme editor and hand-over),
+ * the therapist's patient page (home-log timeline, visit form, report, saved swing, programme editor and
+ * hand-over),
  * the measuring instruments and their pages, the drafts list the programme editor shows, the therapist's
  * first screen, menu, caseload, new-patient form, settings, reliability studies, cohort audit, and the
  * shared components of lib/ui.
@@ -42,8 +43,6 @@ const COVERED = [
   'src/lib/ui/VirtualList.svelte',
   'src/lib/ui/ReanalysisNotice.svelte',
 ];
-/** Parts of a covered folder not moved to a catalogue yet (the visit form). */
-const NOT_YET = ['src/routes/patients/[id]/assess'];
 /** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
 const CATALOGUES = /-messages(?:-es)?\.ts$/;
 
@@ -129,7 +128,6 @@ function filesUnder(folder: string): string[] {
   const out: string[] = [];
   for (const name of readdirSync(folder)) {
     const path = join(folder, name);
-    if (NOT_YET.some((part) => path === join(ROOT, part))) continue;
     if (statSync(path).isDirectory()) out.push(...filesUnder(path));
     else if (/\.(svelte|ts)$/.test(name) && !CATALOGUES.test(name)) out.push(path);
   }

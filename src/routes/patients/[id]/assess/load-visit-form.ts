@@ -1,6 +1,6 @@
 import type { Assessment, Observation, Patient } from '$lib/domain';
 import { readLocalState, type KinnoteStore, amendmentsOf } from '$lib/store';
-import { emptyDraft, type AssessmentDraft, chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, protocolStateKey, type KeptProtocol } from '$lib/ui';
+import { VISIT_MESSAGES as M, emptyDraft, type AssessmentDraft, chooseProtocol, draftFromProtocol, draftFromVisit, lastObservations, protocolStateKey, type KeptProtocol } from '$lib/ui';
 
 export interface VisitFormStart {
   readonly lastBySeries: Map<string, Observation>;
@@ -32,7 +32,7 @@ export async function loadVisitForm(store: KinnoteStore, patientId: string, amen
   const visits = assessmentRows.map((a) => store.assessments.redact(a)).filter((a): a is Assessment => a !== null);
   const observations = observationRows as Observation[];
   const amended = amendId ? visits.find((a) => a.id === amendId && !a.deleted) : undefined;
-  if (amendId && !amended) throw new Error('that visit is not on this device (deleted, or another patient)');
+  if (amendId && !amended) throw new Error(M.visitNotHere);
   // Amending: "last time" is the visit before the amended one (its own values are not compared with themselves).
   const before = (iso: string) => !amended || Date.parse(iso) < Date.parse(amended.performedAt);
   const lastBySeries = lastObservations(observations.filter((o) => before(o.takenAt)));

@@ -1,5 +1,5 @@
 import { amendAssessment, saveAssessment, writeLocalState, type KinnoteStore } from '$lib/store';
-import { draftConditions, type AssessmentDraft, type ObservationDraft, protocolFromDraft, protocolStateKey, VISIT_FORM_MEASURES, type KeptProtocol, readingSaveInputs, type VisitReading } from '$lib/ui';
+import { VISIT_MESSAGES as M, draftConditions, type AssessmentDraft, type ObservationDraft, protocolFromDraft, protocolStateKey, VISIT_FORM_MEASURES, type KeptProtocol, readingSaveInputs, type VisitReading } from '$lib/ui';
 
 /**
  * Saves a new visit: the form's observations and the instrument readings taken in it, with their
@@ -12,7 +12,7 @@ export async function saveNewVisit(
   input: { patientId: string; draft: AssessmentDraft; observations: readonly ObservationDraft[]; readings: readonly VisitReading[]; draftId: string | null },
 ): Promise<void> {
   const actor = store.actor;
-  if (!actor) throw new Error('This device is not set up yet (Settings).');
+  if (!actor) throw new Error(M.notSetUp);
   const { patientId, draft } = input;
   const performedAt = new Date(draft.performedAtLocal).toISOString();
   const fromReadings = readingSaveInputs(input.readings, patientId, performedAt);

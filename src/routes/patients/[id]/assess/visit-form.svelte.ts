@@ -1,7 +1,7 @@
 import { tick } from 'svelte';
 import { findMeasure, findSite, type Observation } from '$lib/domain';
 import { seriesKey } from '$lib/stats';
-import { catalogueSites, draftObservations, emptyDraft, type AssessmentDraft, type DraftIssue, repeatedReadings, type UnreadableReading, type VisitReading, missingReadings } from '$lib/ui';
+import { VISIT_MESSAGES as M, draftObservations, newRow, rowMeasure, type FormRow, type RowMeasure, emptyDraft, type AssessmentDraft, type DraftIssue, repeatedReadings, type UnreadableReading, type VisitReading, missingReadings } from '$lib/ui';
 import { lastTimeText, localNow } from './visit-words';
 
 
@@ -36,7 +36,7 @@ export class VisitForm {
     const issues: DraftIssue[] = [...form.issues];
     for (const r of repeatedReadings(this.readings, form.observations)) issues.push({ field: `reading-${r.key}`, message: r.message });
     if (!this.amendId) issues.push(...missingReadings(this.draft, this.readings));
-    if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: 'say why the visit is amended (kept in the audit)' });
+    if (this.amendId && this.amendReason.trim() === '') issues.push({ field: 'amendReason', message: M.amendReasonNeeded });
     return { observations: form.observations, issues };
   });
 
@@ -66,16 +66,22 @@ export class VisitForm {
     return `${Date.now().toString(36)}-${this.#keyCounter}`;
   }
 
-  /** Adds a row to a section; focus moves to its first control (not left on the button). */
-  async addRow(section: 'mas' | 'tardieu' | 'rom'): Promise<void> {
+  /** Adds a row of a measure (its first site, left); focus moves to its first control (not left on the button). */
+  async addRow(measureCode: string): Promise<void> {
+    const measure = rowMeasure(measureCode);
+    if (!measure) return;
     const key = this.nextKey();
-    const siteCode = catalogueSites(section)[0]?.code ?? '';
-    if (section === 'mas') this.draft.mas.push({ key, siteCode, side: 'left', grade: null });
-    else if (section === 'tardieu') this.draft.tardieu.push({ key, siteCode, side: 'left', r1Deg: '', r2Deg: '', quality: null });
-    else this.draft.rom.push({ key, siteCode, side: 'left', mode: 'passive', instrument: 'universal-goniometer', angleDeg: '' });
+    (this.draft.rows[measureCode] ??= []).push(newRow(measure, { key, siteCode: measure.sites[0]?.code ?? '', side: 'left' }));
     await tick();
     document.getElementById(`site-${key}`)?.focus();
   }
+}
+
+/** A carried row's name: "Left ankle plantarflexors"; with its mode and instrument when it has them ("…, passive, inclinometer"). */
+export function rowTitle(measure: RowMeasure, row: FormRow): string {
+  const base = `${M.sideWord(row.side)} ${siteName(measure.code, row.siteCode).toLowerCase()}`;
+  const extra = 'angleDeg' in row ? [row.mode, row.instrument === null ? null : M.instruments[row.instrument].toLowerCase()].filter((x) => x !== null) : [];
+  return [base, ...extra].join(', ');
 }
 
 export function siteName(measureCode: string, siteCode: string): string {

@@ -1,4 +1,4 @@
-import type { DraftIssue } from '$lib/ui';
+import { VISIT_MESSAGES as M, formMeasure, type DraftIssue } from '$lib/ui';
 import { siteName, type VisitForm } from './visit-form.svelte';
 
 // Every issue names its field and links to it: "rom.2.angleDeg" → the element with id "rom-2-angleDeg",
@@ -14,26 +14,16 @@ function issueTarget(field: string): HTMLElement | null {
   return null;
 }
 
-const NAMED: Record<string, string> = {
-  painNrs: 'Pain now',
-  minutesSinceMedication: 'Minutes since medication',
-  performedAtLocal: 'Date and time',
-  amendReason: 'Reason for the amendment',
-  pennFrequency: 'Penn spasm frequency',
-  spasmSeverity: 'Spasm severity',
-};
-
 /** The field an issue is about, in words: "Range of motion, left knee flexion". */
 export function issueLabel(form: VisitForm, issue: DraftIssue): string {
   const [section, index] = issue.field.split('.');
-  if (section?.startsWith('reading-')) return 'Instrument reading';
-  if (section?.startsWith('instrument-')) return 'Instrument reading to take today';
-  const i = Number(index);
-  const draft = form.draft;
-  const row = section === 'mas' ? draft.mas[i] : section === 'tardieu' ? draft.tardieu[i] : section === 'rom' ? draft.rom[i] : undefined;
-  const measure = { mas: 'Modified Ashworth', tardieu: 'Tardieu', rom: 'Range of motion' }[section as 'mas'];
-  if (row && measure) return `${measure}, ${row.side} ${siteName(section as string, row.siteCode).toLowerCase()}`;
-  return NAMED[issue.field] ?? issue.field;
+  if (section?.startsWith('reading-')) return M.instrumentReading;
+  if (section?.startsWith('instrument-')) return M.instrumentReadingDue;
+  const measure = section === undefined ? undefined : formMeasure(section);
+  const row = measure ? form.draft.rows[measure.code]?.[Number(index)] : undefined;
+  if (measure && row) return `${measure.form.name}, ${row.side} ${siteName(measure.code, row.siteCode).toLowerCase()}`;
+  if (measure && index === undefined) return measure.form.name;
+  return M.fieldNames[issue.field] ?? issue.field;
 }
 
 /** Moves focus to the field's control (or its row) and scrolls it into view. */

@@ -1,6 +1,6 @@
 import type { Observation } from '$lib/domain';
 import { latestVerdicts, mdcSourceLine, seriesKey, type ChangeVerdict, type LocalMdc } from '$lib/stats';
-import { type ObservationDraft, describeValue, PENDULUM_PRIMARY, type VisitReading } from '$lib/ui';
+import { VISIT_MESSAGES as M, type ObservationDraft, describeValue, PENDULUM_PRIMARY, type VisitReading } from '$lib/ui';
 
 /**
  * One value per instrument reading for the review (compared with last time like a form row): a
@@ -62,18 +62,18 @@ export function reviewRows(
     const unit = o.value.kind === 'ordinal' ? '' : o.value.kind === 'tardieu' || o.value.kind === 'angle' ? '°' : '';
     const mdcLine = !last
       ? context.firstVisit
-        ? 'First visit: nothing earlier to compare with'
-        : 'First value of this test: nothing to compare yet'
+        ? M.firstVisitCompare
+        : M.firstValueCompare
       : refused
-        ? `Not compared: ${refused}`
+        ? M.notCompared(refused)
         : verdict
           ? mdcSourceLine(verdict.mdcUsed, unit, o.value.kind === 'ordinal', judged?.mdcNote ?? null)
-          : 'Change not judged for this measure (no direction of improvement)';
+          : M.notJudged;
     return {
       key,
       title: judged?.title ?? key,
       last: last ? { value: describeValue(last.value), date: new Date(last.takenAt).toLocaleDateString() } : null,
-      lastText: last ? `${describeValue(last.value)} (${new Date(last.takenAt).toLocaleDateString()})` : context.firstVisit ? 'first visit' : 'new test',
+      lastText: last ? `${describeValue(last.value)} (${new Date(last.takenAt).toLocaleDateString()})` : context.firstVisit ? M.firstVisitShort : M.newTest,
       today: describeValue(o.value),
       verdict,
       beyondMdc: verdict?.verdict === 'improved' || verdict?.verdict === 'worsened',
