@@ -1,3 +1,4 @@
+import { dateWriter } from '$lib/domain';
 import type { VisitOutcome } from './home-log';
 
 /**
@@ -7,7 +8,8 @@ import type { VisitOutcome } from './home-log';
  * order per language).
  */
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
-const dayLabel = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
+// Dates as the rest of the patient page writes them (domain/date-writer.ts).
+const dates = dateWriter();
 const percent = (share: number) => (Number.isNaN(share) ? 'nothing planned' : `${Math.round(100 * share)} %`);
 
 export const HOME_LOG_MESSAGES = {
@@ -15,7 +17,7 @@ export const HOME_LOG_MESSAGES = {
   empty: "No home log yet: adherence and the patient's own spasm ratings appear here when a report from the patient's phone is imported.",
   lede: 'One time axis, oldest on the left: what was measured at each visit, weekly adherence to the home programme, and the patient’s own spasm ratings.',
   /** A date on the axis and in the tables, from a day number (days since 1970-01-01, UTC). */
-  day: (dayNumber: number) => dayLabel.format(dayNumber * 86_400_000),
+  day: (dayNumber: number) => dates.day(new Date(dayNumber * 86_400_000).toISOString().slice(0, 10)),
   outcomesRow: 'Measured at each visit: ▲ measures better, ▼ measures worse than when first measured, by at least the MDC',
   adherenceRow: 'Adherence per week: bar height = share of planned sessions done',
   spasmRow: 'Spasm frequency, the patient’s own rating: Penn 0–4, higher = more spasms',
