@@ -13,14 +13,22 @@ function isRealDate(year: number, month: number, day: number): boolean {
  * UTC instant as `YYYY-MM-DDTHH:mm:ss.sssZ` (the form of Date.prototype.toISOString). One fixed
  * form makes string order equal time order, which merging by updatedAt relies on.
  */
-export const IsoDateTimeSchema = v.pipe(
-  v.string(),
-  v.check((s) => {
-    const m = ISO_DATE_TIME.exec(s);
-    if (!m) return false;
-    return isRealDate(+m[1]!, +m[2]!, +m[3]!) && +m[4]! < 24 && +m[5]! < 60 && +m[6]! < 60;
-  }, 'must be a UTC date-time like 2025-03-01T09:30:00.000Z'),
-);
+/** What a date-time in another form is told. */
+export const ISO_DATE_TIME_MESSAGE = 'must be a UTC date-time like 2025-03-01T09:30:00.000Z';
+export const IsoDateTimeSchema = v.pipe(v.string(), v.check(isIsoDateTime, ISO_DATE_TIME_MESSAGE));
+
+/** The last string found to be a valid date-time: records written together share their stamps. */
+let lastIsoDateTime = '';
+
+/** True when `s` is a real UTC instant in the one form IsoDateTimeSchema accepts. */
+export function isIsoDateTime(s: string): boolean {
+  if (s === lastIsoDateTime) return true;
+  const m = ISO_DATE_TIME.exec(s);
+  if (!m) return false;
+  const ok = isRealDate(+m[1]!, +m[2]!, +m[3]!) && +m[4]! < 24 && +m[5]! < 60 && +m[6]! < 60;
+  if (ok) lastIsoDateTime = s;
+  return ok;
+}
 
 /** Calendar date `YYYY-MM-DD` (no time zone: a day in the clinician's calendar). */
 export const IsoDateSchema = v.pipe(
@@ -32,7 +40,9 @@ export const IsoDateSchema = v.pipe(
 );
 
 /** A UUIDv7 record id. */
-export const IdSchema = v.pipe(v.string(), v.check(isUuidV7, 'must be a UUIDv7 id'));
+/** What an id in another form is told. */
+export const ID_MESSAGE = 'must be a UUIDv7 id';
+export const IdSchema = v.pipe(v.string(), v.check(isUuidV7, ID_MESSAGE));
 
 /** Free text with a sane upper bound (keeps a pasted document out of a single field). */
 export const TextSchema = (maxLength = 2000) => v.pipe(v.string(), v.maxLength(maxLength, `must be at most ${maxLength} characters`));
