@@ -205,7 +205,7 @@ describe('caseload summaries', () => {
 
     // Without an explicit transaction nothing says which observations came: every patient of the block is marked.
     const [one] = await store.observations.byPatient(patients[5]!.id);
-    await tableRows(store.db, 'observations').put([{ ...one!, value: ordinalValue('mas', '4') }]);
+    await tableRows<Observation>(store.db, 'observations').put([{ ...one!, value: ordinalValue('mas', '4') }]);
     expect((await staleRows(store)).length).toBeGreaterThan(1);
     expect(await shown(store)).toEqual(await recomputed(store));
     store.close();
