@@ -70,7 +70,12 @@ export function canonicalObservationsJson(rows: readonly Observation[]): string 
       `"id":"${o.id}","instrument":${quoted(o.instrument)},"measureCode":${JSON.stringify(o.measureCode)},"mode":${quoted(o.mode)},"patientId":"${o.patientId}",` +
       `"side":"${o.side}","siteCode":${JSON.stringify(o.siteCode)},"takenAt":"${o.takenAt}","traceId":${quoted(o.traceId)},"updatedAt":"${o.updatedAt}","value":${valueJson(o.value)}}`;
   }
-  return `[${parts.join(',')}]`;
+  if (parts.length === 0) return '[]';
+  // Brackets inside the first and last parts: join then gives one flat string, which the digest's
+  // UTF-8 encoding reads in one pass ('[' + joined + ']' would be a rope to flatten first).
+  parts[0] = `[${parts[0]!}`;
+  parts[parts.length - 1] += ']';
+  return parts.join(',');
 }
 
 const quoted = (s: string | null) => (s === null ? 'null' : `"${s}"`);
