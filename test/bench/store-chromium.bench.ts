@@ -1,6 +1,7 @@
 // Bulk insert rate on Chromium's real IndexedDB: 100,000 observations, validated, stamped and
-// audited, in batches of 5,000 (the same repository path as the app), and the previous path
-// (schema 2 indexes, a full audit snapshot per record) in the same page for the ratio. Needs a build (npm run build)
+// audited, in batches of 5,000 (the same repository path as the app), and earlier paths in the same
+// page for the ratios: main's path before store5 (same layout, slower record preparation), schema 14
+// (one stored value per observation), schema 2 (its indexes, a full audit snapshot per record). Needs a build (npm run build)
 // and Chromium (/usr/bin/chromium or CHROME_PATH); prints what is missing otherwise.
 import { existsSync } from 'node:fs';
 import { chromium } from 'playwright-core';
@@ -37,14 +38,18 @@ export async function run(print: (line: string) => void): Promise<void> {
     }
     // STORE_BENCH_OBSERVATIONS: one smaller size on a loaded machine (printed with each figure).
     const sizes = process.env.STORE_BENCH_OBSERVATIONS ? [Number(process.env.STORE_BENCH_OBSERVATIONS)] : [20_000, 100_000];
+    // main's path before store5 (records prepared per id with the schema's validation and the
+    // generic canonical JSON) and the current one, alternately at each size: the ratio of one run.
     for (const total of sizes) {
+      const main = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertMainPath: (n: number) => Promise<unknown> }).bulkInsertMainPath(n), total)) as Rate;
+      print(`Chromium IndexedDB bulk insert, main's path before store5 (8179a2f: schema validation, an id at a time, generic canonical JSON): ${main.stored.toLocaleString('en')} observations in ${main.seconds.toFixed(2)} s = ${Math.round(main.perSecond).toLocaleString('en')} observations/s`);
       const r = (await page.evaluate(
         (n) => (globalThis as unknown as { storeChecks: { bulkInsert: (n: number) => Promise<unknown> } }).storeChecks.bulkInsert(n),
         total,
       )) as Rate;
       print(
         `Chromium IndexedDB bulk insert (repository, validated, stamped, one batch audit entry per 5,000): ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s` +
-          ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / unpacked.perSecond).toFixed(2)}× previous layout · ${(r.perSecond / previous.perSecond).toFixed(2)}× early path`,
+          ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / main.perSecond).toFixed(2)}× main's path · ${(r.perSecond / unpacked.perSecond).toFixed(2)}× previous layout · ${(r.perSecond / previous.perSecond).toFixed(2)}× early path`,
       );
     }
     // Where the rest goes: the same records prepared (validated, stamped, batch audit entry) and not written.

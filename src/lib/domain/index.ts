@@ -51,6 +51,7 @@ export {
   type RecordTables,
   type TableName,
 } from './record-tables';
+export { validateObservation } from './validate-observation';
 export { decimalProblem, decimalValue, readDecimal, readWholeNumber } from './read-decimal';
 export { readCalendarDate } from './read-calendar-date';
 export { withoutByteOrderMark } from './without-byte-order-mark';

@@ -1,7 +1,9 @@
 import * as v from 'valibot';
 import { IdSchema, IsoDateTimeSchema, recordBaseEntries } from './record-base';
 
-const finite = () => v.pipe(v.number(), v.finite('must be a finite number'));
+/** What an infinite number is told. */
+export const FINITE_MESSAGE = 'must be a finite number';
+const finite = () => v.pipe(v.number(), v.finite(FINITE_MESSAGE));
 
 /** Value of an observation, by the measure's kind (the catalogue says which kind a measure has). */
 export const ObservationValueSchema = v.variant('kind', [

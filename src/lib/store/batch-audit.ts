@@ -1,4 +1,4 @@
-import type { AuditEntry, RecordBase, TableName } from '../domain';
+import type { AuditEntry, Observation, RecordBase, TableName } from '../domain';
 import { canonicalJson } from './canonical-json';
 import { sha256Hex } from './crypto-box';
 import { auditSnapshot } from './rows';
@@ -37,12 +37,60 @@ export interface BatchAuditContent {
  */
 export async function batchAuditEntry(ctx: StoreContext, at: string, table: TableName, rows: readonly RecordBase[]): Promise<AuditEntry> {
   const recordIds = rows.map((r) => r.id);
+  const value = await sha256Hex(snapshotsJson(ctx, table, rows));
+  const content: BatchAuditContent = { recordIds, count: rows.length, digest: { algorithm: 'SHA-256', over: 'canonical-json-of-audit-snapshots', value } };
+  return auditEntry(ctx, at, 'create', table, null, null, content as unknown as Record<string, unknown>, `batch of ${rows.length} ${table}`);
+}
+
+/** canonicalJson of the rows' audit snapshots, in row order: the text a batch digest covers. */
+function snapshotsJson(ctx: StoreContext, table: TableName, rows: readonly RecordBase[]): string {
+  if (table === 'observations') return canonicalObservationsJson(rows as readonly Observation[]);
   // A snapshot differs from its row only where text is sealed or samples are counted; elsewhere
   // the rows themselves give the same canonical text without copying them.
   const plain = ctx.codecs[table].sealedFields.length === 0 && table !== 'traces';
-  const value = await sha256Hex(canonicalJson(plain ? rows : rows.map((r) => auditSnapshot(table, r))));
-  const content: BatchAuditContent = { recordIds, count: rows.length, digest: { algorithm: 'SHA-256', over: 'canonical-json-of-audit-snapshots', value } };
-  return auditEntry(ctx, at, 'create', table, null, null, content as unknown as Record<string, unknown>, `batch of ${rows.length} ${table}`);
+  return canonicalJson(plain ? rows : rows.map((r) => auditSnapshot(table, r)));
+}
+
+/**
+ * canonicalJson(observations) written out for the one shape observations have (an observation's
+ * audit snapshot is the observation itself: nothing sealed, nothing counted): keys in code-unit
+ * order, no whitespace. For valid observations only (validateRecord or validateObservation): ids,
+ * times, side, mode and instrument are then plain ASCII that JSON writes as it is, and numbers finite
+ * (JSON writes a finite number as String does, -0 as 0). Measure, site and grade codes are quoted by
+ * JSON.stringify. Same text as canonicalJson (batch-audit.test.ts compares them on generated
+ * observations of every kind); in Chromium canonicalJson's replacer-list serialisation was 1.0 s of
+ * a 4.2 s bulk insert of 20,000 observations.
+ */
+export function canonicalObservationsJson(rows: readonly Observation[]): string {
+  const parts: string[] = new Array<string>(rows.length);
+  for (let i = 0; i < rows.length; i++) {
+    const o = rows[i]!;
+    parts[i] =
+      `{"assessmentId":"${o.assessmentId}","clinicianId":"${o.clinicianId}","createdAt":"${o.createdAt}","deleted":${o.deleted},"deviceId":"${o.deviceId}",` +
+      `"id":"${o.id}","instrument":${quoted(o.instrument)},"measureCode":${JSON.stringify(o.measureCode)},"mode":${quoted(o.mode)},"patientId":"${o.patientId}",` +
+      `"side":"${o.side}","siteCode":${JSON.stringify(o.siteCode)},"takenAt":"${o.takenAt}","traceId":${quoted(o.traceId)},"updatedAt":"${o.updatedAt}","value":${valueJson(o.value)}}`;
+  }
+  if (parts.length === 0) return '[]';
+  // Brackets inside the first and last parts: join then gives one flat string, which the digest's
+  // UTF-8 encoding reads in one pass ('[' + joined + ']' would be a rope to flatten first).
+  parts[0] = `[${parts[0]!}`;
+  parts[parts.length - 1] += ']';
+  return parts.join(',');
+}
+
+const quoted = (s: string | null) => (s === null ? 'null' : `"${s}"`);
+
+function valueJson(v: Observation['value']): string {
+  switch (v.kind) {
+    case 'ordinal':
+      return `{"grade":${JSON.stringify(v.grade)},"kind":"ordinal","rank":${v.rank}}`;
+    case 'tardieu':
+      return `{"kind":"tardieu","quality":${v.quality},"r1Deg":${v.r1Deg},"r2Deg":${v.r2Deg},"spasticityAngleDeg":${v.spasticityAngleDeg}}`;
+    case 'angle':
+      return `{"angleDeg":${v.angleDeg},"kind":"angle"}`;
+    default:
+      return `{"kind":"${v.kind}","value":${v.value}}`;
+  }
 }
 
 /** The batch content of an entry, or null when it is no batch entry. */

@@ -2,7 +2,7 @@ import type { DBCore, DBCoreMutateRequest, DBCoreTable, DBCoreTransaction, Dexie
 import type { Observation, Patient } from '../domain';
 import { adoptedLocalMdc, caseloadSummary, caseloadSummaryBasis, type AdoptableStudy, type CaseloadSummary, type SummaryAssessment } from '../stats';
 import { ANY_RANGE, equalRange } from './core-ranges';
-import { OBSERVATIONS_STORE, coreAllObservations, coreObservationsOfPatient, patientsOfStoredObservations } from './observation-rows';
+import { OBSERVATIONS_STORE, coreAllObservations, coreObservationsOfPatient, declaredObservationWrites, patientsOfStoredObservations } from './observation-rows';
 import { toStoreError } from './store-error';
 
 /**
@@ -110,9 +110,12 @@ export function keepCaseloadSummaries(db: Dexie): void {
             ...table,
             async mutate(req) {
               if (!holdsSummaries(req.trans)) return table.mutate(req);
-              const patientIds = await patientsOf(name, table, req);
+              // Observation blocks hold several patients: a write that declared what it brought marks those patients only.
+              const brought = name === OBSERVATIONS_STORE && req.type !== 'deleteRange' ? declaredObservationWrites(req.trans) : undefined;
+              const patientIds = brought ? [...brought.patients] : await patientsOf(name, table, req);
               const result = await table.mutate(req);
-              keeper.written.set(req.trans, (keeper.written.get(req.trans) ?? 0) + (patientIds?.length ?? SETTLE_MAX_ROWS + 1));
+              // Declared observations are counted once, at settling (a split writes them in several mutations).
+              if (!brought) keeper.written.set(req.trans, (keeper.written.get(req.trans) ?? 0) + (patientIds?.length ?? SETTLE_MAX_ROWS + 1));
               await markStale(keeper, down, req.trans, patientIds);
               return result;
             },
@@ -178,7 +181,8 @@ export async function settleCaseloadSummaries(db: Dexie, tx: Transaction): Promi
   const pending = keeper?.pending.get(trans);
   if (!keeper?.down || !pending || pending.size === 0) return;
   keeper.pending.delete(trans);
-  if ((keeper.written.get(trans) ?? 0) > SETTLE_MAX_ROWS) return; // the marks stay: the reader recomputes
+  const written = (keeper.written.get(trans) ?? 0) + (declaredObservationWrites(trans)?.rows ?? 0);
+  if (written > SETTLE_MAX_ROWS) return; // the marks stay: the reader recomputes
   await recompute(keeper.down, trans, pending);
 }
 

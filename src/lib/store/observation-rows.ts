@@ -48,8 +48,9 @@ export interface ObservationBlock {
 }
 
 /**
- * The patient of each observation a stored value of this store holds, once per observation (the
- * caseload summaries' marks: their count decides whether a write is settled in its transaction).
+ * The patient of each observation a stored value of this store holds, once per observation: the
+ * caseload summaries' marks for a write that did not say which observations it brought (a write
+ * outside a transaction; see declaredObservationWrites).
  */
 export function patientsOfStoredObservations(value: unknown): string[] {
   const block = value as Partial<ObservationBlock> & { patientId?: unknown };
@@ -179,9 +180,39 @@ async function write(t: Table<ObservationBlock, string>, rows: readonly Observat
     if (block && pieces[0]!.id !== block.id) deletes.push(block.id);
     puts.push(...pieces);
   }
+  declareWrites(incoming);
   if (deletes.length > 0) await t.bulkDelete(deletes);
   // Keys of new blocks are ids no block holds yet, so a put never overwrites another block.
   await t.bulkPut(puts);
+}
+
+/** What the observation writes of one transaction brought: their patients and how many observations. */
+export interface DeclaredObservationWrites {
+  readonly patients: ReadonlySet<string>;
+  readonly rows: number;
+}
+const declared = new WeakMap<object, { patients: Set<string>; rows: number }>();
+
+/**
+ * The observations `write` has put in this native transaction so far, or undefined when none was
+ * declared (a write outside an explicit transaction). A stored block holds other patients'
+ * observations too, and a block split deletes and puts blocks whose observations do not change:
+ * the caseload summaries' middleware marks these patients instead of every patient of the blocks
+ * written, so saving one visit recomputes that patient's summary only. Every write to the
+ * observation store goes through `write` (schema upgrades excepted, which rebuild the summaries).
+ */
+export function declaredObservationWrites(trans: object): DeclaredObservationWrites | undefined {
+  return declared.get(trans);
+}
+
+/** Records the incoming observations on the current explicit transaction, before any block is written. */
+function declareWrites(incoming: readonly Observation[]): void {
+  const trans = Dexie.currentTransaction?.idbtrans as object | undefined;
+  if (!trans) return;
+  let entry = declared.get(trans);
+  if (!entry) declared.set(trans, (entry = { patients: new Set(), rows: 0 }));
+  for (const o of incoming) entry.patients.add(o.patientId);
+  entry.rows += incoming.length;
 }
 
 /** The error IndexedDB's add gives for a key already stored. */

@@ -184,12 +184,14 @@ export async function openStore(options: OpenStoreOptions = {}): Promise<Kinnote
   await vault.load();
 
   let actor: Actor | null = options.actor ?? (await readMeta<Actor>('actor')) ?? null;
+  const ids = createUuidV7Generator(now, randomBytes);
   const context: StoreContext = {
     db,
     vault,
     codecs: makeCodecs(vault),
     now,
-    newId: createUuidV7Generator(now, randomBytes),
+    newId: ids,
+    newIds: ids.many,
     actor: () => actor,
   };
   const audit = db.table<AuditEntry, string>('audit');

@@ -17,6 +17,8 @@ export interface StoreContext {
   readonly codecs: Codecs;
   readonly now: () => number;
   readonly newId: () => string;
+  /** `count` ids after every id drawn so far, from one clock reading (the bulk path). */
+  readonly newIds: (count: number) => string[];
   readonly actor: () => Actor | null;
 }
 

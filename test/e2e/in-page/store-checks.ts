@@ -7,6 +7,7 @@ import { declareSchema } from '../../../src/lib/store/schema';
 import { sha256Hex } from '../../../src/lib/store/crypto-box';
 import { auditSnapshot } from '../../../src/lib/store/rows';
 import { tableRows } from '../../../src/lib/store/table-rows';
+import { settleCaseloadSummaries } from '../../../src/lib/store/caseload-summaries';
 import { adoptedLocalMdc, caseloadSummary } from '../../../src/lib/stats';
 
 const ids = (n: number) => `0190a0b0-0000-7000-8000-${String(n).padStart(12, '0')}`;
@@ -250,6 +251,57 @@ export async function bulkInsertPrevious(total: number, batch = 5000, schema: 2 
   return { total, stored, seconds, perSecond: total / seconds };
 }
 (globalThis as unknown as { bulkInsertPrevious: typeof bulkInsertPrevious }).bulkInsertPrevious = bulkInsertPrevious;
+
+/**
+ * main's bulk path before store5 (8179a2f, schema 16), for the bench's ratio in the same run: the
+ * same packed write, but records prepared as prepareCreate did then: a clock reading and a 10-byte
+ * random draw per id, the schema's validation (valibot) per record, and the batch digest over
+ * canonicalJson of the records. Same inputs and batches as storeChecks.bulkInsert.
+ */
+export async function bulkInsertMainPath(total: number, batch = 5000): Promise<{ total: number; stored: number; seconds: number; perSecond: number }> {
+  const name = 'kinnote-browser-bench-main-path';
+  const store = await freshStore(name);
+  const start = performance.now();
+  // As seed() does for the current path: a patient and an assessment, then the observations.
+  const patient = await store.patients.create({ code: 'K7QM-3XHD', birthYear: 1966, condition: 'stroke', affectedSides: ['left'], status: 'active' });
+  const assessment = await store.assessments.create({
+    patientId: patient.id, assessorId: store.actor!.clinicianId, performedAt: '2025-03-01T10:00:00.000Z', setting: 'home',
+    conditions: { position: 'sitting', minutesSinceMedication: null, painNrs: null }, notes: 'Invented note for the browser check',
+  });
+  const grades = ['0', '1', '1+', '2', '3', '4'];
+  const ctx = store.context;
+  const actor = store.actor!;
+  for (let done = 0; done < total; done += batch) {
+    const at = new Date(Math.floor(ctx.now())).toISOString();
+    const rows: Record<string, unknown>[] = [];
+    for (let i = done; i < Math.min(total, done + batch); i++) {
+      const candidate = {
+        patientId: patient.id, assessmentId: assessment.id, takenAt: '2025-03-01T10:00:00.000Z', measureCode: 'mas', siteCode: 'elbow-flexors', side: 'left', mode: null, instrument: null,
+        value: ordinalValue('mas', grades[i % 6] as string), traceId: null,
+        id: ctx.newId(), createdAt: at, updatedAt: at, deviceId: actor.deviceId, clinicianId: actor.clinicianId, deleted: false,
+      };
+      const result = validateRecord('observations', candidate);
+      if (!result.ok) throw new Error(JSON.stringify(result.issues));
+      rows.push(result.record as unknown as Record<string, unknown>);
+    }
+    const audit = {
+      id: ctx.newId(), createdAt: at, updatedAt: at, ...actor, deleted: false, action: 'create', table: 'observations', recordId: null, before: null,
+      after: { recordIds: rows.map((r) => r.id), count: rows.length, digest: { algorithm: 'SHA-256', over: 'canonical-json-of-audit-snapshots', value: await sha256Hex(canonicalJson(rows)) } },
+      note: `batch of ${rows.length} observations`,
+    };
+    await store.db.transaction('rw', ['observations', 'audit'], async (tx) => {
+      await tableRows(store.db, 'observations').add(rows as never);
+      await store.db.table('audit').bulkAdd([audit]);
+      await settleCaseloadSummaries(store.db, tx);
+    });
+  }
+  const seconds = (performance.now() - start) / 1000;
+  const stored = (await tableRows(store.db, 'observations').all()).length;
+  store.close();
+  await Dexie.delete(name);
+  return { total, stored, seconds, perSecond: total / seconds };
+}
+(globalThis as unknown as { bulkInsertMainPath: typeof bulkInsertMainPath }).bulkInsertMainPath = bulkInsertMainPath;
 
 /**
  * Fills the app's own database (already set up on this device) with `count` invented patients, each

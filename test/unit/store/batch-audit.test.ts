@@ -1,8 +1,10 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { ordinalValue } from '../../../src/lib/domain';
+import { ordinalValue, type Observation } from '../../../src/lib/domain';
 import { StoreError, canonicalJson, type KinnoteStore } from '../../../src/lib/store';
-import { BATCH_AUDIT_MIN_RECORDS } from '../../../src/lib/store/batch-audit';
+import { BATCH_AUDIT_MIN_RECORDS, canonicalObservationsJson } from '../../../src/lib/store/batch-audit';
+import { plausibleObservation } from '../../support/generated-observations';
+import { mulberry32 } from '../../support/seeded-random';
 import { dumpAll, freshStore, seedPatient } from './store-helpers';
 import { tableRows } from '../../../src/lib/store/table-rows';
 
@@ -90,5 +92,17 @@ describe('batch audit entries for bulk creates', () => {
     expect((error as StoreError).issues[0]).toMatchObject({ record: 'observations[150]' });
     expect(await dumpAll(store)).toEqual(snapshot);
     store.close();
+  });
+
+  it('writes the digest text of observations as canonicalJson does, for every kind of value', () => {
+    const rand = mulberry32(17);
+    const rows = Array.from({ length: 3000 }, () => plausibleObservation(rand)) as unknown as Observation[];
+    // Edges: negative zero, exponent forms, long fractions, codes JSON must escape.
+    const edges = [-0, 1e21, 1.5e-7, 0.1 + 0.2, -123.456];
+    rows.push(...edges.map((x, i) => ({ ...rows[i]!, value: { kind: 'angle' as const, angleDeg: x } })));
+    rows.push({ ...rows[0]!, measureCode: 'a"b\\c', siteCode: 'tab\there\u2028é', value: { kind: 'ordinal', grade: '1"+', rank: -0 } });
+    expect(new Set(rows.map((r) => r.value.kind)).size).toBe(6);
+    expect(canonicalObservationsJson(rows)).toBe(canonicalJson(rows));
+    expect(canonicalObservationsJson([])).toBe(canonicalJson([]));
   });
 });

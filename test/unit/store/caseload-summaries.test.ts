@@ -3,7 +3,7 @@
 // newly adopted MDC, a write around the repositories), and are settled in the write's own
 // transaction (no stale mark left behind by the store's write paths).
 import { describe, expect, it } from 'vitest';
-import Dexie from 'dexie';
+import Dexie, { type DBCore, type DBCoreMutateRequest, type Middleware } from 'dexie';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { ordinalValue, type Observation, type Patient } from '../../../src/lib/domain';
 import { adoptedLocalMdc, caseloadSummary, type AdoptableStudy, type SummaryAssessment } from '../../../src/lib/stats';
@@ -162,6 +162,53 @@ describe('caseload summaries', () => {
     expect((await shown(a))[0]).toMatchObject({ worsened: 1 });
     a.close();
     b.close();
+  });
+
+  it('recompute only the patient of a saved visit, though its observations share blocks with others', async () => {
+    // Counts the summaries each transaction writes (level -2: under the summaries' own layer at -1).
+    const recomputedIn: string[][] = [];
+    const counter: Middleware<DBCore> = {
+      stack: 'dbcore',
+      name: 'count-recomputed',
+      level: -2,
+      create: (down) => ({
+        ...down,
+        table(name) {
+          const table = down.table(name);
+          if (name !== CASELOAD_SUMMARIES_TABLE) return table;
+          return {
+            ...table,
+            mutate(req: DBCoreMutateRequest) {
+              if (req.type === 'put') recomputedIn.at(-1)?.push(...req.values.filter((r: { basis: string | null }) => r.basis !== null).map((r: { patientId: string }) => r.patientId));
+              return table.mutate(req);
+            },
+          };
+        },
+      }),
+    };
+    const store = await freshStore({ middleware: [counter] });
+    const patients = await store.patients.createMany(['K7QM-3XHD', 'K7QM-4XHD', 'K7QM-5XHD', 'K7QM-6XHD', 'K7QM-7XHD', 'K7QM-8XHD'].map(newPatient));
+    // Eight visits each (six patients, 48 observations): one block of up to 50 holds them all, and the
+    // saves below grow it past 50, so it splits.
+    for (let round = 0; round < 8; round++) for (const p of patients) await visit(store, p.id, new Date(Date.UTC(2025, 0, 1 + round, 9)).toISOString(), ['1', '2'][round % 2]!);
+    const blocks = await store.db.table<{ patientIds: string[] }>('observations').toArray();
+    expect(blocks.some((b) => b.patientIds.length === patients.length)).toBe(true);
+    await expectRight(store, 'eight visits each');
+
+    for (const [i, p] of patients.slice(0, 3).entries()) {
+      recomputedIn.push([]);
+      await visit(store, p.id, `2025-02-0${1 + i}T10:00:00.000Z`, '3');
+      expect(recomputedIn.at(-1), `visit ${i + 1}`).toEqual([p.id]);
+    }
+    expect((await store.db.table('observations').toArray()).length).toBeGreaterThan(1);
+    await expectRight(store, 'three more visits, one block split');
+
+    // Without an explicit transaction nothing says which observations came: every patient of the block is marked.
+    const [one] = await store.observations.byPatient(patients[5]!.id);
+    await tableRows<Observation>(store.db, 'observations').put([{ ...one!, value: ordinalValue('mas', '4') }]);
+    expect((await staleRows(store)).length).toBeGreaterThan(1);
+    expect(await shown(store)).toEqual(await recomputed(store));
+    store.close();
   });
 
   it('are recomputed by the reader after a newly adopted MDC or a write around the repositories', async () => {
