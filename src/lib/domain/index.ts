@@ -28,7 +28,7 @@ export {
 } from './observation';
 export { type Trace } from './trace';
 export { HomeProgrammeSchema, type HomeProgramme } from './home-programme';
-export { EMPTY_DOSE, ExerciseDoseSchema, MAX_DOSE_NOTE_LENGTH, MAX_TIMES_PER_DAY, doseFromLegacyLine, doseIssueOf, type DoseField, type DoseIssue, type DoseProblem, type ExerciseDose } from './exercise-dose';
+export { EMPTY_DOSE, ExerciseDoseSchema, MAX_DOSE_NOTE_LENGTH, MAX_TIMES_PER_DAY, doseFromLegacyLine, doseIssueOf, doseProblemText, type DoseField, type DoseIssue, type DoseProblem, type ExerciseDose } from './exercise-dose';
 export { AdherenceEntrySchema, type AdherenceEntry } from './adherence-entry';
 export { SelfReportSchema, type SelfReport } from './self-report';
 export { RELIABILITY_DESIGNS, type ReliabilityStudy } from './reliability-study';

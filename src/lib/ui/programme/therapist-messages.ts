@@ -1,4 +1,4 @@
-import type { DoseProblem } from '$lib/domain';
+import { doseProblemText, type DoseProblem } from '$lib/domain';
 import type { PatientLanguage } from '$lib/programme';
 
 /**
@@ -108,23 +108,8 @@ export const THERAPIST_MESSAGES = {
   /** A problem the plan check found, placed in the form's words ("Exercise 2, hold: …"). */
   planIssue: (where: string, problem: string) => `${where}: ${problem}`,
   fieldOfExercise: (n: number, field: string) => `Exercise ${n}, ${field}`,
-  /** A dose problem the check found (domain/exercise-dose.ts), after the field's name. */
-  doseProblem: (p: DoseProblem): string => {
-    switch (p.code) {
-      case 'wholeNumber':
-        return 'must be a whole number';
-      case 'atLeast':
-        return `must be at least ${p.min}`;
-      case 'atMost':
-        return `must be at most ${p.max}`;
-      case 'noteTooLong':
-        return `must be at most ${p.max} characters`;
-      case 'overnightOnceADay':
-        return 'overnight is once a day: leave times a day empty or 1';
-      case 'nothingPrescribed':
-        return 'a dosage needs at least one value or a note';
-    }
-  },
+  /** A dose problem the check found, after the field's name: in English, the check's own words (domain/exercise-dose.ts). */
+  doseProblem: (p: DoseProblem): string => doseProblemText(p),
   /** The form's names of the plan's fields, for the plan check's issues. */
   planFields: {
     title: 'Title',
