@@ -11,7 +11,6 @@ const LIMIT = 80;
 const ALLOWED = [
   'src/lib/store/open-store.ts:openStore',
   'src/lib/store/phone-reanalysis-run.ts:writeOne',
-  'src/lib/ui/assessment-draft.ts:draftObservations',
 ];
 
 let scanned: string[] | null = null;

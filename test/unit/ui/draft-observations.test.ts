@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { draftConditions, draftObservations, emptyDraft, type AssessmentDraft } from '../../../src/lib/ui/assessment-draft';
+import { draftConditions, draftObservations, emptyDraft, upgradeDraft, type AssessmentDraft } from '../../../src/lib/ui/assessment-draft';
 import { deepFreeze } from '../../support/deep-freeze';
 
 // draftObservations is where every value a person types on the visit form is checked before it is
@@ -72,5 +72,19 @@ describe('draftObservations: the values typed on the visit form', () => {
     expect(fields(draft({ minutesSinceMedication: '10080' }))).toEqual([]);
     expect(fields(draft({ minutesSinceMedication: '10081' }))).toEqual(['minutesSinceMedication']);
     expect(fields(draft({ performedAtLocal: '' }))).toEqual(['performedAtLocal']);
+  });
+
+  it('reads a draft kept in the earlier shape (version 1: a field per measure) into rows and ratings by measure code', () => {
+    // As the form kept drafts before the catalogue drove it (written by hand in that shape).
+    const v1 = { version: 1, patientId: 'p', performedAtLocal: '2026-12-01T09:30', setting: 'home', position: '', minutesSinceMedication: '', painNrs: '', mas: [masRow('m1', 'elbow-flexors', '1+')], tardieu: [], rom: [romRow('r1', '30')], pennFrequency: 2, spasmSeverity: null, notTested: ['r1'] };
+    const upgraded = upgradeDraft(v1);
+    expect(upgraded?.version).toBe(2);
+    expect(upgraded?.rows).toEqual({ mas: [masRow('m1', 'elbow-flexors', '1+')], tardieu: [], rom: [romRow('r1', '30')] });
+    expect(upgraded?.ratings).toEqual({ 'penn-spasm-frequency': 2, 'spasm-severity': null });
+    expect(upgraded?.notTested).toEqual(['r1']);
+    expect(upgraded && 'mas' in upgraded).toBe(false);
+    // Not a visit draft, or a shape this version does not know: none.
+    expect(upgradeDraft(null)).toBeNull();
+    expect(upgradeDraft({ version: 3, patientId: 'p' })).toBeNull();
   });
 });
