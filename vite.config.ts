@@ -107,6 +107,8 @@ export default defineConfig({
           // the tests are on conditions and name what they wait for; these only bound a hang.
           testTimeout: 150_000,
           hookTimeout: 180_000,
+          // expect.poll's 1 s default failed an Undo that took 3.7 s at load 27: a condition, given time.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],
