@@ -103,6 +103,7 @@ export function observationRows(db: Dexie): TableRows<Observation> {
     countChangedSince: async (mark) => (await changed(mark)).length,
     add: (rows) => write(t, rows, 'add'),
     put: (rows) => write(t, rows, 'put'),
+    remove: (ids) => removeObservations(t, ids),
   };
 }
 
@@ -182,6 +183,22 @@ async function write(t: Table<ObservationBlock, string>, rows: readonly Observat
   if (deletes.length > 0) await t.bulkDelete(deletes);
   // Keys of new blocks are ids no block holds yet, so a put never overwrites another block.
   await t.bulkPut(puts);
+}
+
+/** Takes observations out of their blocks (a block left empty goes; one that lost its lowest id is keyed anew). */
+async function removeObservations(t: Table<ObservationBlock, string>, ids: readonly string[]): Promise<void> {
+  if (ids.length === 0) return;
+  const gone = new Set(ids);
+  const deletes: string[] = [];
+  const puts: ObservationBlock[] = [];
+  for (const block of await blocksSpanning(t, ids)) {
+    const items = block.items.filter((o) => !gone.has(o.id));
+    if (items.length === block.items.length) continue;
+    if (items.length === 0 || items[0]!.id !== block.id) deletes.push(block.id);
+    if (items.length > 0) puts.push(makeBlock(items));
+  }
+  if (deletes.length > 0) await t.bulkDelete(deletes);
+  if (puts.length > 0) await t.bulkPut(puts);
 }
 
 /** The error IndexedDB's add gives for a key already stored. */
