@@ -169,3 +169,17 @@ async function putMeta(store: KinnoteStore, key: string, value: unknown): Promis
     throw toStoreError(error, 'writing the restore journal');
   }
 }
+
+/** A file's text in pieces as it is read (UTF-8; a character split between pieces is decoded whole). */
+export async function* blobTextChunks(blob: Blob): AsyncIterable<string> {
+  const reader = blob.stream().pipeThrough(new TextDecoderStream()).getReader();
+  try {
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) return;
+      yield value;
+    }
+  } finally {
+    reader.releaseLock();
+  }
+}

@@ -57,7 +57,7 @@ describe('streamed restore, pass 2: pages with an undo journal', () => {
     const own = new Set([oracle.actor!.clinicianId, oracle.actor!.deviceId]);
     for (const table of ['clinicians', 'devices']) expected[table] = expected[table]!.filter((r) => !own.has((r as { id: string }).id));
     expect(await records(target, { audit: false, redacted: true })).toEqual(expected);
-    expect((await tableRows(target.db, 'patients').all()).map((p) => p.birthYear).sort()).toEqual([1961, 1961, 1961, 1962]);
+    expect((await tableRows(target.db, 'patients').all()).map((p) => (p as unknown as { birthYear: number }).birthYear).sort()).toEqual([1961, 1961, 1961, 1962]);
     // Every audit entry of the file is there (the import's own entries differ: one per page).
     const audit = new Set((await tableRows(target.db, 'audit').all()).map((a) => a.id));
     for (const entry of JSON.parse(text).tables.audit as { id: string }[]) expect(audit.has(entry.id)).toBe(true);
