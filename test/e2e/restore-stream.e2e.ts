@@ -2,7 +2,8 @@
 // on a second, fresh one; the first try is cancelled (every object store's count as before, read with
 // plain IndexedDB outside the app), the second finishes with every patient of the file. 360 and 1024 px,
 // axe clean.
-import { readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { bundleForPage } from './bundle-for-page';
@@ -55,7 +56,10 @@ describe('streamed restore', () => {
     await from.getByLabel(/Clinical records only/).check();
     const download = from.waitForEvent('download', { timeout: 120_000 });
     await from.getByRole('button', { name: 'Save a backup file' }).click();
-    const path = (await (await download).path())!;
+    // Kept outside the first context, whose downloads go when it closes.
+    mkdirSync('test-output', { recursive: true });
+    const path = join('test-output', 'restore-stream-source.json');
+    await (await download).saveAs(path);
     const file = JSON.parse(readFileSync(path, 'utf8')) as { tables: Record<string, unknown[]> };
     await source.close();
 
