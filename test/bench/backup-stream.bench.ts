@@ -44,8 +44,24 @@ export async function run(print: (line: string) => void): Promise<void> {
       await sampler;
       return { run: result, peakMb, baseMb };
     };
+    // WebAssembly compiles only where the page's policy allows it ('wasm-unsafe-eval'): measured in its own page with the policy bypassed.
+    const hashPage = await (await browser.newContext({ serviceWorkers: 'block', bypassCSP: true })).newPage();
+    await hashPage.goto(`${server.url}/bench`);
+    await hashPage.evaluate(`${bundle}\n;undefined`);
+    const speeds = (await hashPage.evaluate('hashSpeeds(40)')) as Record<string, number>;
+    await hashPage.close();
+    const best = (name: string) => Math.max(...Object.entries(speeds).filter(([k]) => k.startsWith(`${name}#`)).map(([, v]) => v));
+    print(
+      `Chromium SHA-256 over 40 MB of backup-like text in pieces, best of 3 (MB/s): @noble/hashes ${best('noble').toFixed(1)} · hash-wasm, strings ${best('wasm-string').toFixed(1)} (${(best('wasm-string') / best('noble')).toFixed(2)}× noble) · hash-wasm, bytes ${best('wasm-bytes').toFixed(1)} · Web Crypto one-shot (not incremental, reference) ${best('webcrypto-one-shot').toFixed(1)}`,
+    );
+    if (process.env.STREAM_BENCH_HASH_ONLY) return;
     const fill = (await page.evaluate(`fillLargeCaseload(${patients})`)) as { records: number; seconds: number };
     print(`Chromium ${browser.version()}: invented caseload of ${patients.toLocaleString('en')} patients (×6 assessments, ×30 observations; ${fill.records.toLocaleString('en')} stored values with audits and summaries) written in ${fill.seconds.toFixed(1)} s`);
+    const parts = (await page.evaluate('streamedBackupParts()')) as Record<string, number>;
+    print(
+      `Chromium streamed backup's steps alone (s): read pages ${parts.read!.toFixed(1)} · redact and bundle form ${parts.redact!.toFixed(1)} · canonical serialisation ${parts.serialise!.toFixed(1)} · encode and hash (@noble/hashes) ${parts.hashNoble!.toFixed(1)} · ${(parts.bytes! / 1e6).toFixed(1)} MB · all observation blocks in one read: Dexie ${parts.dexieAll!.toFixed(1)}, raw getAll ${parts.rawAll!.toFixed(1)} · reads by table: ${Object.entries(parts).filter(([k, v]) => k.startsWith('read:') && v >= 0.05).map(([k, v]) => `${k.slice(5)} ${v.toFixed(1)}`).join(', ')}`,
+    );
+    if (process.env.STREAM_BENCH_PARTS_ONLY) return;
     const whole = await peakDuring('wholeBackup');
     const streamed = await peakDuring('streamedBackup');
     const scale = 5000 / patients;

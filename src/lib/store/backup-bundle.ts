@@ -180,33 +180,11 @@ export async function verifyBundle(parsed: unknown, nowMs: number, sourceText?: 
     const seen = new Set<string>();
     const list = body.tables[table];
     for (let i = 0; i < list.length; i++) {
-      const portable = list[i];
-      const id = typeof (portable as { id?: unknown })?.id === 'string' ? (portable as { id: string }).id : '?';
-      const where = `tables.${table}[${i}] (${id})`;
-      let candidate: unknown;
-      try {
-        candidate = fromPortable(table, portable);
-      } catch (error) {
-        const [path, ...message] = (error as Error).message.split(': ');
-        issues.push({ record: where, path: path ?? '', message: message.join(': ') });
-        continue;
-      }
-      const result = validateRecord(table, candidate);
-      if (!result.ok) {
-        for (const issue of result.issues) issues.push({ record: where, ...issue });
-        continue;
-      }
-      for (const issue of checkTimestamps(result.record, nowMs)) issues.push({ record: where, ...issue });
-      for (const issue of scopeIssues(body.scope, table, result.record)) issues.push({ record: where, ...issue });
-      if (seen.has(result.record.id)) issues.push({ record: where, path: 'id', message: 'appears twice in this table' });
-      seen.add(result.record.id);
-      if (omitted) {
-        if (table === 'identities') issues.push({ record: where, path: '', message: 'identities present although protectedContent is "omitted"' });
-        for (const field of PROTECTED_TEXT_FIELDS[table] ?? []) {
-          if ((result.record as Record<string, unknown>)[field] !== null) issues.push({ record: where, path: field, message: 'protected text present although protectedContent is "omitted"' });
-        }
-      }
-      (tables[table] as unknown[]).push(result.record);
+      const record = checkBundleRecord(table, list[i], i, { nowMs, scope: body.scope, omitted }, issues);
+      if (record === null) continue;
+      if (seen.has(record.id)) issues.push({ record: `tables.${table}[${i}] (${record.id})`, path: 'id', message: 'appears twice in this table' });
+      seen.add(record.id);
+      (tables[table] as unknown[]).push(record);
     }
   }
   if (body.scope.kind === 'patient') {
@@ -223,6 +201,47 @@ export async function verifyBundle(parsed: unknown, nowMs: number, sourceText?: 
     throw new StoreError('InvalidBundle', `invalid backup, nothing imported: ${describeIssues(issues)}`, { issues });
   }
   return { header, checksum: checksum.value, tables, photos: photos.photos };
+}
+
+/**
+ * One record of a bundle's table checked on its own (the whole-file verification and the streamed
+ * restore both use it): bundle form decoded, schema and catalogue, stamps against `nowMs`, the
+ * bundle's scope, protected text where the bundle says it was omitted. Issues name table, index, id
+ * and field; the record in domain form is returned when it can be kept (stamp, scope and protected-text
+ * issues still refuse the bundle through `issues`), null when it could not be read at all.
+ * Duplicate ids and references need the other records: the callers check them.
+ */
+export function checkBundleRecord(
+  table: TableName,
+  portable: unknown,
+  index: number,
+  bundle: { readonly nowMs: number; readonly scope: BundleScope; readonly omitted: boolean },
+  issues: StoreIssue[],
+): RecordTables[TableName] | null {
+  const id = typeof (portable as { id?: unknown })?.id === 'string' ? (portable as { id: string }).id : '?';
+  const where = `tables.${table}[${index}] (${id})`;
+  let candidate: unknown;
+  try {
+    candidate = fromPortable(table, portable);
+  } catch (error) {
+    const [path, ...message] = (error as Error).message.split(': ');
+    issues.push({ record: where, path: path ?? '', message: message.join(': ') });
+    return null;
+  }
+  const result = validateRecord(table, candidate);
+  if (!result.ok) {
+    for (const issue of result.issues) issues.push({ record: where, ...issue });
+    return null;
+  }
+  for (const issue of checkTimestamps(result.record, bundle.nowMs)) issues.push({ record: where, ...issue });
+  for (const issue of scopeIssues(bundle.scope, table, result.record)) issues.push({ record: where, ...issue });
+  if (bundle.omitted) {
+    if (table === 'identities') issues.push({ record: where, path: '', message: 'identities present although protectedContent is "omitted"' });
+    for (const field of PROTECTED_TEXT_FIELDS[table] ?? []) {
+      if ((result.record as Record<string, unknown>)[field] !== null) issues.push({ record: where, path: field, message: 'protected text present although protectedContent is "omitted"' });
+    }
+  }
+  return result.record;
 }
 
 /**

@@ -8,10 +8,14 @@ import { EXERCISE_PHOTOS_TABLE, type ExercisePhotoRow } from './exercise-photos'
 import { backupHeader } from './export-backup';
 import type { KinnoteStore } from './open-store';
 import { StoreError, toStoreError } from './store-error';
-import { tableRows } from './table-rows';
+import { rowCountBound, tableRows } from './table-rows';
 
 export interface BackupProgress {
-  /** Records written so far, and in all (counted when the backup started). */
+  /**
+   * Records written so far, and in all. The total starts as a bound read from keys only (observations:
+   * blocks × BLOCK_SIZE, not one read of every block) and is made exact as each table ends, so it ends
+   * equal to `done`; it never falls below `done`.
+   */
   readonly done: number;
   readonly total: number;
 }
@@ -63,7 +67,9 @@ export async function streamBackup(store: KinnoteStore, options: StreamBackupOpt
   const stop = () => {
     if (options.signal?.aborted) throw new StoreError('Aborted', 'backup cancelled; the store was only read and is unchanged');
   };
-  const { auditBefore, total, photos } = await startSnapshot(store);
+  const { auditBefore, bounds, photos } = await startSnapshot(store);
+  let total = [...bounds.values()].reduce((a, b) => a + b, 0);
+  let reported = -1;
   const header = backupHeader(store, options.source ?? 'export', { kind: 'all' }, include);
   // Keys sorted: every header member and "photos" come before "tables".
   const headText = canonicalJson({ ...header, photos });
@@ -75,21 +81,26 @@ export async function streamBackup(store: KinnoteStore, options: StreamBackupOpt
     emit(`${t > 0 ? ',' : ''}${JSON.stringify(table)}:[`);
     let after: string | null = null;
     let first = true;
+    const before = done;
     for (;;) {
       stop();
       const page = await readPage(store, table, after, pageSize, include);
       if (page.rows === 0) break;
       after = page.lastId;
       done += page.rows;
+      if (done - before > bounds.get(table)!) throw new StoreError('VersionConflict', 'the store changed during the backup, so the file would mix two moments; try again');
       if (page.text !== '') {
         emit(`${first ? '' : ','}${page.text}`);
         first = false;
       }
+      reported = total;
       await options.onProgress?.({ done, total });
     }
+    total += done - before - bounds.get(table)!;
     emit(']');
   }
   emit('}}');
+  if (total !== reported) await options.onProgress?.({ done, total });
   if ((await countAudit(store)) !== auditBefore) throw new StoreError('VersionConflict', 'the store changed during the backup, so the file would mix two moments; try again');
   const checksum = bytesToHex(hash.digest());
   return { head: `{"checksum":{"algorithm":"SHA-256","value":"${checksum}"},`, tail: '\n', checksum, records: done };
@@ -103,16 +114,16 @@ async function countAudit(store: KinnoteStore): Promise<number> {
   }
 }
 
-/** The audit count, the records in all, and the photos of live programmes (kept whole: they are size-capped). */
+/** The audit count, a bound on each table's records (keys only), and the photos of live programmes (kept whole: they are size-capped). */
 async function startSnapshot(store: KinnoteStore) {
   try {
     return await store.db.transaction('r', [...TABLE_NAMES, EXERCISE_PHOTOS_TABLE], async () => {
-      let total = 0;
-      for (const table of TABLE_NAMES) total += await tableRows(store.db, table).count();
+      const bounds = new Map<TableName, number>();
+      for (const table of TABLE_NAMES) bounds.set(table, await rowCountBound(store.db, table));
       const live = new Set(((await store.db.table('homeProgrammes').toArray()) as { id: string; deleted: boolean }[]).filter((p) => !p.deleted).map((p) => p.id));
       const rows = await store.db.table<ExercisePhotoRow, string>(EXERCISE_PHOTOS_TABLE).toArray();
       const photos = sortPhotos(rows.filter((r) => live.has(r.programmeId)).map(({ id: _id, addedAtMs: _at, ...photo }) => photo)).map(toPortablePhoto);
-      return { auditBefore: await store.db.table('audit').count(), total, photos };
+      return { auditBefore: await store.db.table('audit').count(), bounds, photos };
     });
   } catch (error) {
     throw toStoreError(error, 'reading the store for backup');

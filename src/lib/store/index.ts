@@ -58,3 +58,4 @@ export { amendEvent } from './amend-event';
 export { type AmendedField, type Amendment, amendmentsOf } from './amendments';
 export { demoBundle } from './demo-caseload';
 export { streamBackup, type BackupProgress } from './backup-stream';
+export { blobTextChunks, restoreBackupStream, type RestoreProgress } from './restore-stream-write';

@@ -104,6 +104,7 @@ export function observationRows(db: Dexie): TableRows<Observation> {
     countChangedSince: async (mark) => (await changed(mark)).length,
     add: (rows) => write(t, rows, 'add'),
     put: (rows) => write(t, rows, 'put'),
+    remove: (ids) => removeObservations(t, ids),
   };
 }
 
@@ -199,7 +200,8 @@ const declared = new WeakMap<object, { patients: Set<string>; rows: number }>();
  * observations too, and a block split deletes and puts blocks whose observations do not change:
  * the caseload summaries' middleware marks these patients instead of every patient of the blocks
  * written, so saving one visit recomputes that patient's summary only. Every write to the
- * observation store goes through `write` (schema upgrades excepted, which rebuild the summaries).
+ * observation store goes through `write` or `removeObservations` (schema upgrades excepted, which rebuild
+ * the summaries).
  */
 export function declaredObservationWrites(trans: object): DeclaredObservationWrites | undefined {
   return declared.get(trans);
@@ -213,6 +215,25 @@ function declareWrites(incoming: readonly Observation[]): void {
   if (!entry) declared.set(trans, (entry = { patients: new Set(), rows: 0 }));
   for (const o of incoming) entry.patients.add(o.patientId);
   entry.rows += incoming.length;
+}
+
+/** Takes observations out of their blocks (a block left empty goes; one that lost its lowest id is keyed anew). */
+async function removeObservations(t: Table<ObservationBlock, string>, ids: readonly string[]): Promise<void> {
+  if (ids.length === 0) return;
+  const gone = new Set(ids);
+  const deletes: string[] = [];
+  const puts: ObservationBlock[] = [];
+  const blocks = await blocksSpanning(t, ids);
+  // The summaries' middleware marks the declared patients only: the removed observations' patients too.
+  declareWrites(blocks.flatMap((block) => block.items.filter((o) => gone.has(o.id))));
+  for (const block of blocks) {
+    const items = block.items.filter((o) => !gone.has(o.id));
+    if (items.length === block.items.length) continue;
+    if (items.length === 0 || items[0]!.id !== block.id) deletes.push(block.id);
+    if (items.length > 0) puts.push(makeBlock(items));
+  }
+  if (deletes.length > 0) await t.bulkDelete(deletes);
+  if (puts.length > 0) await t.bulkPut(puts);
 }
 
 /** The error IndexedDB's add gives for a key already stored. */

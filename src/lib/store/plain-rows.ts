@@ -29,6 +29,8 @@ export interface TableRows<R extends RecordBase = RecordBase> {
   add(rows: readonly R[]): Promise<void>;
   /** Writes rows, replacing those with the same id. */
   put(rows: readonly R[]): Promise<void>;
+  /** Takes rows out for good (ids not stored are ignored): only for undoing an unfinished restore, never a deletion (deletions are tombstones). */
+  remove(ids: readonly string[]): Promise<void>;
 }
 
 /** From this many ids, `present` first reads which ids exist from one key range (see presentIn). */
@@ -57,6 +59,9 @@ export function plainRows<R extends RecordBase>(t: Table<R, string>, changedFiel
     },
     put: async (rows) => {
       if (rows.length > 0) await t.bulkPut([...rows]);
+    },
+    remove: async (ids) => {
+      if (ids.length > 0) await t.bulkDelete([...ids]);
     },
   };
 }

@@ -1,6 +1,6 @@
 /**
  * The words of the settings page and its sections (VaultSection, ProfileSection, StorageSection,
- * BackupSection), English only for now (see ../home-messages.ts). The team section has its own
+ * BackupSection, RestoreForm), English only for now (see ../home-messages.ts). The team section has its own
  * words in lib/ui/team. Messages with numbers are functions.
  */
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
@@ -67,6 +67,12 @@ export const checking = 'Checking…';
 export const importButton = 'Import';
 export const chooseFile = 'Choose a backup file first.';
 export const importRefused = (file: string, reason: string) => `${file}: ${reason} Nothing was imported.`;
+export const restored = (file: string, records: number) => `${file}: restored, ${records.toLocaleString()} records checked and merged.`;
+export const restoreCancelled = 'Restore cancelled. Your records are as they were before it started.';
+/** The streamed restore's progress line: its phase, then "done" or "done of total". */
+export const restoreProgress = (phase: 'checking' | 'writing' | 'undoing', done: number, total: number | null) =>
+  `${phase === 'checking' ? 'Checking the file' : phase === 'writing' ? 'Restoring records' : 'Undoing'}: ${done.toLocaleString()}${total !== null ? ` of ${total.toLocaleString()}` : ''}`;
+export const cancelRestore = 'Cancel restore';
 export const mergeReport = 'Merge report';
 export const imported = 'Imported.';
 export const nothingNew = 'Nothing new: this backup was already here.';

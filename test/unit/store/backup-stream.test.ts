@@ -2,7 +2,8 @@
 // bundle in memory) and against Node's own SHA-256 (node:crypto, outside the project) for the checksum.
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { exportBackupText, importBackup, readBackup, StoreError } from '../../../src/lib/store';
+import { TABLE_NAMES } from '../../../src/lib/domain';
+import { exportBackupText, importBackup, readBackup, StoreError, tableRows } from '../../../src/lib/store';
 import { streamBackup } from '../../../src/lib/store/backup-stream';
 import { freshStore, seedPatient, steppingClock } from './store-helpers';
 
@@ -23,8 +24,17 @@ async function storeWithRecords(patients: number) {
 async function streamed(store: Awaited<ReturnType<typeof storeWithRecords>>, protectedContent: 'include' | 'omit', pageSize: number) {
   const pieces: string[] = [];
   const progress: number[] = [];
-  const out = await streamBackup(store, { protectedContent, pageSize, write: (p) => pieces.push(p), onProgress: (p) => void progress.push(p.done) });
-  return { out, body: pieces.join(''), text: out.head + pieces.join('') + out.tail, progress };
+  const totals: number[] = [];
+  const out = await streamBackup(store, {
+    protectedContent,
+    pageSize,
+    write: (p) => pieces.push(p),
+    onProgress: (p) => {
+      progress.push(p.done);
+      totals.push(p.total);
+    },
+  });
+  return { out, body: pieces.join(''), text: out.head + pieces.join('') + out.tail, progress, totals };
 }
 
 describe('streamed backup', () => {
@@ -63,12 +73,19 @@ describe('streamed backup', () => {
     fresh.close();
   });
 
-  it('reports progress page by page up to every record', async () => {
+  it('reports progress page by page up to every record, ending at its total', async () => {
     const store = await storeWithRecords(4);
-    const { progress, out } = await streamed(store, 'include', 2);
+    // The observations' total starts as a bound from keys (4 observations in one block count as 50).
+    const { progress, totals, out } = await streamed(store, 'include', 2);
     expect(progress.length).toBeGreaterThan(5);
-    for (let i = 1; i < progress.length; i++) expect(progress[i]).toBeGreaterThan(progress[i - 1]!);
+    for (let i = 1; i < progress.length; i++) expect(progress[i]).toBeGreaterThanOrEqual(progress[i - 1]!);
+    for (let i = 0; i < progress.length; i++) expect(totals[i]).toBeGreaterThanOrEqual(progress[i]!);
     expect(progress.at(-1)).toBe(out.records);
+    expect(totals.at(-1)).toBe(out.records);
+    // The oracle for the total: every table's rows counted one by one.
+    let counted = 0;
+    for (const table of TABLE_NAMES) counted += await tableRows(store.db, table).count();
+    expect(out.records).toBe(counted);
     store.close();
   });
 
