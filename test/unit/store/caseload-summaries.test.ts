@@ -211,6 +211,24 @@ describe('caseload summaries', () => {
     store.close();
   });
 
+  it('follow an observation taken out of its block (the streamed restore\'s undo) in a transaction that also wrote another patient', async () => {
+    const store = await freshStore();
+    const p = await store.patients.create(newPatient('K7QM-5XHD'));
+    const q = await store.patients.create(newPatient('K7QM-6XHD'));
+    const first = await visit(store, p.id, '2025-01-10T10:00:00.000Z', '3');
+    await visit(store, q.id, '2025-01-11T10:00:00.000Z', '3');
+    const gone = await visit(store, q.id, '2025-02-11T10:00:00.000Z', '1');
+    await expectRight(store, 'three visits');
+    // One transaction: an edit of P's observation declares P; taking Q's later observation out must mark Q too.
+    const rows = tableRows<Observation>(store.db, 'observations');
+    await store.db.transaction('rw', ['observations'], async () => {
+      await rows.put([{ ...first.observations[0]!, value: ordinalValue('mas', '2') }]);
+      await rows.remove([gone.observations[0]!.id]);
+    });
+    expect(await shown(store)).toEqual(await recomputed(store));
+    store.close();
+  });
+
   it('are recomputed by the reader after a newly adopted MDC or a write around the repositories', async () => {
     const store = await freshStore();
     const p = await store.patients.create(newPatient('K7QM-3XHD'));
