@@ -2,7 +2,7 @@
 // hand-off with the therapist (encrypted programme packages and reports, QR parts, adherence).
 // Pure formats and computations, plus thin store glue (patient-device, home-records,
 // import-home-report); no DOM anywhere here.
-export { ProgrammeTransferError } from './programme-transfer-error';
+export { ProgrammeTransferError, type ProgrammeTransferErrorCode } from './programme-transfer-error';
 export { addDays, dayNumber, localDayOf, weekStartOf } from './calendar';
 export {
   MAX_EXERCISES,

@@ -129,3 +129,59 @@ describe('a programme file refused for its dose, on a Spanish patient\'s phone',
     expect(english, spanish).toEqual([]);
   });
 });
+
+describe('a programme file refused for any other reason, on a Spanish patient\'s phone', () => {
+  const CODE = '7KQ2M-XD4PH';
+  let seed = 11;
+  const sealing = { randomBytes: (n: number) => Uint8Array.from({ length: n }, () => (seed = (seed * 48271) % 2147483647) & 255), iterations: TEST_ITERATIONS };
+  const body = (formatVersion: number) => JSON.stringify({ format: 'kinnote-home-programme', formatVersion, issuedAt: '2025-03-01T10:00:00.000Z', patient: { id: '0190f0e0-0000-7000-8000-000000000001', code: 'K7QM-3XHD' }, programme: {}, language: 'es' });
+
+  async function refusal(file: string, code: string): Promise<ProgrammeTransferError> {
+    const opened = await openProgrammePackage(file, code).then(
+      () => null,
+      (e: unknown) => e,
+    );
+    expect(opened).toBeInstanceOf(ProgrammeTransferError);
+    return opened as ProgrammeTransferError;
+  }
+
+  /** Every English word (3 letters or more) of the errors' own messages: the phone must show none of them. */
+  function englishLeft(spanish: string, error: ProgrammeTransferError): string[] {
+    const english = new Set(error.message.toLowerCase().match(/\p{L}{3,}/gu) ?? []);
+    // Words the two languages share, and the app's name.
+    for (const same of ['kinnote', 'xd4ph']) english.delete(same);
+    return (spanish.toLowerCase().match(/\p{L}{3,}/gu) ?? []).filter((w) => english.has(w));
+  }
+
+  it('words a wrong or mistyped code, an altered file, a file of another kind and a newer version in Spanish, never the English message', async () => {
+    const sealed = await sealTransfer(body(4), CODE, sealing);
+    const altered = sealed.slice(0, -12) + (sealed.at(-12) === 'A' ? 'B' : 'A') + sealed.slice(-11);
+    const refusals = [
+      await refusal(sealed, '22222-22222'),
+      await refusal(sealed, 'not a code'),
+      await refusal(altered, CODE),
+      await refusal('{"hello": "world"}', CODE),
+      await refusal(await sealTransfer(body(99), CODE, sealing), CODE),
+    ];
+    // The codes as the hand-off gives them (sealed-transfer.ts), in the order made above: an altered
+    // sealed text fails its authentication exactly as a wrong code does (AES-GCM cannot tell them apart).
+    expect(refusals.map((e) => e.code)).toEqual(['WrongCode', 'WrongCode', 'WrongCode', 'NotThisKind', 'Unsupported']);
+    for (const error of refusals) {
+      const spanish = refusedProgrammeText(error, SPANISH_MESSAGES);
+      expect(spanish, error.code).not.toBe(error.message);
+      expect(englishLeft(spanish, error), `${error.code}: ${spanish}`).toEqual([]);
+      expect(refusedProgrammeText(error, ENGLISH_MESSAGES), error.code).toBe(ENGLISH_MESSAGES.receiveRefused(error.code));
+    }
+    // Hand-written: a wrong code, as a Spanish patient reads it.
+    expect(refusedProgrammeText(refusals[0]!, SPANISH_MESSAGES)).toBe(
+      'Este código no abre el archivo del programa (o el archivo se ha modificado). Un código tiene 10 letras y números, como 7KQ2M-XD4PH: revísalo y escríbelo de nuevo. No se ha guardado nada.',
+    );
+  });
+
+  it('has a Spanish sentence for every refusal code, none of them the English one', () => {
+    const codes = ['WrongCode', 'Tampered', 'NotThisKind', 'Unsupported', 'Invalid', 'ForeignPatient', 'Incomplete'] as const;
+    const spanish = codes.map((c) => SPANISH_MESSAGES.receiveRefused(c));
+    expect(new Set(spanish).size).toBe(codes.length);
+    for (const [i, c] of codes.entries()) expect(spanish[i], c).not.toBe(ENGLISH_MESSAGES.receiveRefused(c));
+  });
+});

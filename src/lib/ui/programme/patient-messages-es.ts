@@ -1,5 +1,5 @@
 import type { DoseField, DoseProblem } from '$lib/domain';
-import { durationWords, type DosePart } from '$lib/programme';
+import { durationWords, type DosePart, type ProgrammeTransferErrorCode } from '$lib/programme';
 import { plural, type PatientMessages } from './patient-messages';
 
 // Spanish (neutral, "tú" form, as patient leaflets in Spain and Latin America commonly use). To be
@@ -136,6 +136,24 @@ export const SPANISH_MESSAGES: PatientMessages = {
   leaveRemoving: 'Borrando…',
   leaveReading: 'Leyendo lo que hay en este teléfono…',
   leaveKeep: 'Conservar mi programa y volver',
+  receiveRefused: (code: ProgrammeTransferErrorCode): string => {
+    switch (code) {
+      case 'WrongCode':
+        return 'Este código no abre el archivo del programa (o el archivo se ha modificado). Un código tiene 10 letras y números, como 7KQ2M-XD4PH: revísalo y escríbelo de nuevo. No se ha guardado nada.';
+      case 'Tampered':
+        return 'El archivo del programa se ha modificado o está incompleto, así que se ha rechazado. No se ha guardado nada. Pide a tu terapeuta que lo envíe de nuevo.';
+      case 'NotThisKind':
+        return 'Esto no es un archivo de programa de tu terapeuta. No se ha guardado nada.';
+      case 'Unsupported':
+        return 'Este programa se hizo con una versión más nueva de Kinnote. Actualiza la aplicación y ábrelo de nuevo. No se ha guardado nada.';
+      case 'Invalid':
+        return 'No se puede leer el archivo del programa. No se ha guardado nada. Pide a tu terapeuta que lo envíe de nuevo.';
+      case 'ForeignPatient':
+        return 'Este programa es de otra persona, o este teléfono sigue el programa de otra persona. Se ha rechazado; no se ha guardado nada.';
+      case 'Incomplete':
+        return 'Los códigos escaneados no encajan (se leyó mal un código). Escanéalos todos de nuevo.';
+    }
+  },
   receiveDoseRefused: (exercise: number, field: string | null, problem: string) =>
     `No se puede usar este programa: ejercicio ${exercise}${field ? `, ${field}` : ''}: ${problem}. No se ha guardado nada. Pide a tu terapeuta un programa corregido.`,
   doseField: (field: DoseField): string => {

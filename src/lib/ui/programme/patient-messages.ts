@@ -1,7 +1,7 @@
 // By their own paths: the first screen loads these messages, and the folder's door would bring the
 // whole programme folder (and the store's import) into the first load.
 import type { DoseField, DoseProblem } from '$lib/domain';
-import { durationWords, type DosePart, PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage } from '$lib/programme';
+import { durationWords, type DosePart, PATIENT_LANGUAGES, isPatientLanguage, type PatientLanguage, type ProgrammeTransferErrorCode } from '$lib/programme';
 
 /**
  * Every word a patient reads on their own phone, in each language the phone speaks. English is the
@@ -157,6 +157,25 @@ const en = {
   leaveRemoving: 'Removing…',
   leaveReading: 'Reading what is on this phone…',
   leaveKeep: 'Keep my programme and go back',
+  // A programme file refused for another reason (ProgrammeTransferError's code), in the patient's words
+  receiveRefused: (code: ProgrammeTransferErrorCode): string => {
+    switch (code) {
+      case 'WrongCode':
+        return 'This code does not open the programme file (or the file was altered). A code has 10 letters and digits, like 7KQ2M-XD4PH: check it and type it again. Nothing was saved.';
+      case 'Tampered':
+        return 'This programme file was altered or is incomplete, so it was refused. Nothing was saved. Ask your therapist to send it again.';
+      case 'NotThisKind':
+        return 'This is not a programme file from your therapist. Nothing was saved.';
+      case 'Unsupported':
+        return 'This programme was made by a newer version of Kinnote. Update the app, then open it again. Nothing was saved.';
+      case 'Invalid':
+        return 'This programme file cannot be read. Nothing was saved. Ask your therapist to send it again.';
+      case 'ForeignPatient':
+        return "This programme is for another person, or this phone follows another person's programme. It was refused; nothing was saved.";
+      case 'Incomplete':
+        return 'The scanned codes do not fit together (a code was misread). Scan them all again.';
+    }
+  },
   // A programme file refused for a dose the therapist must correct (domain/exercise-dose.ts)
   receiveDoseRefused: (exercise: number, field: string | null, problem: string) =>
     `This programme cannot be used: exercise ${exercise}${field ? `, ${field}` : ''}: ${problem}. Nothing was saved. Ask your therapist for a corrected programme.`,
