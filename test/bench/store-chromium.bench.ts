@@ -2,10 +2,13 @@
 // audited, in batches of 5,000 (the same repository path as the app), and the previous path
 // (schema 2 indexes, a full audit snapshot per record) in the same page for the ratio. Needs a build (npm run build)
 // and Chromium (/usr/bin/chromium or CHROME_PATH); prints what is missing otherwise.
-import { existsSync } from 'node:fs';
+import { existsSync, writeFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
+import { join } from 'node:path';
 import { chromium } from 'playwright-core';
 import { startStaticServer } from '../../src/cli/commands/serve';
 import { bundleForPage } from '../e2e/bundle-for-page';
+import { IMPORT_BENCH_BASE, mainSourceTree } from './main-path';
 
 export async function run(print: (line: string) => void): Promise<void> {
   const chromePath = [process.env.CHROME_PATH, '/usr/bin/chromium'].find((p) => p && existsSync(p));
@@ -53,20 +56,38 @@ export async function run(print: (line: string) => void): Promise<void> {
       20_000,
     )) as Rate;
     print(`Chromium bulk path without the write (validate, stamp, batch audit entry; nothing stored): ${Math.round(prepared.perSecond).toLocaleString('en')} observations/s, the most the bulk insert could reach with a free write · goal ≥ 25,000: ${(prepared.perSecond / 25_000).toFixed(2)}× of goal`);
-    // Backup import (parse, verify, merge, one transaction) of a file written by the app's export.
-    // Previous path (a75ca3f) in this page on 2026-12-03, load 13-19: 20,000 observations in 16.3-18.1 s.
+    // Backup import of a file written by the app's export, into an empty store: main's path (commit
+    // IMPORT_BENCH_BASE, extracted from git) and the present one alternately, on the same file in this page.
+    const main = mainSourceTree();
+    if (main) {
+      const entry = join(main.dir, 'page-entry.ts');
+      writeFileSync(entry, "import { importBackup, openStore } from './src/lib/store';\nexport const path = { importBackup, openStore };\n(globalThis as unknown as { kinnoteMainImport: unknown }).kinnoteMainImport = path;\n");
+      await page.evaluate(`${await bundleForPage(entry, 'kinnoteMainImportBundle')}\n;undefined`);
+    } else print(`main's import path (${IMPORT_BENCH_BASE}) not run: no git history here`);
+    const rounds = Number(process.env.IMPORT_BENCH_ROUNDS ?? 1);
     for (const total of sizes) {
-      const r = (await page.evaluate((n) => (globalThis as unknown as { importBench: (n: number) => Promise<unknown> }).importBench(n), total)) as {
-        stored: number;
-        importSeconds: number;
-        bytes: number;
-      };
-      const scaled = (r.importSeconds * 100_000) / total;
+      const file = (await page.evaluate((n) => (globalThis as unknown as { importBenchFile: (n: number) => Promise<unknown> }).importBenchFile(n), total)) as { bytes: number };
+      type Imported = { stored: number; importSeconds: number };
+      const times: Record<'present' | 'main', number[]> = { present: [], main: [] };
+      let stored = 0;
+      for (let round = 0; round < rounds; round++) {
+        for (const which of main ? (['main', 'present'] as const) : (['present'] as const)) {
+          const r = (await page.evaluate((w) => (globalThis as unknown as { importBench: (w: string) => Promise<unknown> }).importBench(w), which)) as Imported;
+          times[which].push(r.importSeconds);
+          if (which === 'present') stored = r.stored;
+        }
+      }
+      const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? Number.NaN;
+      const present = median(times.present);
+      const scaled = (present * 100_000) / total;
+      const list = (xs: number[]) => xs.map((x) => x.toFixed(2)).join(', ');
       print(
-        `Chromium backup import into an empty store: ${r.stored.toLocaleString('en')} observations (${(r.bytes / 1e6).toFixed(1)} MB) in ${r.importSeconds.toFixed(2)} s = ${scaled.toFixed(1)} s per 100,000` +
-          ` · goal < 10 s per 100,000: ${(10 / scaled).toFixed(2)}× of goal · plain IndexedDB at one stored value per observation allows at best ${(100_000 / ceilingOnePerRow).toFixed(1)} s`,
+        `Chromium backup import into an empty store: ${stored.toLocaleString('en')} observations (${(file.bytes / 1e6).toFixed(1)} MB) in ${list(times.present)} s = ${scaled.toFixed(1)} s per 100,000` +
+          ` · goal < 10 s per 100,000: ${(10 / scaled).toFixed(2)}× of goal · main's path (${main?.commit ?? 'not run'}) ${list(times.main)} s: ${(median(times.main) / present).toFixed(2)}× main's path in this run` +
+          ` · plain IndexedDB at one stored value per observation allows at best ${(100_000 / ceilingOnePerRow).toFixed(1)} s`,
       );
     }
+    print(`  (load average ${loadavg().map((l) => l.toFixed(1)).join(', ')} at the end)`);
   } finally {
     await browser.close();
     await server.close();
