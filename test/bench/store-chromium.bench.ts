@@ -26,36 +26,39 @@ export async function run(print: (line: string) => void): Promise<void> {
     // Through the DevTools protocol: the page's Content-Security-Policy refuses inline <script> tags.
     await page.evaluate(`${bundle}\n;undefined`);
     type Rate = { total: number; stored: number; seconds: number; perSecond: number };
-    type Previous = (n: number, batch: number, schema: 2 | 14) => Promise<Rate>;
-    const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: Previous }).bulkInsertPrevious(n, 5000, 2), 20_000)) as Rate;
-    print(`Chromium ${browser.version()} IndexedDB bulk insert, early path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
-    // The layout before schema 16 (one stored value per observation, batch audit entries): the ratio's base.
-    const unpacked = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: Previous }).bulkInsertPrevious(n, 5000, 14), 20_000)) as Rate;
-    print(`Chromium IndexedDB bulk insert, previous layout (schema 14: one stored value per observation, one batch audit entry per 5,000): ${unpacked.stored.toLocaleString('en')} observations in ${unpacked.seconds.toFixed(2)} s = ${Math.round(unpacked.perSecond).toLocaleString('en')} observations/s`);
+    // STORE_BENCH_IMPORT_ONLY=1: the import figures alone (a loaded machine).
+    const importOnly = process.env.STORE_BENCH_IMPORT_ONLY === '1';
     let ceilingOnePerRow = Number.NaN;
-    for (const perRow of [1, 50, 200]) {
-      const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
-      if (perRow === 1) ceilingOnePerRow = ceiling.perSecond;
-      print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / unpacked.perSecond).toFixed(2)}× previous layout`);
-    }
-    // STORE_BENCH_OBSERVATIONS: one smaller size on a loaded machine (printed with each figure).
     const sizes = process.env.STORE_BENCH_OBSERVATIONS ? [Number(process.env.STORE_BENCH_OBSERVATIONS)] : [20_000, 100_000];
-    for (const total of sizes) {
-      const r = (await page.evaluate(
-        (n) => (globalThis as unknown as { storeChecks: { bulkInsert: (n: number) => Promise<unknown> } }).storeChecks.bulkInsert(n),
-        total,
+    if (!importOnly) {
+      type Previous = (n: number, batch: number, schema: 2 | 14) => Promise<Rate>;
+      const previous = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: Previous }).bulkInsertPrevious(n, 5000, 2), 20_000)) as Rate;
+      print(`Chromium ${browser.version()} IndexedDB bulk insert, early path (v2 indexes, one audit snapshot per record): ${previous.stored.toLocaleString('en')} observations in ${previous.seconds.toFixed(2)} s = ${Math.round(previous.perSecond).toLocaleString('en')} observations/s`);
+      // The layout before schema 16 (one stored value per observation, batch audit entries): the ratio's base.
+      const unpacked = (await page.evaluate((n) => (globalThis as unknown as { bulkInsertPrevious: Previous }).bulkInsertPrevious(n, 5000, 14), 20_000)) as Rate;
+      print(`Chromium IndexedDB bulk insert, previous layout (schema 14: one stored value per observation, one batch audit entry per 5,000): ${unpacked.stored.toLocaleString('en')} observations in ${unpacked.seconds.toFixed(2)} s = ${Math.round(unpacked.perSecond).toLocaleString('en')} observations/s`);
+      for (const perRow of [1, 50, 200]) {
+        const ceiling = (await page.evaluate(([n, k]) => (globalThis as unknown as { rawPutCeiling: (n: number, k: number) => Promise<{ perSecond: number }> }).rawPutCeiling(n, k), [20_000, perRow] as const)) as { perSecond: number };
+        if (perRow === 1) ceilingOnePerRow = ceiling.perSecond;
+        print(`Chromium plain IndexedDB ceiling (no index, no validation, no audit), ${perRow} observation${perRow === 1 ? '' : 's'} per stored value: ${Math.round(ceiling.perSecond).toLocaleString('en')} observations/s · ${(ceiling.perSecond / unpacked.perSecond).toFixed(2)}× previous layout`);
+      }
+      for (const total of sizes) {
+        const r = (await page.evaluate(
+          (n) => (globalThis as unknown as { storeChecks: { bulkInsert: (n: number) => Promise<unknown> } }).storeChecks.bulkInsert(n),
+          total,
+        )) as Rate;
+        print(
+          `Chromium IndexedDB bulk insert (repository, validated, stamped, one batch audit entry per 5,000): ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s` +
+            ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / unpacked.perSecond).toFixed(2)}× previous layout · ${(r.perSecond / previous.perSecond).toFixed(2)}× early path`,
+        );
+      }
+      // Where the rest goes: the same records prepared (validated, stamped, batch audit entry) and not written.
+      const prepared = (await page.evaluate(
+        (n) => (globalThis as unknown as { storeChecks: { prepareOnly: (n: number) => Promise<unknown> } }).storeChecks.prepareOnly(n),
+        20_000,
       )) as Rate;
-      print(
-        `Chromium IndexedDB bulk insert (repository, validated, stamped, one batch audit entry per 5,000): ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s = ${Math.round(r.perSecond).toLocaleString('en')} observations/s` +
-          ` · goal ≥ 25,000 (stretch 50,000): ${(r.perSecond / 25_000).toFixed(2)}× of goal · ${(r.perSecond / unpacked.perSecond).toFixed(2)}× previous layout · ${(r.perSecond / previous.perSecond).toFixed(2)}× early path`,
-      );
+      print(`Chromium bulk path without the write (validate, stamp, batch audit entry; nothing stored): ${Math.round(prepared.perSecond).toLocaleString('en')} observations/s, the most the bulk insert could reach with a free write · goal ≥ 25,000: ${(prepared.perSecond / 25_000).toFixed(2)}× of goal`);
     }
-    // Where the rest goes: the same records prepared (validated, stamped, batch audit entry) and not written.
-    const prepared = (await page.evaluate(
-      (n) => (globalThis as unknown as { storeChecks: { prepareOnly: (n: number) => Promise<unknown> } }).storeChecks.prepareOnly(n),
-      20_000,
-    )) as Rate;
-    print(`Chromium bulk path without the write (validate, stamp, batch audit entry; nothing stored): ${Math.round(prepared.perSecond).toLocaleString('en')} observations/s, the most the bulk insert could reach with a free write · goal ≥ 25,000: ${(prepared.perSecond / 25_000).toFixed(2)}× of goal`);
     // Backup import of a file written by the app's export, into an empty store: main's path (commit
     // IMPORT_BENCH_BASE, extracted from git) and the present one alternately, on the same file in this page.
     const main = mainSourceTree();
@@ -84,7 +87,7 @@ export async function run(print: (line: string) => void): Promise<void> {
       print(
         `Chromium backup import into an empty store: ${stored.toLocaleString('en')} observations (${(file.bytes / 1e6).toFixed(1)} MB) in ${list(times.present)} s = ${scaled.toFixed(1)} s per 100,000` +
           ` · goal < 10 s per 100,000: ${(10 / scaled).toFixed(2)}× of goal · main's path (${main?.commit ?? 'not run'}) ${list(times.main)} s: ${(median(times.main) / present).toFixed(2)}× main's path in this run` +
-          ` · plain IndexedDB at one stored value per observation allows at best ${(100_000 / ceilingOnePerRow).toFixed(1)} s`,
+          (importOnly ? '' : ` · plain IndexedDB at one stored value per observation allows at best ${(100_000 / ceilingOnePerRow).toFixed(1)} s`),
       );
     }
     print(`  (load average ${loadavg().map((l) => l.toFixed(1)).join(', ')} at the end)`);
