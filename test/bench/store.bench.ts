@@ -1,11 +1,15 @@
 // Bulk insert rate of the record store in Node on fake-indexeddb: 100,000 observations through the
 // repository's bulk path (validated, stamped, one batch audit entry per batch, one transaction per batch).
 // Figures are printed, never asserted. The Chromium figure (real IndexedDB) comes from the browser bench.
+import { loadavg } from 'node:os';
+import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { IDBFactory, IDBKeyRange } from 'fake-indexeddb';
 import { ordinalValue, type RecordInput, type Observation } from '../../src/lib/domain';
-import { importBackup, openStore, readBackup, serializeBundle } from '../../src/lib/store';
+import { importBackup, openStore, readBackup, serializeBundle, type KinnoteStore } from '../../src/lib/store';
+import { tableRows } from '../../src/lib/store/table-rows';
 import { exportBackup } from '../../src/lib/store/export-backup';
+import { IMPORT_BENCH_BASE, mainSourceTree } from './main-path';
 
 // STORE_BENCH_OBSERVATIONS: a smaller size on a loaded machine (the size is printed with each figure).
 const TOTAL = Number(process.env.STORE_BENCH_OBSERVATIONS ?? 100_000);
@@ -48,20 +52,37 @@ export async function run(print: (line: string) => void): Promise<void> {
   const verifySeconds = (performance.now() - verifyStart) / 1000;
   print(`read and verify only (parse, checksum, every record, references; what \`kinnote cohort BACKUP\` does, no store): ${verifySeconds.toFixed(2)} s for ${(text.length / 1e6).toFixed(1)} MB`);
 
-  const target = await openStore({ name: 'bench-import', indexedDB: new IDBFactory(), IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
-  await target.ensureActor({ deviceName: 'bench-2', platform: 'node', clinicianName: 'Bench 2', profession: 'physiotherapist' });
-  const importStart = performance.now();
-  await importBackup(target, text);
-  const importSeconds = (performance.now() - importStart) / 1000;
-  // Previous implementation (a75ca3f: one get per incoming id, one put queue of 100,000 requests,
-  // the body serialised again for the checksum), same 100,000-observation file on this machine,
-  // run alternately with this one on 2026-12-03 at load 14-18: 113 s and 95 s (this one 24 s and
-  // 29 s); at load ~2 the previous took 27.6 s.
-  const scaled = (importSeconds * 100_000) / TOTAL;
+  // The same file into an empty store, by main's import path (commit IMPORT_BENCH_BASE, extracted
+  // from git) and by the present one, in this run: the ratio holds although the load moves figures.
+  const importInto = async (name: string, run: (store: KinnoteStore) => Promise<unknown>, open: typeof openStore = openStore) => {
+    const target = await open({ name, indexedDB: new IDBFactory(), IDBKeyRange, kdfIterations: 1000, idleTimeoutMs: null });
+    await target.ensureActor({ deviceName: 'bench-2', platform: 'node', clinicianName: 'Bench 2', profession: 'physiotherapist' });
+    const t0 = performance.now();
+    const cpu0 = process.cpuUsage();
+    await run(target);
+    const seconds = (performance.now() - t0) / 1000;
+    const cpu = process.cpuUsage(cpu0);
+    const stored = await tableRows(target.db, 'observations').count();
+    target.close();
+    // CPU seconds of this process (user + system, all its threads): on a shared, loaded machine
+    // they move far less than the wall time, which waits for the cores.
+    return { seconds, cpuSeconds: (cpu.user + cpu.system) / 1e6, stored };
+  };
+  const main = mainSourceTree();
+  let mainSeconds = Number.NaN;
+  let mainCpu = Number.NaN;
+  if (main) {
+    const previous = (await import(join(main.dir, 'src/lib/store/index.ts'))) as typeof import('../../src/lib/store');
+    const r = await importInto('bench-import-main', (t) => previous.importBackup(t as never, text), previous.openStore as unknown as typeof openStore);
+    mainSeconds = r.seconds;
+    mainCpu = r.cpuSeconds;
+    print(`import by main's path (${main.commit}), same file, empty store on fake-indexeddb: ${r.stored.toLocaleString('en')} observations in ${r.seconds.toFixed(2)} s (${r.cpuSeconds.toFixed(2)} CPU s)`);
+  } else print(`main's path (${IMPORT_BENCH_BASE}) not run: no git history here`);
+  const r = await importInto('bench-import', (t) => importBackup(t, text));
+  const scaled = (r.seconds * 100_000) / TOTAL;
   print(
-    `import of that file (${TOTAL.toLocaleString('en')} observations) into an empty store on fake-indexeddb (verify all, then one transaction): ${importSeconds.toFixed(2)} s` +
-      ` = ${scaled.toFixed(1)} s per 100,000 · goal < 10 s per 100,000: ${(10 / scaled).toFixed(2)}× of goal · ${(27.6 / scaled).toFixed(2)}× the previous path's 27.6 s recorded at load ~2 (see comment)`,
+    `import of that file (${r.stored.toLocaleString('en')} observations) into an empty store on fake-indexeddb (verify all, then one transaction): ${r.seconds.toFixed(2)} s (${r.cpuSeconds.toFixed(2)} CPU s)` +
+      ` = ${scaled.toFixed(1)} s per 100,000 · goal < 10 s per 100,000: ${(10 / scaled).toFixed(2)}× of goal · ${(mainSeconds / r.seconds).toFixed(2)}× main's path in this run (CPU time: ${(mainCpu / r.cpuSeconds).toFixed(2)}×)`,
   );
-  print('  (fake-indexeddb is an in-memory IndexedDB written in JavaScript, used by the tests: this figure is verification + that emulation, not a device; the CLI imports into no store)');
-  target.close();
+  print(`  (load average ${loadavg().map((l) => l.toFixed(1)).join(', ')} at the end; fake-indexeddb is an in-memory IndexedDB written in JavaScript, used by the tests: this figure is verification + that emulation, not a device; the CLI imports into no store)`);
 }

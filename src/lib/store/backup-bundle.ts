@@ -3,7 +3,7 @@ import { PROTECTED_TEXT_FIELDS, TABLE_NAMES, checkTimestamps, validateRecord, ty
 import { base64ToFloat64, float64ToBase64 } from './base64';
 import { sortPhotos, toPortablePhoto, verifyBundlePhotos, type PortablePhoto } from './backup-photos';
 import { canonicalJson } from './canonical-json';
-import { sha256Hex } from './crypto-box';
+import { sha256Hex, sha256HexOfBraceAndSlice } from './crypto-box';
 import type { Actor } from './store-context';
 import { StoreError, describeIssues, type StoreIssue } from './store-error';
 
@@ -136,7 +136,7 @@ const EnvelopeSchema = v.object({
  * a partly valid bundle. References between records are checked by checkReferences.
  *
  * `sourceText`, the text `parsed` came from, saves serialising the body again when the file is
- * exactly what serializeBundle writes (checksummedTextAsWritten); any other text that parses to a
+ * exactly what serializeBundle writes (checksummedRangeAsWritten); any other text that parses to a
  * bundle with the right checksum (re-indented, keys reordered) is still accepted, at that cost.
  *
  * The checksum is an integrity check, not an authenticity check: it catches damage, but anyone can
@@ -159,8 +159,8 @@ export async function verifyBundle(parsed: unknown, nowMs: number, sourceText?: 
     throw new StoreError('InvalidBundle', `invalid backup: ${describeIssues(issues)}`, { issues });
   }
   const { checksum, ...body } = parsed as BackupBundle;
-  const asWritten = sourceText === undefined ? null : checksummedTextAsWritten(sourceText, checksum.value);
-  if (asWritten === null || (await sha256Hex(asWritten)) !== checksum.value) {
+  const asWritten = sourceText === undefined ? null : checksummedRangeAsWritten(sourceText, checksum.value);
+  if (asWritten === null || (await sha256HexOfBraceAndSlice(sourceText!, asWritten.from, asWritten.to)) !== checksum.value) {
     let text: string;
     try {
       text = canonicalJson(body);
@@ -245,9 +245,10 @@ export function checkBundleRecord(
 }
 
 /**
- * The text the checksum covers, cut from the file itself when the file is in the form
+ * Where the text the checksum covers lies in the file itself, when the file is in the form
  * serializeBundle writes: canonical JSON whose first member (keys sorted) is the checksum, then the
- * body's members, then optional whitespace. Null when the text does not start that way.
+ * body's members, then optional whitespace. The covered text is `{` followed by
+ * sourceText[from, to). Null when the text does not start that way.
  *
  * Why hashing the file's own characters is as strong as serialising the parsed body again: the
  * checksum is SHA-256 over canonicalJson(body). If the cut text hashes to it, it is (short of a
@@ -257,12 +258,12 @@ export function checkBundleRecord(
  * 100,000-observation backup this saves a 58 MB serialisation (in Chromium's profile, the
  * canonical serialisation and its encoding were 60 % of the verification).
  */
-export function checksummedTextAsWritten(sourceText: string, checksumValue: string): string | null {
+function checksummedRangeAsWritten(sourceText: string, checksumValue: string): { from: number; to: number } | null {
   const prefix = `{"checksum":{"algorithm":"SHA-256","value":"${checksumValue}"},`;
   if (!sourceText.startsWith(prefix)) return null;
   let end = sourceText.length;
   while (end > prefix.length && ' \t\n\r'.includes(sourceText[end - 1] as string)) end--;
-  return `{${sourceText.slice(prefix.length, end)}`;
+  return { from: prefix.length, to: end };
 }
 
 /**

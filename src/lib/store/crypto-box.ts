@@ -78,7 +78,28 @@ export async function openText(key: CryptoKey, sealed: SealedText, aad: string):
 
 /** SHA-256 (FIPS 180-4) of the UTF-8 bytes of `text`, as lower-case hex. */
 export async function sha256Hex(text: string): Promise<string> {
-  const digest = new Uint8Array(await subtle().digest('SHA-256', bytes(utf8(text))));
+  return sha256HexOfBytes(utf8(text));
+}
+
+/**
+ * SHA-256 (hex) of `{` followed by text[from, to), where text[from - 1] is one ASCII character and
+ * everything before `from` is ASCII (so character and byte offsets agree there): the same digest as
+ * sha256Hex(`{${text.slice(from, to)}`) without building that string. The whole text is encoded
+ * and the byte before `from` overwritten: on Chromium, encodeInto of a file's own (flat) text took
+ * half the time of encoding the concatenated slice (1.3 s against 2.5 s for a 58 MB backup at
+ * load ~14, same page, DEVELOPERS.md "Backup import"). The characters after `to` must be ASCII too
+ * (a file's trailing whitespace).
+ */
+export async function sha256HexOfBraceAndSlice(text: string, from: number, to: number): Promise<string> {
+  const all = utf8(text);
+  const trailing = text.length - to;
+  const body = all.subarray(from - 1, all.length - trailing);
+  body[0] = 0x7b; // '{'
+  return sha256HexOfBytes(body);
+}
+
+async function sha256HexOfBytes(data: Uint8Array): Promise<string> {
+  const digest = new Uint8Array(await subtle().digest('SHA-256', bytes(data)));
   let hex = '';
   for (const b of digest) hex += b.toString(16).padStart(2, '0');
   return hex;

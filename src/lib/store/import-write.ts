@@ -4,7 +4,7 @@ import { settleCaseloadSummaries } from './caseload-summaries';
 import { EXERCISE_PHOTOS_TABLE } from './exercise-photos';
 import { writePhotoImport, type PhotoImportPlan } from './import-photos';
 import type { MergePlan } from './import-plan';
-import type { TableCounts } from './import-types';
+import type { Planned, TableCounts } from './import-types';
 import type { KinnoteStore } from './open-store';
 import { auditEntry } from './store-context';
 import { tableRows } from './table-rows';
@@ -31,27 +31,33 @@ export function importAudits(store: KinnoteStore, bundle: VerifiedBundle, plan: 
 
 /**
  * Import step 4b (write), all in one transaction: re-checks that nothing planned on changed since
- * the read step (else VersionConflict, nothing written), puts the rows, adds the audits, writes the
- * photos and settles the caseload summaries.
+ * the read step (else VersionConflict, nothing written), writes the rows, adds the audits, writes
+ * the photos and settles the caseload summaries. Rows planned as absent are added, not put: an add
+ * refuses an id stored meanwhile, which is that re-check without reading the ids again (an import
+ * into an empty store reads the store's ids once, in the read step).
  */
 export async function writeMerge(store: KinnoteStore, plan: MergePlan, audits: AuditEntry[], photoPlan: PhotoImportPlan): Promise<void> {
   try {
     await store.db.transaction('rw', [...TABLE_NAMES, EXERCISE_PHOTOS_TABLE], async (tx) => {
-      // One bulkGet per table re-checks that nothing planned on changed since the read phase.
-      const planned = [...plan.writes, ...plan.checks];
+      // One read per table re-checks the rows planned over a local copy.
+      const planned = [...plan.writes, ...plan.checks].filter((w) => w.localUpdatedAt !== undefined);
       for (const table of TABLE_NAMES) {
         const mine = planned.filter((w) => w.table === table);
         if (mine.length === 0) continue;
         const now = await tableRows(store.db, table).present(mine.map((w) => w.id));
-        for (const w of mine) {
-          if (now.get(w.id)?.updatedAt !== w.localUpdatedAt) {
-            throw new StoreError('VersionConflict', `${table} ${w.id} changed during the import; nothing was imported, try again`);
-          }
-        }
+        for (const w of mine) if (now.get(w.id)?.updatedAt !== w.localUpdatedAt) throw changedDuringImport(table, w.id);
       }
       for (const table of TABLE_NAMES) {
-        const rows = plan.writes.filter((w) => w.table === table).map((w) => w.row);
-        for (let i = 0; i < rows.length; i += WRITE_CHUNK) await tableRows(store.db, table).put(rows.slice(i, i + WRITE_CHUNK) as RecordBase[]);
+        const rows = tableRows(store.db, table);
+        const mine = plan.writes.filter((w) => w.table === table);
+        await inChunks(mine.filter((w) => w.localUpdatedAt !== undefined), (chunk) => rows.put(chunk));
+        await inChunks(mine.filter((w) => w.localUpdatedAt === undefined), async (chunk) => {
+          try {
+            await rows.add(chunk);
+          } catch (error) {
+            throw isIdTaken(error) ? changedDuringImport(table, 'a record') : error;
+          }
+        });
       }
       await store.db.table('audit').bulkAdd(audits);
       await writePhotoImport(store, photoPlan);
@@ -60,6 +66,23 @@ export async function writeMerge(store: KinnoteStore, plan: MergePlan, audits: A
   } catch (error) {
     throw toStoreError(error, 'importing the backup');
   }
+}
+
+function changedDuringImport(table: string, what: string): StoreError {
+  return new StoreError('VersionConflict', `${table} ${what} changed during the import; nothing was imported, try again`);
+}
+
+/** An add refused because the id is stored already (IndexedDB's ConstraintError, alone or in Dexie's BulkError). */
+function isIdTaken(error: unknown): boolean {
+  const e = error as { name?: unknown; inner?: unknown; failures?: unknown };
+  if (e?.name === 'ConstraintError') return true;
+  if (Array.isArray(e?.failures)) return e.failures.length > 0 && e.failures.every((f) => isIdTaken(f));
+  return e?.inner !== undefined && isIdTaken(e.inner);
+}
+
+/** Writes planned rows WRITE_CHUNK at a time, each chunk awaited before the next. */
+async function inChunks(planned: readonly Planned[], write: (rows: RecordBase[]) => Promise<void>): Promise<void> {
+  for (let i = 0; i < planned.length; i += WRITE_CHUNK) await write(planned.slice(i, i + WRITE_CHUNK).map((w) => w.row as RecordBase));
 }
 
 /**
