@@ -1,4 +1,4 @@
-// The import path as it was on main before import5 (commit BASE), extracted from git into
+// The import path as it was on main before the import's own speed-ups (commit BASE), extracted from git into
 // test-output/ so a bench can run it beside the present code in the same run, on the same file.
 // IMPORT_BENCH_BASE names another commit. Returns null (and the bench says so) without git history.
 import { execFileSync } from 'node:child_process';

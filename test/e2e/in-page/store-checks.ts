@@ -253,7 +253,7 @@ export async function bulkInsertPrevious(total: number, batch = 5000, schema: 2 
 (globalThis as unknown as { bulkInsertPrevious: typeof bulkInsertPrevious }).bulkInsertPrevious = bulkInsertPrevious;
 
 /**
- * main's bulk path before store5 (8179a2f, schema 16), for the bench's ratio in the same run: the
+ * main's bulk path before the faster record preparation (8179a2f, schema 16), for the bench's ratio in the same run: the
  * same packed write, but records prepared as prepareCreate did then: a clock reading and a 10-byte
  * random draw per id, the schema's validation (valibot) per record, and the batch digest over
  * canonicalJson of the records. Same inputs and batches as storeChecks.bulkInsert.
@@ -438,7 +438,7 @@ export async function caseloadReadTimes(): Promise<{ patients: number; observati
 }
 (globalThis as unknown as { caseloadReadTimes: typeof caseloadReadTimes }).caseloadReadTimes = caseloadReadTimes;
 
-/** The store code a bench import runs: the present one, or main's before import5 (test/bench/main-path.ts, loaded as `kinnoteMainImport`). */
+/** The store code a bench import runs: the present one, or main's before the import's own speed-ups (test/bench/main-path.ts, loaded as `kinnoteMainImport`). */
 interface ImportPath {
   readonly openStore: typeof openStore;
   readonly importBackup: (store: KinnoteStore, text: string) => Promise<unknown>;
