@@ -19,8 +19,8 @@ const ROOT = join(__dirname, '../../..');
  * the therapist's patient page (home-log timeline, visit form, report, saved swing, programme editor and
  * hand-over),
  * the measuring instruments and their pages, the drafts list the programme editor shows, the therapist's
- * first screen, menu, caseload, new-patient form, settings, reliability studies, cohort audit, and the
- * shared components of lib/ui.
+ * first screen, menu, caseload, new-patient form, settings (with its team section), reliability studies,
+ * cohort audit, and the shared components of lib/ui.
  */
 const COVERED = [
   'src/routes/home-programme',
@@ -44,6 +44,7 @@ const COVERED = [
   'src/lib/ui/ChoiceButtons.svelte',
   'src/lib/ui/VirtualList.svelte',
   'src/lib/ui/ReanalysisNotice.svelte',
+  'src/lib/ui/team',
 ];
 /** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
 const CATALOGUES = /-messages(?:-es)?\.ts$/;

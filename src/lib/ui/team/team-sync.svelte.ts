@@ -1,6 +1,7 @@
 import { liveQuery, type KinnoteStore } from '$lib/store';
 import { explainBlockedTeamServer, pagePolicy } from '$lib/security';
 import { countWaiting, isRevoked, readTeamLink, syncNow, TeamSyncError, type TeamLink } from '$lib/sync';
+import { deviceRevoked, offline, waitingForUnlock } from './team-messages';
 
 /** How soon after a save the changes go to the team (a burst of saves makes one sync). */
 const AFTER_SAVE_MS = 4000;
@@ -68,7 +69,7 @@ class TeamSyncRunner {
     this.link = await readTeamLink(store);
     if (!this.link) return;
     if (this.link.role !== 'auditor' && store.vault.status !== 'unlocked') {
-      this.lastError = 'Waiting: unlock names and notes to sync (they travel sealed under the team key).';
+      this.lastError = waitingForUnlock;
       return;
     }
     this.busy = true;
@@ -77,9 +78,9 @@ class TeamSyncRunner {
       this.lastError = null;
     } catch (error) {
       this.lastError = isRevoked(error)
-        ? 'A team admin revoked this device: it no longer syncs. Everything recorded here stays on this device; save a backup, or leave the team below.'
+        ? deviceRevoked
         : error instanceof TeamSyncError && error.status === null && /cannot be reached/.test(error.message)
-          ? 'Offline: changes wait on this device.'
+          ? offline
           : (error as Error).message;
     } finally {
       this.busy = false;
