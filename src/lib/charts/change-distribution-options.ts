@@ -1,5 +1,6 @@
 import uPlot from 'uplot';
-import { chartColours, chartDashes } from './palette';
+import * as t from './chart-messages';
+import { chartColours, chartDashes, chartFontFamily } from './palette';
 
 /** Histogram of changes (follow-up − baseline) with the MDC thresholds and zero drawn as lines. */
 export interface ChangeDistributionInput {
@@ -71,7 +72,7 @@ export function changeDistributionOptions(input: ChangeDistributionInput, width:
       },
       { stroke: chartColours.axis, grid: { stroke: chartColours.grid }, size: 40, values: (_u, splits) => splits.map((s) => (Number.isInteger(s) ? String(s) : '')) },
     ],
-    series: [{}, { label: 'Patients', stroke: chartColours.value, fill: chartColours.band, width: 1.5, ...(bars ? { paths: bars } : {}), points: { show: false } }],
+    series: [{}, { label: t.patients, stroke: chartColours.value, fill: chartColours.band, width: 1.5, ...(bars ? { paths: bars } : {}), points: { show: false } }],
     hooks: {
       draw: [
         (u) => {
@@ -89,7 +90,7 @@ export function changeDistributionOptions(input: ChangeDistributionInput, width:
             ctx.moveTo(x, top);
             ctx.lineTo(x, top + h);
             ctx.stroke();
-            ctx.font = `${12 * ratio}px system-ui, sans-serif`;
+            ctx.font = `${12 * ratio}px ${chartFontFamily}`;
             ctx.textBaseline = 'top';
             ctx.fillText(label, x + 3 * ratio, top + 2 * ratio);
             ctx.restore();

@@ -17,6 +17,9 @@ export const chartColours = {
   axis: '#33434a',
 } as const;
 
+/** The font of the words drawn on a chart's canvas (a CSS font-family list). */
+export const chartFontFamily = 'system-ui,sans-serif';
+
 export const chartDashes = {
   trend: [10, 6],
   baseline: [2, 4],

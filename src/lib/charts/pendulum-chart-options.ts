@@ -2,7 +2,8 @@ import type uPlot from 'uplot';
 import { formatFixed } from '$lib/domain';
 import { dampedCosineFitDeg, type DampedCosineParameters, type PendulumAnalysis } from '$lib/pendulum';
 import { minMaxDecimate } from './min-max-decimate';
-import { chartColours, chartDashes } from './palette';
+import * as t from './chart-messages';
+import { chartColours, chartDashes, chartFontFamily } from './palette';
 
 /** The fitted curve's parameters; drawn only when the fit converged and gives its phase. */
 export type FittedCurve = DampedCosineParameters;
@@ -104,7 +105,7 @@ function horizontalLine(u: uPlot, value: number, colour: string, dash: readonly 
   ctx.moveTo(left, y);
   ctx.lineTo(left + width, y);
   ctx.stroke();
-  ctx.font = `${12 * ratio}px system-ui, sans-serif`;
+  ctx.font = `${12 * ratio}px ${chartFontFamily}`;
   ctx.textAlign = 'right';
   ctx.textBaseline = 'bottom';
   ctx.fillText(label, left + width - 4 * ratio, y - 2 * ratio);
@@ -115,8 +116,8 @@ function drawMarkers(u: uPlot, analysis: PendulumAnalysis): void {
   const i = analysis.indices;
   const ctx = u.ctx;
   const ratio = devicePixelRatio;
-  horizontalLine(u, i.restAngleDeg, chartColours.rest, [], `rest ${formatFixed(i.restAngleDeg, 0)}°`);
-  horizontalLine(u, i.startAngleDeg, chartColours.event, chartDashes.event, `start ${formatFixed(i.startAngleDeg, 0)}°`);
+  horizontalLine(u, i.restAngleDeg, chartColours.rest, [], t.restLine(formatFixed(i.restAngleDeg, 0)));
+  horizontalLine(u, i.startAngleDeg, chartColours.event, chartDashes.event, t.startLine(formatFixed(i.startAngleDeg, 0)));
   // Release: a vertical line at t = 0.
   const x0 = u.valToPos(0, 'x', true);
   ctx.save();
@@ -147,10 +148,10 @@ function drawMarkers(u: uPlot, analysis: PendulumAnalysis): void {
   // The label sits beside the diamond inside the plot: right of it, or left near the right edge; above
   // it, or below when the peak is near the top. It never reaches the axis labels or the canvas edge.
   ctx.fillStyle = chartColours.value;
-  ctx.font = `600 ${12 * ratio}px system-ui, sans-serif`;
+  ctx.font = `600 ${12 * ratio}px ${chartFontFamily}`;
   ctx.textAlign = 'left';
   ctx.textBaseline = 'alphabetic';
-  const text = `first peak ${formatFixed(i.firstPeakDeg, 0)}°`;
+  const text = t.firstPeak(formatFixed(i.firstPeakDeg, 0));
   const textWidth = ctx.measureText(text).width;
   const textHeight = 12 * ratio;
   const { left, top, width } = u.bbox;
@@ -197,8 +198,8 @@ export function pendulumChartOptions(analysis: PendulumAnalysis, width: number, 
     ],
     series: [
       {},
-      { label: 'Knee flexion angle', stroke: chartColours.value, width: 2, points: { show: false } },
-      { label: 'Fitted damped swing', stroke: chartColours.fit, width: 2, dash: [...chartDashes.fit], points: { show: false } },
+      { label: t.kneeFlexionAngle, stroke: chartColours.value, width: 2, points: { show: false } },
+      { label: t.fittedSwing, stroke: chartColours.fit, width: 2, dash: [...chartDashes.fit], points: { show: false } },
     ],
     hooks: {
       drawClear: [(u) => drawAreas(u, analysis.indices.restAngleDeg)],

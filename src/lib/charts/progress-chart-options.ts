@@ -1,6 +1,7 @@
 import type uPlot from 'uplot';
 import { layoutEventLabels } from './event-label-layout';
-import { chartColours, chartDashes } from './palette';
+import * as t from './chart-messages';
+import { chartColours, chartDashes, chartFontFamily } from './palette';
 
 /** What a progress chart shows: one measure at one site over time. Values of ordinal scales are ranks. */
 export interface ProgressChartInput {
@@ -126,7 +127,7 @@ function drawEvents(u: uPlot, input: ProgressChartInput): void {
   const ratio = devicePixelRatio;
   const { top, height, left, width } = u.bbox;
   ctx.save();
-  ctx.font = `${labelFontPx * ratio}px system-ui, sans-serif`;
+  ctx.font = `${labelFontPx * ratio}px ${chartFontFamily}`;
   const items = events.map((e) => ({ x: u.valToPos(e.timeMs / 1000, 'x', true) / ratio, width: ctx.measureText(e.label).width / ratio }));
   const { placed } = layoutEventLabels(items, left / ratio, (left + width) / ratio, labelGapPx);
   ctx.strokeStyle = chartColours.event;
@@ -186,14 +187,14 @@ export function progressChartOptions(input: ProgressChartInput, width: number, h
     series: [
       {},
       {
-        label: 'Measured',
+        label: t.measured,
         stroke: chartColours.value,
         width: 2,
         points: { show: true, size: 9, fill: chartColours.valueFill, stroke: chartColours.value },
         value: (_u, v) => (v === null ? '–' : formatValue(v)),
       },
       {
-        label: 'Trend',
+        label: t.trend,
         stroke: chartColours.trend,
         width: 2,
         dash: [...chartDashes.trend],

@@ -20,7 +20,7 @@ const ROOT = join(__dirname, '../../..');
  * hand-over),
  * the measuring instruments and their pages, the drafts list the programme editor shows, the therapist's
  * first screen, menu, caseload, new-patient form, settings (with its team section), reliability studies,
- * cohort audit, and the shared components of lib/ui.
+ * cohort audit, the shared components of lib/ui, and the charts.
  */
 const COVERED = [
   'src/routes/home-programme',
@@ -45,6 +45,7 @@ const COVERED = [
   'src/lib/ui/VirtualList.svelte',
   'src/lib/ui/ReanalysisNotice.svelte',
   'src/lib/ui/team',
+  'src/lib/charts',
 ];
 /** The catalogues themselves (where the words belong): every module named `…-messages.ts` (or `…-messages-es.ts`). */
 const CATALOGUES = /-messages(?:-es)?\.ts$/;
