@@ -46,6 +46,8 @@ async function timeToFirstRows(page: Page, print: (line: string) => void, runs: 
   }
   for (let i = 1; i <= runs; i++) {
     await page.locator('nav[aria-label="Main"] a[href="/settings"]').click();
+    // The URL, not any heading: the caseload's own heading would let the click below race the navigation away (a hang).
+    await page.waitForURL(/\/settings$/);
     await page.getByRole('heading', { level: 1 }).first().waitFor();
     const ms = await firstRowAfter(page, 'click-caseload');
     all.link.push(ms);
